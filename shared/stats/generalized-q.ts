@@ -1,0 +1,71 @@
+/**
+ * The generalized Q statistic Q(τ²) = Σ wᵢ(yᵢ − μ̂)², wᵢ = 1/(vᵢ + τ²), with μ̂ its weighted mean,
+ * and T(τ²) = Σ wᵢ²(yᵢ − μ̂)² = −dQ/dτ² (DerSimonian & Kacker 2007). One pass; `shift` should be
+ * close to the weighted mean (e.g. the fixed-effect estimate) so the one-pass form does not cancel.
+ */
+export function generalizedQ(
+  y: Float64Array,
+  v: Float64Array,
+  tau2: number,
+  shift: number,
+): { Q: number; T: number; sumW: number; mean: number } {
+  let s0 = 0;
+  let s1 = 0;
+  let s2 = 0;
+  let w2 = 0;
+  let w2d = 0;
+  let w2dd = 0;
+  const k = y.length;
+  for (let i = 0; i < k; i++) {
+    const w = 1 / (v[i] + tau2);
+    const d = y[i] - shift;
+    const wd = w * d;
+    s0 += w;
+    s1 += wd;
+    s2 += wd * d;
+    const ww = w * w;
+    w2 += ww;
+    w2d += ww * d;
+    w2dd += ww * d * d;
+  }
+  const m = s1 / s0;
+  const Q = Math.max(0, s2 - s1 * m);
+  const T = Math.max(0, w2dd - 2 * m * w2d + m * m * w2);
+  return { Q, T, sumW: s0, mean: shift + m };
+}
+
+/**
+ * The τ² ≥ 0 at which the generalized Q equals `target` (the Paule–Mandel estimating equation with
+ * target k − 1, or a Q-profile bound with a χ² quantile; Viechtbauer 2007). Q(τ²) decreases
+ * monotonically, so the root is unique; 0 when Q(0) ≤ target. Newton steps on 1/Q(τ²), which is
+ * close to linear in τ², kept inside a bracket (bisection otherwise), until the step is below 1e-15
+ * relative.
+ */
+export function solveGeneralizedQ(
+  y: Float64Array,
+  v: Float64Array,
+  target: number,
+  start: number,
+  shift: number,
+  q0?: number,
+): number {
+  const atZero = q0 ?? generalizedQ(y, v, 0, shift).Q;
+  if (!(atZero > target)) return 0;
+  let lo = 0;
+  let hi = Infinity;
+  let x = start > 0 && Number.isFinite(start) ? start : 0;
+  for (let iter = 0; iter < 300; iter++) {
+    const { Q, T } = generalizedQ(y, v, x, shift);
+    if (Q === target) return x;
+    if (Q > target) lo = x;
+    else hi = x;
+    let next = T > 0 ? x + ((Q - target) / T) * (Q / target) : NaN;
+    if (!(next > lo && next < hi)) {
+      if (hi === Infinity) next = x > 0 ? 2 * x : 1;
+      else next = 0.5 * (lo + hi);
+    }
+    if (Math.abs(next - x) <= 1e-15 * Math.max(next, x) || (hi < Infinity && hi - lo <= 1e-15 * hi)) return next;
+    x = next;
+  }
+  return x;
+}

@@ -1,0 +1,137 @@
+import type { PoolOptions, PoolResult, PreparedData } from './types.js';
+import { dlTau2 } from './dl-tau2.js';
+import { remlTau2 } from './reml-tau2.js';
+import { generalizedQ, solveGeneralizedQ } from './generalized-q.js';
+import { eggerCore } from './egger-core.js';
+import { chiSquareQuantile, chiSquareUpperTail } from './chi-square.js';
+import { normalQuantileUpper, normalTwoTailed } from './normal.js';
+import { tQuantileUpper, tTwoTailed } from './student-t.js';
+
+export interface PoolCoreExtras {
+  /** skip the Q-profile interval and Egger's test (used by trim-and-fill's inner fits) */
+  lean?: boolean;
+  /** skip the per-study weights array */
+  noWeights?: boolean;
+}
+
+/**
+ * The pooled analysis on validated data (see pool.ts for the definitions and sources).
+ */
+export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolCoreExtras = {}): PoolResult {
+  const { y, v } = data;
+  const { method, hksj, level } = options;
+  const k = y.length;
+  const alpha = 1 - level;
+  const zCrit = normalQuantileUpper(alpha / 2);
+
+  if (k === 1) {
+    const se = Math.sqrt(v[0]);
+    const z = y[0] / se;
+    return {
+      k, method, hksj, level,
+      estimate: y[0], se, ci_lower: y[0] - zCrit * se, ci_upper: y[0] + zCrit * se,
+      statistic: z, statistic_df: null, p: normalTwoTailed(z),
+      tau2: null, tau: null, tau2_ci_lower: null, tau2_ci_upper: null,
+      Q: null, Q_df: null, Q_p: null, I2: null, I2_tau: null, H2: null,
+      pi_lower: null, pi_upper: null, egger: null, weights: [100],
+    };
+  }
+
+  const fe = dlTau2(y, v);
+  const df = k - 1;
+  let tau2 = 0;
+  if (method === 'DL') tau2 = fe.tau2;
+  else if (method === 'PM') tau2 = solveGeneralizedQ(y, v, df, fe.tau2, fe.feMean, fe.Q);
+  else if (method === 'REML') tau2 = remlTau2(y, v, fe.feMean);
+
+  // pooled estimate with weights 1/(v + τ²)
+  let sumW: number;
+  let mean: number;
+  const wArr = extras.noWeights ? null : new Float64Array(k);
+  if (method === 'FE') {
+    sumW = fe.sumW;
+    mean = fe.feMean;
+    if (wArr) for (let i = 0; i < k; i++) wArr[i] = 1 / v[i];
+  } else {
+    let s0 = 0;
+    let s1 = 0;
+    let comp = 0;
+    const shift = fe.feMean;
+    for (let i = 0; i < k; i++) {
+      const w = 1 / (v[i] + tau2);
+      if (wArr) wArr[i] = w;
+      s0 += w;
+      const x = w * (y[i] - shift);
+      const t = s1 + x;
+      comp += Math.abs(s1) >= Math.abs(x) ? s1 - t + x : x - t + s1;
+      s1 = t;
+    }
+    sumW = s0;
+    mean = shift + (s1 + comp) / s0;
+  }
+
+  let se = Math.sqrt(1 / sumW);
+  let crit = zCrit;
+  let statisticDf: number | null = null;
+  if (hksj) {
+    let s = 0;
+    for (let i = 0; i < k; i++) {
+      const d = y[i] - mean;
+      s += (d * d) / (v[i] + tau2);
+    }
+    se = Math.sqrt(s / (df * sumW));
+    statisticDf = df;
+    crit = tQuantileUpper(alpha / 2, df);
+  }
+  const statistic = mean / se;
+  const p = statisticDf === null ? normalTwoTailed(statistic) : tTwoTailed(statistic, statisticDf);
+
+  const Q = fe.Q;
+  const I2 = Q > 0 ? 100 * Math.max(0, (Q - df) / Q) : 0;
+  const H2 = Q / df;
+  const isRandom = method !== 'FE';
+
+  let tau2Lower: number | null = null;
+  let tau2Upper: number | null = null;
+  if (isRandom && !extras.lean) {
+    // Q-profile interval (Viechtbauer 2007): the τ² where the generalized Q meets the χ²(k−1) quantiles
+    const qHi = chiSquareQuantile(alpha / 2, df, true);
+    const qLo = chiSquareQuantile(alpha / 2, df, false);
+    tau2Lower = solveGeneralizedQ(y, v, qHi, tau2, fe.feMean, Q);
+    tau2Upper = solveGeneralizedQ(y, v, qLo, Math.max(tau2, tau2Lower), fe.feMean, Q);
+  }
+
+  let I2tau: number | null = null;
+  if (method === 'REML' || method === 'PM') {
+    // typical within-study variance (Higgins & Thompson 2002): (k − 1)Σw / ((Σw)² − Σw²)
+    const s2 = (df * fe.sumW) / (fe.sumW * fe.sumW - fe.sumW2);
+    I2tau = (100 * tau2) / (tau2 + s2);
+  }
+
+  let piLower: number | null = null;
+  let piUpper: number | null = null;
+  if (isRandom && k >= 3) {
+    const half = tQuantileUpper(alpha / 2, k - 2) * Math.sqrt(tau2 + se * se);
+    piLower = mean - half;
+    piUpper = mean + half;
+  }
+
+  const weights: number[] = [];
+  if (wArr) {
+    const scale = 100 / sumW;
+    for (let i = 0; i < k; i++) weights.push(wArr[i] * scale);
+  }
+
+  return {
+    k, method, hksj, level,
+    estimate: mean, se, ci_lower: mean - crit * se, ci_upper: mean + crit * se,
+    statistic, statistic_df: statisticDf, p,
+    tau2: isRandom ? tau2 : null,
+    tau: isRandom ? Math.sqrt(tau2) : null,
+    tau2_ci_lower: tau2Lower, tau2_ci_upper: tau2Upper,
+    Q, Q_df: df, Q_p: chiSquareUpperTail(Q, df), I2, I2_tau: I2tau, H2,
+    pi_lower: piLower, pi_upper: piUpper,
+    egger: extras.lean ? null : eggerCore(y, v, fe.feMean, fe.sumW),
+    weights,
+  };
+}
