@@ -1,0 +1,101 @@
+import express, { type Router } from 'express';
+import session from 'express-session';
+import connectPgSimple from 'connect-pg-simple';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import type { AppContext } from './context.js';
+import { createPassport } from './auth/passport.js';
+import { bearerAuth, bearerToken } from './auth/api-tokens.js';
+import { originCheck } from './auth/origin-check.js';
+import { errorHandler, notFoundApi } from './lib/error-handler.js';
+import { authRouter } from './routes/auth.js';
+import { healthRouter } from './routes/health.js';
+import { meRouter } from './routes/me.js';
+import { adminRouter } from './routes/admin.js';
+import { tokensRouter } from './routes/tokens.js';
+
+
+/** Builds the Express app without listening, so tests can mount it with supertest. */
+export function buildApp(ctx: AppContext) {
+  const { env } = ctx;
+  const clientDir = path.resolve(env.CLIENT_DIR);
+  const app = express();
+  app.set('trust proxy', env.TRUST_PROXY);
+  app.disable('x-powered-by');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          scriptSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          fontSrc: ["'self'", 'data:'],
+          formAction: ["'self'", new URL(env.GITHUB_AUTHORIZATION_URL).origin],
+          upgradeInsecureRequests: env.APP_ORIGIN.startsWith('https') ? [] : null,
+        },
+      },
+      hsts: env.APP_ORIGIN.startsWith('https'),
+    }),
+  );
+
+  // Routers that need larger bodies (bulk compute, uploads) mount their own parsers before this one.
+  for (const mount of earlyApiRouters) app.use('/api', mount(ctx));
+  app.use(express.json({ limit: '2mb' }));
+  app.use(express.urlencoded({ extended: false, limit: '1mb' }));
+
+  const PgStore = connectPgSimple(session);
+  const sessionMiddleware = session({
+    name: 'chronometa.sid',
+    secret: env.SESSION_SECRET,
+    store: new PgStore({ pool: ctx.sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: false }),
+    resave: false,
+    saveUninitialized: false,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: env.APP_ORIGIN.startsWith('https'), maxAge: 14 * 24 * 3600 * 1000 },
+  });
+  const passport = createPassport(env, ctx.db);
+  const initialize = passport.initialize();
+  const restore = passport.session();
+  // A Bearer request is authenticated by its token alone and never touches the session.
+  app.use((req, res, next) => {
+    if (bearerToken(req.headers.authorization)) return next();
+    sessionMiddleware(req, res, (err?: unknown) => {
+      if (err) return next(err);
+      initialize(req, res, () => restore(req, res, next));
+    });
+  });
+  app.use(bearerAuth(ctx.db));
+  app.use(originCheck([env.APP_ORIGIN, ...extraOrigins(env)]));
+
+  app.use('/auth', authRouter(ctx, passport));
+  for (const mount of apiRouters) app.use('/api', mount(ctx));
+  app.use('/api', notFoundApi);
+
+  if (existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', dotfiles: 'allow' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html'), { dotfiles: 'allow' }));
+  }
+  app.use(errorHandler(env.NODE_ENV === 'development'));
+  return app;
+}
+
+function extraOrigins(env: AppContext['env']): string[] {
+  return env.NODE_ENV === 'development' ? ['http://127.0.0.1:5173', 'http://localhost:5173'] : [];
+}
+
+type MountRouter = (ctx: AppContext) => Router;
+
+/** Routers with their own body parsers (mounted before the default JSON parser). */
+const earlyApiRouters: MountRouter[] = [
+  // feature routers with large bodies go here
+];
+
+/** Every API router, mounted under /api. Add a feature's router to this list. */
+const apiRouters: MountRouter[] = [
+  healthRouter,
+  meRouter,
+  adminRouter,
+  tokensRouter,
+];

@@ -1,0 +1,24 @@
+import { buildApp } from './app.js';
+import { closeContext, createContext, startBackground } from './context.js';
+import { readEnv } from './env.js';
+
+let env;
+try {
+  env = readEnv();
+} catch (err) {
+  console.error((err as Error).message);
+  process.exit(1);
+}
+const ctx = createContext(env);
+await startBackground(ctx);
+const app = buildApp(ctx);
+const server = app.listen(env.PORT, env.HOST, () => {
+  console.log(`Chronometa is running at ${env.APP_ORIGIN}`);
+});
+
+const shutdown = () => {
+  server.close();
+  closeContext(ctx).finally(() => process.exit(0));
+};
+process.on('SIGINT', shutdown);
+process.on('SIGTERM', shutdown);

@@ -1,0 +1,33 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { AppError } from './errors.js';
+
+export const notFoundApi: RequestHandler = (req, res) => {
+  res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.path}.` } });
+};
+
+export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
+  return (err, _req, res, _next) => {
+    if (err instanceof AppError) {
+      res.status(err.status).json({
+        error: { code: err.code, message: err.message, ...(err.details !== undefined ? { details: err.details } : {}) },
+      });
+      return;
+    }
+    // body-parser, multer and similar middleware set an HTTP status on their errors.
+    const status = typeof err?.status === 'number' ? err.status : typeof err?.statusCode === 'number' ? err.statusCode : 500;
+    if (status >= 400 && status < 500) {
+      const message =
+        err.type === 'entity.parse.failed'
+          ? 'The request body is not valid JSON.'
+          : err.type === 'entity.too.large'
+            ? 'The request body is too large.'
+            : String(err.message || 'Bad request.');
+      res.status(status).json({ error: { code: err.code && typeof err.code === 'string' ? err.code.toLowerCase() : 'bad_request', message } });
+      return;
+    }
+    console.error(err);
+    res.status(500).json({
+      error: { code: 'internal', message: exposeInternals ? String(err?.stack ?? err) : 'Something went wrong on the server.' },
+    });
+  };
+}

@@ -1,0 +1,16 @@
+import type { Role } from '../shared/roles.js';
+
+declare global {
+  namespace Express {
+    interface User {
+      id: number;
+      login: string;
+      name: string | null;
+      email: string | null;
+      roles: Role[];
+      via: 'session' | 'token';
+    }
+  }
+}
+
+export {};

@@ -1,0 +1,35 @@
+import { z } from 'zod';
+
+export const ROLES = ['reader', 'contributor', 'curator', 'reviewer', 'admin'] as const;
+export const roleSchema = z.enum(ROLES);
+export type Role = z.infer<typeof roleSchema>;
+
+/** Roles a held role also grants (the brief's table: a curator can do all a contributor can, and so on). */
+const IMPLIED: Record<Role, Role[]> = {
+  reader: [],
+  contributor: ['reader'],
+  curator: ['contributor', 'reader'],
+  reviewer: ['reader'],
+  admin: ['reader'],
+};
+
+export function effectiveRoles(held: readonly Role[]): Role[] {
+  const all = new Set<Role>(['reader']);
+  for (const r of held) {
+    all.add(r);
+    for (const i of IMPLIED[r]) all.add(i);
+  }
+  return ROLES.filter((r) => all.has(r));
+}
+
+export function hasRole(held: readonly Role[], needed: Role): boolean {
+  return effectiveRoles(held).includes(needed);
+}
+
+export const ROLE_LABELS: Record<Role, string> = {
+  reader: 'Reader',
+  contributor: 'Contributor',
+  curator: 'Curator',
+  reviewer: 'Reviewer',
+  admin: 'Administrator',
+};

@@ -1,0 +1,15 @@
+import type { Role } from '../../shared/roles';
+
+/** Header links; each feature adds its screen here. `role` hides a link from people who cannot use it. */
+export interface NavItem {
+  to: string;
+  label: string;
+  role?: Role;
+  signedIn?: boolean;
+}
+
+export const NAV_ITEMS: NavItem[] = [
+  // feature screens go here
+  { to: '/settings/tokens', label: 'API tokens', signedIn: true },
+  { to: '/admin/people', label: 'People', role: 'admin' },
+];

@@ -1,0 +1,15 @@
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { AppShell } from './AppShell';
+import { AdminPeoplePage } from './routes/AdminPeoplePage';
+import { HomePage } from './routes/HomePage';
+import { NotFoundPage } from './routes/NotFoundPage';
+import { TokensPage } from './routes/TokensPage';
+
+/** Every screen; each feature adds its routes to this list. */
+const screens: RouteObject[] = [
+  { index: true, element: <HomePage /> },
+  { path: 'settings/tokens', element: <TokensPage /> },
+  { path: 'admin/people', element: <AdminPeoplePage /> },
+];
+
+export const router = createBrowserRouter([{ path: '/', element: <AppShell />, children: [...screens, { path: '*', element: <NotFoundPage /> }] }]);

@@ -1,0 +1,26 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { Me } from '../../../../shared/schemas/users';
+import { hasRole, type Role } from '../../../../shared/roles';
+import { api, ApiRequestError } from '../../../lib/api-client';
+
+export const authKeys = { all: ['auth'] as const, me: () => [...authKeys.all, 'me'] as const };
+
+export async function getMe(): Promise<Me | null> {
+  try {
+    return (await api<{ user: Me }>('/api/me')).user;
+  } catch (err) {
+    if (err instanceof ApiRequestError && err.status === 401) return null;
+    throw err;
+  }
+}
+
+export const meQueryOptions = () => queryOptions({ queryKey: authKeys.me(), queryFn: getMe, staleTime: 60_000 });
+
+export function useMe() {
+  return useQuery(meQueryOptions());
+}
+
+export function useHasRole(role: Role): boolean {
+  const { data } = useMe();
+  return !!data && hasRole(data.roles, role);
+}
