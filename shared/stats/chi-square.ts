@@ -30,7 +30,7 @@ export function chiSquareDensity(x: number, df: number): number {
  * Quantile of χ²(df): the x with P(X ≤ x) = p, or with P(X > x) = p when `upper` is true (pass the
  * small tail directly to keep its precision). Start: Wilson & Hilferty (1931) cube-root normal
  * approximation (or the small-x series for small df), then safeguarded Newton steps on the log of the
- * smaller tail until the step is below 1e-15 relative. Example: chiSquareQuantile(0.95, 1) ≈ 3.841458820694124.
+ * smaller tail until a step is below 1e-10 relative (the next would be below rounding). Example: chiSquareQuantile(0.95, 1) ≈ 3.841458820694124.
  */
 export function chiSquareQuantile(p: number, df: number, upper = false): number {
   if (!(df > 0)) throw new RangeError('chi-square df must be positive');
@@ -66,8 +66,13 @@ export function chiSquareQuantile(p: number, df: number, upper = false): number 
       const dlog = (useUpper ? -dens : dens) / tail;
       next = x - (Math.log(tail) - logTarget) / dlog;
     } else next = NaN;
-    if (!(next > lo && next < hi)) next = hi === Infinity ? Math.max(2 * x, x + 1) : 0.5 * (lo + hi);
-    if (Math.abs(next - x) <= 1e-15 * x) return next;
+    let newton = true;
+    if (!(next > lo && next < hi)) {
+      newton = false;
+      next = hi === Infinity ? Math.max(2 * x, x + 1) : 0.5 * (lo + hi);
+    }
+    // quadratic convergence: after a Newton step below 1e-10 relative the error is below rounding
+    if ((newton && Math.abs(next - x) <= 1e-10 * x) || Math.abs(next - x) <= 1e-15 * x) return next;
     x = next;
   }
   return x;

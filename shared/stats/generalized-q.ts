@@ -39,7 +39,8 @@ export function generalizedQ(
  * target k − 1, or a Q-profile bound with a χ² quantile; Viechtbauer 2007). Q(τ²) decreases
  * monotonically, so the root is unique; 0 when Q(0) ≤ target. Newton steps on 1/Q(τ²), which is
  * close to linear in τ², kept inside a bracket (bisection otherwise), until the step is below 1e-15
- * relative.
+ * relative (or a
+ * Newton step below 1e-9 relative, after which the error is at the rounding level).
  */
 export function solveGeneralizedQ(
   y: Float64Array,
@@ -60,11 +61,17 @@ export function solveGeneralizedQ(
     if (Q > target) lo = x;
     else hi = x;
     let next = T > 0 ? x + ((Q - target) / T) * (Q / target) : NaN;
+    let newton = true;
     if (!(next > lo && next < hi)) {
+      newton = false;
       if (hi === Infinity) next = x > 0 ? 2 * x : 1;
       else next = 0.5 * (lo + hi);
     }
-    if (Math.abs(next - x) <= 1e-15 * Math.max(next, x) || (hi < Infinity && hi - lo <= 1e-15 * hi)) return next;
+    // Newton converges quadratically here: once a step is below 1e-9 relative, the next one would be
+    // below the rounding noise of Q itself (~k·1e-16), so further passes over the data buy nothing.
+    const step = Math.abs(next - x);
+    if ((newton && step <= 1e-9 * Math.max(next, x)) || step <= 1e-15 * Math.max(next, x)) return next;
+    if (hi < Infinity && hi - lo <= 1e-15 * hi) return next;
     x = next;
   }
   return x;

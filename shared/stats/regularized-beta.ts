@@ -1,6 +1,6 @@
 import { logBeta } from './log-gamma.js';
 
-const EPS = 1e-16;
+const EPS = 2.5e-16; // one ulp of 1: |del − 1| below this means del rounds to 1
 const TINY = 1e-300;
 
 /**

@@ -37,7 +37,7 @@ export function tDensity(t: number, df: number): number {
  * Upper quantile of Student's t: the t > 0 with P(T > t) = alpha, 0 < alpha ≤ ½ (e.g. alpha = 0.025
  * gives the 95% two-sided critical value). Start: exact forms for df = 1, 2, jStat.studentt.inv for
  * moderate df, a Cornish–Fisher expansion (Hill 1970) for large df; then Newton steps with the
- * accurate tail and density until the step is below 1e-15 relative.
+ * accurate tail and density until a step is below 1e-10 relative (the next would be below rounding).
  * Example: tQuantileUpper(0.025, 10) ≈ 2.2281388519649385.
  */
 export function tQuantileUpper(alpha: number, df: number): number {
@@ -63,7 +63,8 @@ export function tQuantileUpper(alpha: number, df: number): number {
     const dens = tDensity(t, df);
     let next = t + (tail - alpha) / dens;
     if (!(next > 0)) next = t / 2;
-    if (Math.abs(next - t) <= 1e-15 * t) return next;
+    // quadratic convergence: after a step below 1e-10 relative the error is below rounding
+    if (Math.abs(next - t) <= 1e-10 * t) return next;
     t = next;
   }
   return t;

@@ -1,0 +1,99 @@
+import { StatsInputError } from './errors.js';
+import type { PoolInput } from './types.js';
+import { preparePoolInput } from './validate-input.js';
+import { poolCore } from './pool-core.js';
+import { makeEntry, type SensitivityEntry } from './sensitivity-entry.js';
+import { normalQuantileUpper } from './normal.js';
+import { tQuantileUpper } from './student-t.js';
+import { dlTau2 } from './dl-tau2.js';
+
+const SERIES_RATIO = 0.1;
+const TERMS = 17; // 0.1^17 < 1e-16
+
+/**
+ * Cumulative meta-analysis in the order given (sort by year first for "cumulative by year"): entry m
+ * pools studies 0 … m with the same method, HKSJ setting and level as `pool` (entry 0 is the single
+ * first study, heterogeneity null).
+ *
+ * For FE and DL it uses running sums: the fixed-effect sums and DL's τ²ₘ are prefix sums; the
+ * random-effects sums Σⱼ≤ₘ 1/(vⱼ + τ²ₘ) come from running power-series moments around an anchor τₐ²
+ * (1/(v + τₐ² + δ) = Σₙ (−δ)ⁿ/(v + τₐ²)ⁿ⁺¹, 17 terms, used while |δ|·max w ≤ 0.1, error < 1e-16); when
+ * τ²ₘ drifts too far the anchor moves to τ²ₘ and the moments are rebuilt. REML and PM refit each prefix.
+ *
+ * Input: as pool, k ≥ 1. Example: cumulative({ effects: [0, 1], variances: [1, 1], method: 'FE' })[1].estimate = 0.5.
+ */
+export function cumulative(input: PoolInput): SensitivityEntry[] {
+  const prepared = preparePoolInput(input);
+  const { y, v, method, hksj, level } = prepared;
+  const k = y.length;
+  if (k < 1) throw new StatsInputError('cumulative analysis needs at least 1 effect', 'effects');
+  const alpha = 1 - level;
+  const out: SensitivityEntry[] = new Array(k);
+  const zCrit = normalQuantileUpper(alpha / 2);
+
+  if (method === 'REML' || method === 'PM') {
+    for (let m = 0; m < k; m++) {
+      const r = poolCore({ y: y.subarray(0, m + 1), v: v.subarray(0, m + 1) }, prepared, { lean: true, noWeights: true });
+      out[m] = { index: m, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper,
+        statistic: r.statistic, statistic_df: r.statistic_df, p: r.p, tau2: r.tau2, I2: r.I2, H2: r.H2, Q: r.Q };
+    }
+    return out;
+  }
+
+  const center = dlTau2(y, v).feMean;
+  let A = 0, B = 0, C = 0, D = 0;
+  let anchor = 0;
+  let wMax = 0;
+  const mom = new Float64Array(3 * TERMS);
+  const addMoments = (j: number) => {
+    const wa = 1 / (v[j] + anchor);
+    if (wa > wMax) wMax = wa;
+    const d = y[j] - center;
+    let p = wa;
+    for (let t = 0; t < TERMS; t++) {
+      mom[3 * t] += p;
+      mom[3 * t + 1] += p * d;
+      mom[3 * t + 2] += p * d * d;
+      p *= wa;
+    }
+  };
+  for (let m = 0; m < k; m++) {
+    const w = 1 / v[m];
+    const d = y[m] - center;
+    A += w; B += w * d; C += w * d * d; D += w * w;
+    const n = m + 1;
+    const Q = n > 1 ? Math.max(0, C - (B * B) / A) : 0;
+    const c = A - D / A;
+    const tau2 = method === 'DL' && n > 1 && c > 0 ? Math.max(0, (Q - (n - 1)) / c) : 0;
+    addMoments(m);
+    let delta = tau2 - anchor;
+    if (Math.abs(delta) * wMax > SERIES_RATIO) {
+      anchor = tau2;
+      delta = 0;
+      mom.fill(0);
+      wMax = 0;
+      for (let j = 0; j <= m; j++) addMoments(j);
+    }
+    let S0 = mom[0], S1 = mom[1], S2 = mom[2];
+    if (delta !== 0) {
+      let f = 1;
+      for (let t = 1; t < TERMS; t++) {
+        f *= -delta;
+        S0 += f * mom[3 * t];
+        S1 += f * mom[3 * t + 1];
+        S2 += f * mom[3 * t + 2];
+      }
+    }
+    const mu = S1 / S0;
+    let se = Math.sqrt(1 / S0);
+    let crit = zCrit;
+    let statisticDf: number | null = null;
+    if (hksj && n > 1) {
+      statisticDf = n - 1;
+      se = Math.sqrt(Math.max(0, S2 - S1 * mu) / ((n - 1) * S0));
+      crit = tQuantileUpper(alpha / 2, statisticDf);
+    }
+    out[m] = makeEntry(m, n, method, center + mu, se, crit, statisticDf, tau2, Q);
+  }
+  return out;
+}

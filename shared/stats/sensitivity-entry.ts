@@ -1,0 +1,52 @@
+import type { Method } from './types.js';
+import { normalTwoTailed } from './normal.js';
+import { tTwoTailed } from './student-t.js';
+
+/** One refit of a sensitivity analysis (leave-one-out or cumulative). */
+export interface SensitivityEntry {
+  /** leave-one-out: the position of the omitted study; cumulative: the position of the last study added */
+  index: number;
+  k: number;
+  estimate: number;
+  se: number;
+  ci_lower: number;
+  ci_upper: number;
+  statistic: number;
+  statistic_df: number | null;
+  p: number;
+  tau2: number | null;
+  I2: number | null;
+  H2: number | null;
+  Q: number | null;
+}
+
+export function makeEntry(
+  index: number,
+  k: number,
+  method: Method,
+  estimate: number,
+  se: number,
+  crit: number,
+  statisticDf: number | null,
+  tau2: number,
+  Q: number,
+): SensitivityEntry {
+  const statistic = estimate / se;
+  const df = k - 1;
+  const hetero = k > 1;
+  return {
+    index,
+    k,
+    estimate,
+    se,
+    ci_lower: estimate - crit * se,
+    ci_upper: estimate + crit * se,
+    statistic,
+    statistic_df: statisticDf,
+    p: statisticDf === null ? normalTwoTailed(statistic) : tTwoTailed(statistic, statisticDf),
+    tau2: method === 'FE' || !hetero ? null : tau2,
+    I2: hetero ? (Q > 0 ? 100 * Math.max(0, (Q - df) / Q) : 0) : null,
+    H2: hetero ? Q / df : null,
+    Q: hetero ? Q : null,
+  };
+}
