@@ -1,0 +1,35 @@
+/** Screening decisions and the exclusion reasons a contributor picks from (PRISMA 2020 "excluded with reasons"). */
+export const SCREENING_DECISIONS = ['included', 'excluded'] as const;
+export type ScreeningDecision = (typeof SCREENING_DECISIONS)[number];
+
+export const SCREENING_STATUSES = ['unscreened', 'included', 'excluded'] as const;
+export type ScreeningStatus = (typeof SCREENING_STATUSES)[number];
+
+export const EXCLUSION_REASONS = [
+  'wrong_population',
+  'not_time_perception',
+  'no_usable_statistics',
+  'review_article',
+  'duplicate_publication',
+  'other',
+] as const;
+export type ExclusionReason = (typeof EXCLUSION_REASONS)[number];
+
+export const EXCLUSION_REASON_LABELS: Record<ExclusionReason, string> = {
+  wrong_population: 'Wrong population',
+  not_time_perception: 'Not about time perception',
+  no_usable_statistics: 'No usable statistics',
+  review_article: 'Review article',
+  duplicate_publication: 'Duplicate publication',
+  other: 'Other (explained)',
+};
+
+/** Keys for the screening queue: one key per reason so a contributor never leaves the keyboard. */
+export const EXCLUSION_REASON_KEYS: Record<ExclusionReason, string> = {
+  wrong_population: '1',
+  not_time_perception: '2',
+  no_usable_statistics: '3',
+  review_article: '4',
+  duplicate_publication: '5',
+  other: '6',
+};
