@@ -41,38 +41,75 @@ export function cumulative(input: PoolInput): SensitivityEntry[] {
   }
 
   const center = dlTau2(y, v).feMean;
-  let A = 0, B = 0, C = 0, D = 0;
-  let anchor = 0;
-  let wMax = 0;
-  const mom = new Float64Array(3 * TERMS);
-  const addMoments = (j: number) => {
-    const wa = 1 / (v[j] + anchor);
-    if (wa > wMax) wMax = wa;
-    const d = y[j] - center;
-    let p = wa;
-    for (let t = 0; t < TERMS; t++) {
-      mom[3 * t] += p;
-      mom[3 * t + 1] += p * d;
-      mom[3 * t + 2] += p * d * d;
-      p *= wa;
+  const { tau2s, Qs } = cumulativeFixed(y, v, center, method === 'DL');
+  const re = cumulativeRandom(y, v, center, tau2s, hksj);
+  for (let m = 0; m < k; m++) {
+    const n = m + 1;
+    let se = Math.sqrt(1 / re.sumW[m]);
+    let crit = zCrit;
+    let statisticDf: number | null = null;
+    if (hksj && n > 1) {
+      statisticDf = n - 1;
+      se = Math.sqrt(re.hksjNum[m] / ((n - 1) * re.sumW[m]));
+      crit = tQuantileUpper(alpha / 2, statisticDf);
     }
-  };
+    out[m] = makeEntry(m, n, method, center + re.mean[m], se, crit, statisticDf, tau2s[m], Qs[m]);
+  }
+  return out;
+}
+
+/** Prefix fixed-effect Q and DL τ² (each loop in its own function so V8 optimizes it with full type feedback). */
+function cumulativeFixed(y: Float64Array, v: Float64Array, center: number, dl: boolean) {
+  const k = y.length;
+  const tau2s = new Float64Array(k);
+  const Qs = new Float64Array(k);
+  let A = 0, B = 0, C = 0, D = 0;
   for (let m = 0; m < k; m++) {
     const w = 1 / v[m];
     const d = y[m] - center;
     A += w; B += w * d; C += w * d * d; D += w * w;
     const n = m + 1;
     const Q = n > 1 ? Math.max(0, C - (B * B) / A) : 0;
+    Qs[m] = Q;
     const c = A - D / A;
-    const tau2 = method === 'DL' && n > 1 && c > 0 ? Math.max(0, (Q - (n - 1)) / c) : 0;
-    addMoments(m);
-    let delta = tau2 - anchor;
+    tau2s[m] = dl && n > 1 && c > 0 ? Math.max(0, (Q - (n - 1)) / c) : 0;
+  }
+  return { tau2s, Qs };
+}
+
+/** Adds study j's power-series moments around `anchor` to mom; returns 1/(v_j + anchor). */
+function addMoments(mom: Float64Array, yj: number, vj: number, center: number, anchor: number): number {
+  const wa = 1 / (vj + anchor);
+  const d = yj - center;
+  let p = wa;
+  for (let t = 0; t < TERMS; t++) {
+    mom[3 * t] += p;
+    mom[3 * t + 1] += p * d;
+    mom[3 * t + 2] += p * d * d;
+    p *= wa;
+  }
+  return wa;
+}
+
+function cumulativeRandom(y: Float64Array, v: Float64Array, center: number, tau2s: Float64Array, hksj: boolean) {
+  const k = y.length;
+  const sumW = new Float64Array(k), mean = new Float64Array(k), hksjNum = new Float64Array(k);
+  const mom = new Float64Array(3 * TERMS);
+  let anchor = 0;
+  let wMax = 0;
+  for (let m = 0; m < k; m++) {
+    const wa = addMoments(mom, y[m], v[m], center, anchor);
+    if (wa > wMax) wMax = wa;
+    let delta = tau2s[m] - anchor;
     if (Math.abs(delta) * wMax > SERIES_RATIO) {
-      anchor = tau2;
+      anchor = tau2s[m];
       delta = 0;
       mom.fill(0);
       wMax = 0;
-      for (let j = 0; j <= m; j++) addMoments(j);
+      for (let j = 0; j <= m; j++) {
+        const w = addMoments(mom, y[j], v[j], center, anchor);
+        if (w > wMax) wMax = w;
+      }
     }
     let S0 = mom[0], S1 = mom[1], S2 = mom[2];
     if (delta !== 0) {
@@ -84,16 +121,10 @@ export function cumulative(input: PoolInput): SensitivityEntry[] {
         S2 += f * mom[3 * t + 2];
       }
     }
+    sumW[m] = S0;
     const mu = S1 / S0;
-    let se = Math.sqrt(1 / S0);
-    let crit = zCrit;
-    let statisticDf: number | null = null;
-    if (hksj && n > 1) {
-      statisticDf = n - 1;
-      se = Math.sqrt(Math.max(0, S2 - S1 * mu) / ((n - 1) * S0));
-      crit = tQuantileUpper(alpha / 2, statisticDf);
-    }
-    out[m] = makeEntry(m, n, method, center + mu, se, crit, statisticDf, tau2, Q);
+    mean[m] = mu;
+    if (hksj) hksjNum[m] = Math.max(0, S2 - S1 * mu);
   }
-  return out;
+  return { sumW, mean, hksjNum };
 }
