@@ -12,4 +12,5 @@ export const NAV_ITEMS: NavItem[] = [
   // feature screens go here
   { to: '/settings/tokens', label: 'API tokens', signedIn: true },
   { to: '/admin/people', label: 'People', role: 'admin' },
+  { to: '/admin/audit', label: 'Audit log', role: 'admin' },
 ];
