@@ -1,6 +1,8 @@
 // Starts every local stand-in for a hosted service on loopback, on the ports given by the environment.
 import type { Server } from 'node:http';
 import { startOAuthProvider } from './oauth-provider.js';
+import { startSearchIndex } from './search-index.js';
+import { startDoiResolver } from './doi-resolver.js';
 
 export interface FakePorts {
   oauth: number;
@@ -29,6 +31,10 @@ export async function startFakes(ports: FakePorts): Promise<RunningFakes> {
 
   track(await startOAuthProvider(ports.oauth));
   // Other stand-ins register here (search index, DOI resolver, SMTP + mailbox).
+  track(await startSearchIndex(ports.meili));
+  const doiResolver = await startDoiResolver(ports.doi);
+  // The resolver holds deliberately slow requests open: drop them on stop.
+  closers.push(() => new Promise<void>((r) => (doiResolver.close(() => r()), doiResolver.closeAllConnections())));
 
   return {
     async stop() {

@@ -1,0 +1,82 @@
+// citation-js set up once for the server: BibTeX, RIS and DOI input, BibTeX output, and a DOI resolver
+// whose base URL is configuration (the DOI plugin itself always fetches https://doi.org).
+import { Cite, plugins, util } from '@citation-js/core';
+import '@citation-js/plugin-bibtex';
+import '@citation-js/plugin-ris';
+import * as doiPlugin from '@citation-js/plugin-doi';
+
+const CSL_ACCEPT = 'application/vnd.citationstyles.csl+json';
+let resolverBase = 'https://doi.org';
+
+const parseDoiJson: (data: unknown) => Record<string, unknown> = ((doiPlugin as any).parsers.json.default ?? (doiPlugin as any).parsers.json.parse) as never;
+
+/** Where "https://doi.org/<doi>" requests actually go. */
+export function setDoiResolver(base: string): void {
+  resolverBase = base.replace(/\/+$/, '');
+}
+
+const rewrite = (url: string) => url.replace(/^https?:\/\/(?:dx\.)?doi\.org/i, resolverBase);
+
+async function fetchCsl(url: string): Promise<Record<string, unknown>> {
+  const text: string = await util.fetchFileAsync(rewrite(url), { checkContentType: true, headers: { Accept: CSL_ACCEPT } });
+  if (text === '[]') return {};
+  return parseDoiJson(JSON.parse(text));
+}
+
+plugins.add('@doi', {
+  input: {
+    '@doi/api': {
+      parse: () => {
+        // The synchronous path blocks the event loop (and deadlocks against a resolver in this process).
+        throw new Error('DOI lookup is asynchronous here; use Cite.async or chainAsync.');
+      },
+      parseAsync: (data: string | string[]) => Promise.all(([] as string[]).concat(data).map(fetchCsl)),
+      parseType: {
+        dataType: 'String',
+        predicate: /^\s*(https?:\/\/(?:dx\.)?doi\.org\/(10.\d{4,9}\/[-._;()/:A-Z0-9[\]<>]+))\s*$/i,
+        extends: '@else/url',
+      },
+    },
+  },
+});
+
+export class DoiLookupError extends Error {
+  constructor(
+    message: string,
+    readonly kind: 'not_found' | 'timeout' | 'resolver_error' | 'bad_record',
+  ) {
+    super(message);
+  }
+}
+
+/** Resolves one DOI to CSL-JSON through citation-js, giving up after `timeoutMs`. */
+export async function resolveDoi(doi: string, timeoutMs: number): Promise<Record<string, unknown>> {
+  let timer: NodeJS.Timeout | undefined;
+  const timeout = new Promise<never>((_r, reject) => {
+    timer = setTimeout(() => reject(new DoiLookupError(`the DOI resolver did not answer within ${(timeoutMs / 1000).toFixed(1)} s`, 'timeout')), timeoutMs);
+  });
+  try {
+    const list = (await Promise.race([plugins.input.chainAsync(doi, { target: '@csl/list+object', generateGraph: false }), timeout])) as Record<string, unknown>[];
+    const record = list?.[0];
+    if (!record || !record.title) throw new DoiLookupError('the resolver returned a record without a title', 'bad_record');
+    return record;
+  } catch (err) {
+    if (err instanceof DoiLookupError) throw err;
+    const status = (err as { status?: number }).status;
+    if (status === 404) throw new DoiLookupError('no such DOI at the resolver (404)', 'not_found');
+    if (status) throw new DoiLookupError(`the DOI resolver failed (HTTP ${status})`, 'resolver_error');
+    throw new DoiLookupError(`the DOI resolver could not be reached (${(err as Error).message})`, 'resolver_error');
+  } finally {
+    clearTimeout(timer);
+  }
+}
+
+/** Parses one BibTeX or RIS entry to CSL-JSON records (throws citation-js's parse error). */
+export function parseEntry(text: string, format: 'bibtex' | 'ris'): Record<string, unknown>[] {
+  const type = format === 'bibtex' ? '@biblatex/text' : '@ris/file';
+  return plugins.input.chain(text, { target: '@csl/list+object', generateGraph: false, forceType: type }) as Record<string, unknown>[];
+}
+
+export function toBibtex(records: Record<string, unknown>[]): string {
+  return new Cite(records).format('bibtex', { format: 'text' }) as string;
+}
