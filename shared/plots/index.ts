@@ -1,0 +1,4 @@
+export { forestFigure, FOREST_MAX_ROWS, type ForestInput, type ForestStudy, type ForestSummary } from './forest.js';
+export { funnelFigure, FUNNEL_MAX_POINTS, type FunnelInput } from './funnel.js';
+export { bubbleFigure, type BubbleInput } from './bubble.js';
+export { PLOT_COLORS } from './theme.js';

@@ -1,0 +1,62 @@
+import type { Dependence, OnePerStudyRule } from '../schemas/synthesis.js';
+import { aggregateWithinStudy } from './engine.js';
+import type { SettledEffect } from './types.js';
+
+export interface StudyUnit {
+  studyId: number;
+  referenceId: number;
+  label: string;
+  year: number | null;
+  n: number | null;
+  effect: number;
+  variance: number;
+  effects: SettledEffect[];
+}
+
+const label = (e: SettledEffect) => (e.studyLabel ? `${e.referenceLabel} · ${e.studyLabel}` : e.referenceLabel);
+
+/** Groups effects by study in first-seen order. */
+export function groupByStudy(effects: readonly SettledEffect[]): SettledEffect[][] {
+  const groups = new Map<number, SettledEffect[]>();
+  for (const e of effects) {
+    const g = groups.get(e.studyId);
+    if (g) g.push(e);
+    else groups.set(e.studyId, [e]);
+  }
+  return [...groups.values()];
+}
+
+function pickOne(group: SettledEffect[], rule: OnePerStudyRule): SettledEffect {
+  let best = group[0];
+  for (const e of group) {
+    if (rule === 'first_coded') {
+      if (e.id < best.id) best = e;
+    } else if (rule === 'smallest_variance') {
+      if (e.variance < best.variance || (e.variance === best.variance && e.id < best.id)) best = e;
+    } else {
+      const en = e.n ?? -1;
+      const bn = best.n ?? -1;
+      if (en > bn || (en === bn && (e.variance < best.variance || (e.variance === best.variance && e.id < best.id)))) best = e;
+    }
+  }
+  return best;
+}
+
+/**
+ * One unit per study so that no study counts twice: either the study's effects combined with the stated
+ * correlation between them, or one effect kept by a stated rule.
+ */
+export function applyDependence(effects: readonly SettledEffect[], dependence: Dependence): StudyUnit[] {
+  return groupByStudy(effects).map((group) => {
+    const first = group[0];
+    const n = group.reduce<number | null>((m, e) => (e.n == null ? m : Math.max(m ?? 0, e.n)), null);
+    const base = { studyId: first.studyId, referenceId: first.referenceId, label: label(first), year: first.year };
+    if (group.length === 1) return { ...base, n: first.n, effect: first.effect, variance: first.variance, effects: group };
+    if (dependence.mode === 'one') {
+      const kept = pickOne(group, dependence.rule);
+      return { ...base, n: kept.n, effect: kept.effect, variance: kept.variance, effects: [kept] };
+    }
+    const agg = aggregateWithinStudy(group.map((e) => e.effect), group.map((e) => e.variance), dependence.r);
+    return { ...base, n, effect: agg.effect, variance: agg.variance, effects: group };
+  });
+}

@@ -1,0 +1,229 @@
+import { METRIC_LABELS } from '../vocabulary/outcomes.js';
+import type { Metric } from '../stats/metrics.js';
+import { MODERATOR_LABELS, type SynthesisRequest, type SubgroupVariable } from '../schemas/synthesis.js';
+import { forestFigure, type ForestSummary } from '../plots/forest.js';
+import { funnelFigure } from '../plots/funnel.js';
+import { bubbleFigure } from '../plots/bubble.js';
+import { cumulative, leaveOneOut, metaRegression, pool, trimFill, type PoolResult } from './engine.js';
+import { applyDependence, type StudyUnit } from './dependence.js';
+import { cautionsFor } from './cautions.js';
+import type { PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
+
+/** Raised when the matching effects use more than one metric: they are never pooled together. */
+export class MixedMetricsError extends Error {
+  constructor(readonly metrics: Array<{ metric: string; count: number }>) {
+    super(
+      `These effects use ${metrics.length} metrics (${metrics.map((m) => `${m.metric}: ${m.count}`).join(', ')}); effects of different metrics are never pooled together. ` +
+        `Add a metric filter, e.g. "filters": { "metric": "${metrics[0].metric}" }.`,
+    );
+  }
+}
+
+export class NoEffectsError extends Error {
+  constructor() {
+    super('No settled effects match these filters. Widen the filters (fewer fields, a longer year range) and run it again.');
+  }
+}
+
+/** Tables of refits are returned up to this many studies (the pooled numbers always cover every study). */
+export const SENSITIVITY_MAX_STUDIES = 1000;
+/** REML and Paule–Mandel refit every subset: beyond this many studies the refits are skipped. */
+const ITERATIVE_REFIT_MAX = 400;
+
+export const metricLabel = (m: string) => METRIC_LABELS[m as Metric] ?? m;
+
+function subgroupValue(unit: StudyUnit, variable: SubgroupVariable): string {
+  const values = new Set(unit.effects.map((e) => e[variable] ?? 'not reported'));
+  return values.size === 1 ? String([...values][0]) : 'several';
+}
+
+function moderatorValue(unit: StudyUnit, moderator: 'standardMs' | 'year'): number | null {
+  if (moderator === 'year') return unit.year;
+  const xs = unit.effects.map((e) => e.standardMs).filter((x): x is number => x != null);
+  return xs.length ? xs.reduce((a, b) => a + b, 0) / xs.length : null;
+}
+
+const summary = (label: string, r: PoolResult): ForestSummary => ({
+  label,
+  estimate: r.estimate,
+  ci_lower: r.ci_lower,
+  ci_upper: r.ci_upper,
+  pi_lower: r.pi_lower,
+  pi_upper: r.pi_upper,
+});
+
+/**
+ * The whole synthesis as a pure function of the settled effects that matched the filters: one unit per
+ * study by the dependence rule, the engine's pool over exactly those units, sensitivity and bias
+ * analyses, subgroups, meta-regression, cautions and the figures.
+ */
+export function runSynthesis(effects: readonly SettledEffect[], request: SynthesisRequest): SynthesisOutput {
+  if (!effects.length) throw new NoEffectsError();
+  const byMetric = new Map<string, number>();
+  for (const e of effects) byMetric.set(e.metric, (byMetric.get(e.metric) ?? 0) + 1);
+  if (byMetric.size > 1)
+    throw new MixedMetricsError([...byMetric].map(([metric, count]) => ({ metric, count })).sort((a, b) => b.count - a.count));
+  const metric = effects[0].metric;
+  const mLabel = metricLabel(metric);
+  const opts = { method: request.method, hksj: request.hksj, level: request.level };
+  const unavailable: SynthesisOutput['unavailable'] = [];
+  const attempt = <T>(analysis: string, f: () => T): T | null => {
+    try {
+      return f();
+    } catch (err) {
+      unavailable.push({ analysis, reason: (err as Error).message });
+      return null;
+    }
+  };
+
+  const sg = request.subgroup;
+  const units = applyDependence(effects, request.dependence)
+    .map((u) => ({ u, group: sg ? subgroupValue(u, sg) : undefined }))
+    .sort((a, b) => (a.group ?? '').localeCompare(b.group ?? '') || (a.u.year ?? 9999) - (b.u.year ?? 9999) || a.u.label.localeCompare(b.u.label) || a.u.studyId - b.u.studyId);
+  const k = units.length;
+  const y = new Float64Array(k);
+  const v = new Float64Array(k);
+  units.forEach(({ u }, i) => {
+    y[i] = u.effect;
+    v[i] = u.variance;
+  });
+  const result = pool({ effects: y, variances: v, ...opts });
+
+  const rows: PooledRow[] = units.map(({ u, group }, i) => ({
+    studyId: u.studyId,
+    referenceId: u.referenceId,
+    label: u.label,
+    effect: u.effect,
+    variance: u.variance,
+    year: u.year,
+    n: u.n,
+    effectIds: u.effects.map((e) => e.id),
+    ...(group !== undefined ? { subgroup: group } : {}),
+    ...(request.moderator ? { moderator: moderatorValue(u, request.moderator) } : {}),
+    weight: result.weights[i],
+  }));
+
+  // Subgroups: a separate τ² within each, compared with Q between the subgroup estimates (Borenstein et al. 2009, ch. 19).
+  let subgroups: SubgroupComparison | null = null;
+  if (sg) {
+    const groups = [...new Set(rows.map((r) => r.subgroup!))];
+    const fitted = groups.map((value) => {
+      const idx = rows.flatMap((r, i) => (r.subgroup === value ? [i] : []));
+      const r = pool({ effects: idx.map((i) => y[i]), variances: idx.map((i) => v[i]), ...opts });
+      return { value, r };
+    });
+    const between = fitted.length > 1 ? pool({ effects: fitted.map((f) => f.r.estimate), variances: fitted.map((f) => f.r.se ** 2), method: 'FE' }) : null;
+    subgroups = {
+      variable: sg,
+      groups: fitted.map(({ value, r }) => ({ value, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
+      Q_between: between?.Q ?? null,
+      df: between?.Q_df ?? null,
+      p: between?.Q_p ?? null,
+    };
+  }
+
+  const sensitivityRows = (entries: ReturnType<typeof leaveOneOut>, order: number[]): SensitivityRow[] =>
+    entries.map((e, j) => {
+      const u = units[order[j]].u;
+      return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.p, tau2: e.tau2, I2: e.I2 };
+    });
+  const refitsAllowed = (what: string) => {
+    if (k > SENSITIVITY_MAX_STUDIES) {
+      unavailable.push({ analysis: what, reason: `not tabulated for more than ${SENSITIVITY_MAX_STUDIES} studies (${k} here)` });
+      return false;
+    }
+    if ((request.method === 'REML' || request.method === 'PM') && k > ITERATIVE_REFIT_MAX) {
+      unavailable.push({ analysis: what, reason: `${request.method} refits every subset; not run for more than ${ITERATIVE_REFIT_MAX} studies (use DL or FE)` });
+      return false;
+    }
+    return true;
+  };
+  const identity = units.map((_, i) => i);
+  const leaveOut = k >= 2 && refitsAllowed('leave-one-out') ? attempt('leave-one-out', () => sensitivityRows(leaveOneOut({ effects: y, variances: v, ...opts }), identity)) : null;
+  let cumulativeRows: SensitivityRow[] | null = null;
+  if (refitsAllowed('cumulative')) {
+    // by year, then label; studies without a year last
+    const order = [...identity].sort((a, b) => (units[a].u.year ?? 9999) - (units[b].u.year ?? 9999) || units[a].u.label.localeCompare(units[b].u.label));
+    cumulativeRows = attempt('cumulative', () =>
+      sensitivityRows(cumulative({ effects: order.map((i) => y[i]), variances: order.map((i) => v[i]), ...opts }), order),
+    );
+  }
+
+  const tf = k >= 3 ? attempt('trim-and-fill', () => trimFill({ effects: y, variances: v, ...opts })) : null;
+  if (k < 3) unavailable.push({ analysis: 'trim-and-fill', reason: 'needs at least 3 studies' });
+  unavailable.push({ analysis: "Begg's test", reason: 'the statistics engine does not provide it yet' });
+
+  let metaReg: SynthesisOutput['metaRegression'] = null;
+  const mod = request.moderator;
+  if (mod) {
+    const withX = rows.flatMap((r, i) => (r.moderator != null ? [i] : []));
+    const fit = attempt('meta-regression', () =>
+      metaRegression({ effects: withX.map((i) => y[i]), variances: withX.map((i) => v[i]), moderator: withX.map((i) => rows[i].moderator as number), method: request.method, level: request.level }),
+    );
+    if (fit) {
+      const slope = fit.coefficients[1];
+      metaReg = {
+        moderator: mod,
+        k: fit.k,
+        intercept: fit.coefficients[0].estimate,
+        slope: slope.estimate,
+        slope_se: slope.se,
+        slope_ci_lower: slope.ci_lower,
+        slope_ci_upper: slope.ci_upper,
+        slope_p: slope.p,
+        tau2: fit.tau2,
+        R2: fit.R2,
+        missing: k - withX.length,
+      };
+    }
+  }
+
+  const references = new Set(rows.map((r) => r.referenceId)).size;
+  const pooledLabel = request.method === 'FE' ? 'Fixed-effect estimate' : `Random-effects estimate (${request.method}${request.hksj ? ', HKSJ' : ''})`;
+  const forest = forestFigure({
+    metric,
+    metricLabel: mLabel,
+    level: request.level,
+    studies: rows.map((r) => ({ label: r.label, year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: r.subgroup })),
+    pooled: summary(pooledLabel, result),
+    subgroups: subgroups?.groups.map((g) => ({ label: g.value, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper })),
+  });
+  const funnel =
+    k >= 2
+      ? funnelFigure({
+          metric,
+          metricLabel: mLabel,
+          studies: rows.map((r) => ({ label: r.label, effect: r.effect, variance: r.variance })),
+          pooled: result.estimate,
+          trimFill: tf ? { estimate: tf.estimate, filled: tf.filled } : null,
+        })
+      : null;
+  const bubble =
+    mod && metaReg
+      ? bubbleFigure({
+          metric,
+          metricLabel: mLabel,
+          moderatorLabel: MODERATOR_LABELS[mod],
+          points: rows.flatMap((r) => (r.moderator != null ? [{ label: r.label, x: r.moderator, effect: r.effect, weight: r.weight }] : [])),
+          fit: { intercept: metaReg.intercept, slope: metaReg.slope, slope_p: metaReg.slope_p },
+        })
+      : null;
+
+  return {
+    request,
+    metric,
+    counts: { effects: effects.length, studies: k, references },
+    dependence: request.dependence,
+    rows,
+    result,
+    subgroups,
+    leaveOneOut: leaveOut,
+    cumulative: cumulativeRows,
+    begg: null,
+    trimFill: tf ? { side: tf.side, k0: tf.k0, estimate: tf.estimate, ci_lower: tf.ci_lower, ci_upper: tf.ci_upper, imputed: tf.filled } : null,
+    metaRegression: metaReg,
+    cautions: cautionsFor(result, k),
+    figures: { forest, funnel, bubble },
+    unavailable,
+  };
+}

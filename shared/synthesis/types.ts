@@ -1,0 +1,145 @@
+import type { Metric } from '../stats/metrics.js';
+import type { PoolResult } from '../stats/types.js';
+import type { Dependence, Moderator, SubgroupVariable, SynthesisFilters, SynthesisRequest } from '../schemas/synthesis.js';
+
+/** One settled effect as the registry stores it (server/db/effects-repo.ts querySettledEffects). */
+export interface SettledEffect {
+  id: number;
+  referenceId: number;
+  studyId: number;
+  studyLabel: string;
+  referenceLabel: string;
+  year: number | null;
+  outcome: string;
+  manipulation: string;
+  metric: Metric | string;
+  effect: number;
+  variance: number;
+  n: number | null;
+  design: string | null;
+  population: string | null;
+  modality: string | null;
+  task: string | null;
+  standardMs: number | null;
+}
+
+/** One pooled unit: a study after its effects were combined (or one kept) by the dependence rule. */
+export interface PooledRow {
+  studyId: number;
+  referenceId: number;
+  label: string;
+  effect: number;
+  variance: number;
+  year: number | null;
+  n: number | null;
+  /** ids of the settled effects this unit stands for */
+  effectIds: number[];
+  /** the subgroup this unit belongs to, when a subgroup variable was chosen */
+  subgroup?: string;
+  /** moderator value, when a moderator was chosen (mean over the study's effects) */
+  moderator?: number | null;
+  /** percent weight in the overall pooled estimate */
+  weight: number;
+}
+
+export interface SensitivityRow {
+  label: string;
+  studyId: number;
+  year: number | null;
+  k: number;
+  estimate: number;
+  ci_lower: number;
+  ci_upper: number;
+  p: number;
+  tau2: number | null;
+  I2: number | null;
+}
+
+export interface SubgroupResult {
+  value: string;
+  k: number;
+  estimate: number;
+  se: number;
+  ci_lower: number;
+  ci_upper: number;
+  tau2: number | null;
+  I2: number | null;
+  p: number;
+}
+
+export interface SubgroupComparison {
+  variable: SubgroupVariable;
+  groups: SubgroupResult[];
+  Q_between: number | null;
+  df: number | null;
+  p: number | null;
+}
+
+export interface BeggResult {
+  tau: number;
+  z: number;
+  p: number;
+}
+
+export interface TrimFillResult {
+  side: 'left' | 'right';
+  k0: number;
+  estimate: number;
+  ci_lower: number;
+  ci_upper: number;
+  /** imputed (mirrored) studies */
+  imputed: Array<{ effect: number; variance: number }>;
+}
+
+export interface MetaRegressionResult {
+  moderator: Moderator;
+  k: number;
+  intercept: number;
+  slope: number;
+  slope_se: number;
+  slope_ci_lower: number;
+  slope_ci_upper: number;
+  slope_p: number;
+  tau2: number | null;
+  R2: number | null;
+  /** units left out because their moderator value is missing */
+  missing: number;
+}
+
+export interface Caution {
+  code: 'few_studies_dl' | 'few_studies_tests' | 'high_heterogeneity' | 'not_clinical' | 'single_study' | 'analysis_unavailable';
+  text: string;
+}
+
+export interface PlotFigure {
+  data: Array<Record<string, unknown>>;
+  layout: Record<string, unknown>;
+}
+
+export interface SynthesisFigures {
+  forest: PlotFigure;
+  funnel: PlotFigure | null;
+  bubble: PlotFigure | null;
+}
+
+/** What a synthesis answers (and a snapshot freezes). */
+export interface SynthesisOutput {
+  request: SynthesisRequest;
+  metric: Metric | string;
+  counts: { effects: number; studies: number; references: number };
+  dependence: Dependence;
+  rows: PooledRow[];
+  result: PoolResult;
+  subgroups: SubgroupComparison | null;
+  leaveOneOut: SensitivityRow[] | null;
+  cumulative: SensitivityRow[] | null;
+  begg: BeggResult | null;
+  trimFill: TrimFillResult | null;
+  metaRegression: MetaRegressionResult | null;
+  cautions: Caution[];
+  figures: SynthesisFigures;
+  /** analyses the engine could not run here, with the reason */
+  unavailable: Array<{ analysis: string; reason: string }>;
+}
+
+export type { SynthesisFilters, SynthesisRequest };
