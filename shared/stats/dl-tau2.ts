@@ -12,7 +12,10 @@ export function dlTau2(
   let sumW2 = 0;
   let sumWY = 0;
   let comp = 0;
+  let allEqual = true;
+  const y0 = y[0];
   for (let i = 0; i < k; i++) {
+    if (y[i] !== y0) allEqual = false;
     const w = 1 / v[i];
     sumW += w;
     sumW2 += w * w;
@@ -21,7 +24,8 @@ export function dlTau2(
     comp += Math.abs(sumWY) >= Math.abs(x) ? sumWY - t + x : x - t + sumWY;
     sumWY = t;
   }
-  const feMean = (sumWY + comp) / sumW;
+  // identical effects: the mean is exactly that value and Q exactly 0 (no rounding residue)
+  const feMean = allEqual ? y0 : (sumWY + comp) / sumW;
   let Q = 0;
   for (let i = 0; i < k; i++) {
     const d = y[i] - feMean;
