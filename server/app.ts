@@ -14,6 +14,9 @@ import { healthRouter } from './routes/health.js';
 import { meRouter } from './routes/me.js';
 import { adminRouter } from './routes/admin.js';
 import { tokensRouter } from './routes/tokens.js';
+import { synthesesRouter } from './routes/syntheses.js';
+import { snapshotsRouter } from './routes/snapshots.js';
+import { atlasRouter } from './routes/atlas.js';
 
 
 /** Builds the Express app without listening, so tests can mount it with supertest. */
@@ -98,4 +101,7 @@ const apiRouters: MountRouter[] = [
   meRouter,
   adminRouter,
   tokensRouter,
+  synthesesRouter,
+  snapshotsRouter,
+  atlasRouter,
 ];

@@ -1,0 +1,58 @@
+import { Router } from 'express';
+import type { AppContext } from '../context.js';
+import { parseInput } from '../lib/validate.js';
+import { requireRole } from '../auth/require-role.js';
+import { UnauthorizedError } from '../lib/errors.js';
+import { snapshotCreateSchema, snapshotIdSchema, snapshotListQuerySchema } from '../../shared/schemas/synthesis.js';
+import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
+
+/** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
+export function snapshotsRouter(ctx: AppContext) {
+  const router = Router();
+  const origin = ctx.env.APP_ORIGIN;
+  const load = (params: unknown) => loadSnapshot(ctx.db, parseInput(snapshotIdSchema, params, 'path').id);
+  const attachment = (name: string) => `attachment; filename="${name}"`;
+
+  router.get('/snapshots', async (req, res) => {
+    const q = parseInput(snapshotListQuerySchema, req.query, 'query');
+    if (q.mine === 'true' && !req.user) throw new UnauthorizedError('Sign in to list your own snapshots.');
+    const result = await listSnapshots(ctx.db, { ...q, createdBy: q.mine === 'true' ? req.user!.id : undefined });
+    res.json({ ...result, page: q.page, pageSize: q.pageSize });
+  });
+
+  router.post('/snapshots', requireRole('reviewer'), async (req, res) => {
+    const { title, ...request } = parseInput(snapshotCreateSchema, req.body);
+    res.status(201).json(await createSnapshot(ctx.db, req.user!.id, request, title, origin));
+  });
+
+  router.get('/snapshots/:id', async (req, res) => {
+    res.json(snapshotView(await load(req.params), origin));
+  });
+
+  router.get('/snapshots/:id/export.csv', async (req, res) => {
+    const s = await load(req.params);
+    res.type('text/csv; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.csv`)).send(snapshotCsv(s));
+  });
+
+  router.get('/snapshots/:id/effects.csv', async (req, res) => {
+    const s = await load(req.params);
+    res.type('text/csv; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}-effects.csv`)).send(snapshotEffectsCsv(s));
+  });
+
+  router.get('/snapshots/:id/export.json', async (req, res) => {
+    const s = await load(req.params);
+    res.set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.json`)).json(snapshotView(s, origin));
+  });
+
+  router.get('/snapshots/:id/references.bib', async (req, res) => {
+    const s = await load(req.params);
+    res.type('application/x-bibtex; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.bib`)).send(snapshotBibtex(s));
+  });
+
+  router.get('/snapshots/:id/methods.txt', async (req, res) => {
+    const s = await load(req.params);
+    res.type('text/plain; charset=utf-8').send(`${s.methods}\n`);
+  });
+
+  return router;
+}

@@ -1,0 +1,170 @@
+import type { Knex } from 'knex';
+import { querySettledEffects, type SettledEffectRow } from '../db/effects-repo.js';
+import { NotFoundError } from '../lib/errors.js';
+import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
+import { OUTCOMES, type OutcomeKind } from '../../shared/vocabulary/outcomes.js';
+import { runSynthesis, metricLabel } from '../../shared/synthesis/run.js';
+import { cautionsFor } from '../../shared/synthesis/cautions.js';
+
+/**
+ * Serialized answers keyed by registry version: every settled change bumps the version and so retires
+ * the whole cache. The key is the newest change's id and time (not the id alone), so a test database that
+ * was truncated and refilled to the same id is not mistaken for the old one.
+ */
+export class RegistryCache {
+  private key = '';
+  private entries = new Map<string, Promise<string>>();
+  constructor(private readonly maxEntries = 500) {}
+
+  async versionKey(db: Knex): Promise<string> {
+    const row = await db('registry_changes').orderBy('id', 'desc').first('id', 'at');
+    return row ? `${row.id}@${new Date(row.at).getTime()}` : '0';
+  }
+
+  async get(db: Knex, name: string, compute: () => Promise<unknown>): Promise<string> {
+    const key = await this.versionKey(db);
+    if (key !== this.key) {
+      this.key = key;
+      this.entries = new Map();
+    }
+    let hit = this.entries.get(name);
+    if (!hit) {
+      if (this.entries.size >= this.maxEntries) this.entries.clear();
+      const entries = this.entries;
+      hit = compute().then((v) => JSON.stringify(v));
+      hit.catch(() => entries.delete(name));
+      entries.set(name, hit);
+    }
+    return hit;
+  }
+}
+
+const count = (rows: SettledEffectRow[]) => ({
+  effects: rows.length,
+  studies: new Set(rows.map((r) => r.studyId)).size,
+  references: new Set(rows.map((r) => r.referenceId)).size,
+});
+
+function groupBy<T>(xs: T[], key: (x: T) => string): Map<string, T[]> {
+  const m = new Map<string, T[]>();
+  for (const x of xs) {
+    const k = key(x);
+    const g = m.get(k);
+    if (g) g.push(x);
+    else m.set(k, [x]);
+  }
+  return m;
+}
+
+const outcomeLabel = (o: string) => OUTCOMES[o as OutcomeKind]?.label ?? o;
+
+/** Every manipulation and outcome kind with counts of settled references, studies and effects. */
+export async function atlasLanding(db: Knex) {
+  const [rows, vocab] = await Promise.all([querySettledEffects(db, {}), db('manipulations').whereNull('retired_at').orderBy('label').select('term', 'label', 'description')]);
+  const byManip = groupBy(rows, (r) => r.manipulation);
+  const byOutcome = groupBy(rows, (r) => r.outcome);
+  const known = new Set(vocab.map((v: { term: string }) => v.term));
+  const extra = [...byManip.keys()].filter((t) => !known.has(t)).map((t) => ({ term: t, label: byManip.get(t)![0].manipulationLabel, description: '' }));
+  return {
+    totals: count(rows),
+    manipulations: [...vocab, ...extra].map((m: { term: string; label: string; description: string }) => {
+      const rs = byManip.get(m.term) ?? [];
+      return { term: m.term, label: m.label, description: m.description, ...count(rs), outcomes: [...new Set(rs.map((r) => r.outcome))].sort() };
+    }),
+    outcomes: Object.keys(OUTCOMES).map((kind) => {
+      const rs = byOutcome.get(kind) ?? [];
+      return { kind, label: outcomeLabel(kind), typicalReport: OUTCOMES[kind as OutcomeKind].typicalReport, ...count(rs), metrics: [...new Set(rs.map((r) => r.metric))].sort() };
+    }),
+  };
+}
+
+const DEFAULT_REQUEST = { method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } } as const;
+
+/** The current pooled estimate of each (outcome kind, metric) cell of one manipulation's or outcome's effects. */
+function pooledCells(rows: SettledEffectRow[], filters: (first: SettledEffectRow) => Record<string, string>, withFigure: boolean) {
+  const cells = groupBy(rows, (r) => `${r.outcome}\u0000${r.manipulation}\u0000${r.metric}`);
+  return [...cells.values()]
+    .map((rs) => {
+      const f = filters(rs[0]);
+      const request = synthesisRequestSchema.parse({ ...DEFAULT_REQUEST, filters: f });
+      const out = runSynthesis(rs, request);
+      const r = out.result;
+      return {
+        outcome: rs[0].outcome,
+        outcomeLabel: outcomeLabel(rs[0].outcome),
+        manipulation: rs[0].manipulation,
+        manipulationLabel: rs[0].manipulationLabel,
+        metric: rs[0].metric,
+        metricLabel: metricLabel(rs[0].metric),
+        filters: f,
+        counts: out.counts,
+        pooled: { estimate: r.estimate, ci_lower: r.ci_lower, ci_upper: r.ci_upper, pi_lower: r.pi_lower, pi_upper: r.pi_upper, tau2: r.tau2, I2: r.I2, Q_p: r.Q_p, p: r.p, level: r.level, method: r.method },
+        cautions: cautionsFor(r, out.counts.studies).filter((c) => c.code !== 'not_clinical'),
+        ...(withFigure ? { forest: out.figures.forest } : {}),
+      };
+    })
+    .sort((a, b) => a.outcome.localeCompare(b.outcome) || a.manipulation.localeCompare(b.manipulation) || b.counts.studies - a.counts.studies);
+}
+
+async function manipulationRow(db: Knex, term: string) {
+  const m = await db('manipulations').where({ term }).first('term', 'label', 'description', 'retired_at');
+  if (!m) throw new NotFoundError(`No manipulation "${term}" in the vocabulary.`);
+  return m;
+}
+
+export async function atlasManipulation(db: Knex, term: string) {
+  const m = await manipulationRow(db, term);
+  const rows = await querySettledEffects(db, { manipulation: term });
+  return {
+    manipulation: { term: m.term, label: m.label, description: m.description, retired: !!m.retired_at },
+    totals: count(rows),
+    cells: pooledCells(rows, (r) => ({ manipulation: term, outcome: r.outcome, metric: r.metric }), true),
+  };
+}
+
+/** Only the pooled numbers of a manipulation (what scripts and the atlas cards need). */
+export async function atlasManipulationPooled(db: Knex, term: string) {
+  await manipulationRow(db, term);
+  const rows = await querySettledEffects(db, { manipulation: term });
+  return { term, totals: count(rows), cells: pooledCells(rows, (r) => ({ manipulation: term, outcome: r.outcome, metric: r.metric }), false) };
+}
+
+export async function atlasOutcome(db: Knex, kind: string) {
+  if (!(kind in OUTCOMES)) throw new NotFoundError(`No outcome kind "${kind}".`);
+  const rows = await querySettledEffects(db, { outcome: kind });
+  const info = OUTCOMES[kind as OutcomeKind];
+  return {
+    outcome: { kind, label: info.label, typicalReport: info.typicalReport, metrics: info.metrics, metricLabels: info.metrics.map(metricLabel) },
+    totals: count(rows),
+    cells: pooledCells(rows, (r) => ({ manipulation: r.manipulation, outcome: kind, metric: r.metric }), false),
+  };
+}
+
+const REF_SORT = { year: 'r.year', label: 'r.first_author', title: 'r.title', effects: 'effects' } as const;
+
+/** The references behind an atlas page, paged and sorted on the server. */
+export async function atlasReferences(
+  db: Knex,
+  where: { manipulation?: string; outcome?: string },
+  q: { page: number; pageSize: number; sort: keyof typeof REF_SORT; order: 'asc' | 'desc' },
+) {
+  const rows = await querySettledEffects(db, where);
+  const byRef = groupBy(rows, (r) => String(r.referenceId));
+  const items = [...byRef.values()].map((rs) => ({
+    id: rs[0].referenceId,
+    label: rs[0].referenceLabel,
+    title: rs[0].title,
+    year: rs[0].year,
+    doi: rs[0].doi,
+    studies: new Set(rs.map((r) => r.studyId)).size,
+    effects: rs.length,
+  }));
+  const dir = q.order === 'asc' ? 1 : -1;
+  const key = q.sort;
+  items.sort((a, b) => {
+    const x = key === 'label' ? a.label : key === 'title' ? a.title : key === 'year' ? (a.year ?? 0) : a.effects;
+    const y = key === 'label' ? b.label : key === 'title' ? b.title : key === 'year' ? (b.year ?? 0) : b.effects;
+    return (typeof x === 'string' ? x.localeCompare(y as string) : (x as number) - (y as number)) * dir || a.id - b.id;
+  });
+  return { total: items.length, page: q.page, pageSize: q.pageSize, items: items.slice((q.page - 1) * q.pageSize, q.page * q.pageSize) };
+}

@@ -1,0 +1,261 @@
+import { randomBytes } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import type { Knex } from 'knex';
+import Papa from 'papaparse';
+import type { SettledEffectRow } from '../db/effects-repo.js';
+import { currentRegistryVersion } from '../db/registry-version.js';
+import { querySettledEffects } from '../db/effects-repo.js';
+import { NotFoundError } from '../lib/errors.js';
+import { toBibtex } from '../citations/index.js';
+import { recordAudit } from './audit.js';
+import { synthesize } from './synthesis.js';
+import { METHOD_LABELS, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
+import { metricLabel } from '../../shared/synthesis/run.js';
+import type { SynthesisOutput } from '../../shared/synthesis/types.js';
+
+const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
+export const SOFTWARE = { name: 'Chronometa', version: pkg.version };
+
+/** PRISMA 2020 counts over the registry's references; exclusion reasons where screening decisions exist. */
+export async function prismaCounts(db: Knex | Knex.Transaction): Promise<PrismaCounts | null> {
+  try {
+    const [c] = await db('refs').select(
+      db.raw('count(*)::int as identified'),
+      db.raw('count(*) filter (where merged_into is not null)::int as duplicates'),
+      db.raw(`count(*) filter (where merged_into is null and screening_status <> 'unscreened')::int as screened`),
+      db.raw(`count(*) filter (where merged_into is null and screening_status = 'excluded')::int as excluded`),
+      db.raw(`count(*) filter (where merged_into is null and screening_status = 'included')::int as included`),
+    );
+    const counts: PrismaCounts = { identified: c.identified, duplicatesRemoved: c.duplicates, screened: c.screened, excluded: c.excluded, included: c.included };
+    try {
+      // the latest decision of each excluded reference carries its reason
+      const reasons = await db
+        .with('latest', (q) =>
+          q.from('screening_decisions').distinctOn('ref_id').select('ref_id', 'decision', 'reason').orderBy([{ column: 'ref_id' }, { column: 'decided_at', order: 'desc' }, { column: 'id', order: 'desc' }]),
+        )
+        .from('latest')
+        .join('refs', 'refs.id', 'latest.ref_id')
+        .where({ 'latest.decision': 'excluded', 'refs.screening_status': 'excluded' })
+        .whereNull('refs.merged_into')
+        .groupBy('latest.reason')
+        .select('latest.reason as reason', db.raw('count(*)::int as count'))
+        .orderBy('count', 'desc');
+      if (reasons.length) counts.excludedReasons = reasons.map((r: { reason: string; count: number }) => ({ reason: r.reason, count: r.count }));
+    } catch {
+      // no screening table here: the counts stand without reasons
+    }
+    return counts;
+  } catch {
+    return null;
+  }
+}
+
+export function defaultTitle(request: SynthesisRequest, metric: string): string {
+  const f = request.filters;
+  const parts = [
+    Array.isArray(f.manipulation) ? f.manipulation.join(' + ') : f.manipulation,
+    f.outcome?.replace(/_/g, ' '),
+    f.population?.replace(/_/g, ' '),
+    f.modality,
+    f.task?.replace(/_/g, ' '),
+  ].filter(Boolean);
+  return `${parts.length ? parts.join(', ') : 'All settled effects'} — ${metricLabel(metric)}, ${METHOD_LABELS[request.method]}${request.hksj ? ' + HKSJ' : ''}`;
+}
+
+const newId = () => randomBytes(8).toString('hex');
+
+export async function createSnapshot(db: Knex, actorId: number, request: SynthesisRequest, title: string | undefined, appOrigin: string) {
+  // One consistent view of the registry: the version, the rows and the counts belong together.
+  return db.transaction(
+    async (trx) => {
+      const registryVersion = await currentRegistryVersion(trx);
+      const effects = await querySettledEffects(trx, request.filters);
+      const output = synthesize(effects, request);
+      const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
+      const refs = await trx('refs').whereIn('id', refIds).orderBy('id').select('id', 'csl', 'title', 'year', 'doi', 'first_author');
+      const prisma = await prismaCounts(trx);
+      const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma });
+      const id = newId();
+      await trx('snapshots').insert({
+        id,
+        title: title ?? defaultTitle(request, output.metric),
+        created_by: actorId,
+        registry_version: registryVersion,
+        request: JSON.stringify(request),
+        metric: output.metric,
+        k: output.counts.studies,
+        estimate: output.result.estimate,
+        effects: JSON.stringify(effects),
+        output: JSON.stringify(output),
+        methods,
+        references: JSON.stringify(refs.map((r) => ({ id: r.id, title: r.title, year: r.year, doi: r.doi, firstAuthor: r.first_author, csl: r.csl }))),
+        prisma: prisma ? JSON.stringify(prisma) : null,
+        software: `${SOFTWARE.name} ${SOFTWARE.version}`,
+      });
+      await recordAudit(trx, {
+        actorId,
+        action: 'snapshot.created',
+        entityType: 'snapshot',
+        entityId: id,
+        details: { registryVersion, k: output.counts.studies, metric: output.metric, method: request.method },
+      });
+      return { id, url: `${appOrigin}/snapshots/${id}`, apiUrl: `${appOrigin}/api/snapshots/${id}`, registryVersion };
+    },
+    { isolationLevel: 'repeatable read' },
+  );
+}
+
+export interface StoredSnapshot {
+  id: string;
+  title: string;
+  createdAt: string;
+  createdBy: { login: string; name: string | null } | null;
+  registryVersion: number;
+  software: string;
+  methods: string;
+  prisma: PrismaCounts | null;
+  request: SynthesisRequest;
+  effects: SettledEffectRow[];
+  output: SynthesisOutput;
+  references: Array<{ id: number; title: string; year: number | null; doi: string | null; firstAuthor: string | null; csl: Record<string, unknown> }>;
+}
+
+export async function loadSnapshot(db: Knex, id: string): Promise<StoredSnapshot> {
+  const r = await db('snapshots').leftJoin('users', 'users.id', 'snapshots.created_by').where('snapshots.id', id).first('snapshots.*', 'users.login', 'users.name');
+  if (!r) throw new NotFoundError(`No snapshot ${id}.`);
+  return {
+    id: r.id,
+    title: r.title,
+    createdAt: r.created_at,
+    createdBy: r.login ? { login: r.login, name: r.name } : null,
+    registryVersion: Number(r.registry_version),
+    software: r.software,
+    methods: r.methods,
+    prisma: r.prisma,
+    request: r.request,
+    effects: r.effects,
+    output: r.output,
+    references: r.references,
+  };
+}
+
+/** What GET /api/snapshots/:id answers: the frozen synthesis plus its provenance. */
+export function snapshotView(s: StoredSnapshot, appOrigin: string) {
+  const { references, ...rest } = s;
+  return {
+    ...rest.output,
+    id: s.id,
+    title: s.title,
+    url: `${appOrigin}/snapshots/${s.id}`,
+    createdAt: s.createdAt,
+    createdBy: s.createdBy,
+    registryVersion: s.registryVersion,
+    software: s.software,
+    methods: s.methods,
+    prisma: s.prisma,
+    effects: s.effects,
+    references: references.map(({ csl: _csl, ...r }) => r),
+  };
+}
+
+/** One row per pooled unit (what was pooled, analysis-ready): re-pooling effect and variance gives the snapshot's numbers. */
+export function snapshotCsv(s: StoredSnapshot): string {
+  const byId = new Map(s.effects.map((e) => [e.id, e]));
+  const refs = new Map(s.references.map((r) => [r.id, r]));
+  const uniq = (xs: Array<string | number | null>) => [...new Set(xs.filter((x) => x != null))].join(';');
+  const subgroup = s.output.request.subgroup;
+  const rows = s.output.rows.map((r) => {
+    const es = r.effectIds.map((id) => byId.get(id)!).filter(Boolean);
+    const std = es.map((e) => e.standardMs).filter((x): x is number => x != null);
+    return {
+      reference_id: r.referenceId,
+      reference: es[0]?.referenceLabel ?? '',
+      doi: refs.get(r.referenceId)?.doi ?? '',
+      study_id: r.studyId,
+      study: es[0]?.studyLabel ?? '',
+      label: r.label,
+      year: r.year ?? '',
+      n: r.n ?? '',
+      metric: s.output.metric,
+      manipulation: uniq(es.map((e) => e.manipulation)),
+      outcome: uniq(es.map((e) => e.outcome)),
+      population: uniq(es.map((e) => e.population)),
+      modality: uniq(es.map((e) => e.modality)),
+      task: uniq(es.map((e) => e.task)),
+      design: uniq(es.map((e) => e.design)),
+      standard_ms: std.length ? std.reduce((a, b) => a + b, 0) / std.length : '',
+      effect: r.effect,
+      variance: r.variance,
+      se: Math.sqrt(r.variance),
+      weight_percent: r.weight,
+      effects_combined: r.effectIds.length,
+      effect_ids: r.effectIds.join(';'),
+      ...(subgroup ? { subgroup: r.subgroup ?? '' } : {}),
+    };
+  });
+  return Papa.unparse(rows, { newline: '\n' }) + '\n';
+}
+
+/** Every settled effect as it was coded (before combining within studies). */
+export function snapshotEffectsCsv(s: StoredSnapshot): string {
+  const rows = s.effects.map((e) => ({
+    effect_id: e.id,
+    reference_id: e.referenceId,
+    reference: e.referenceLabel,
+    doi: e.doi ?? '',
+    study_id: e.studyId,
+    study: e.studyLabel,
+    year: e.year ?? '',
+    n: e.n ?? '',
+    metric: e.metric,
+    manipulation: e.manipulation,
+    outcome: e.outcome,
+    population: e.population ?? '',
+    modality: e.modality ?? '',
+    task: e.task ?? '',
+    design: e.design ?? '',
+    standard_ms: e.standardMs ?? '',
+    effect: e.effect,
+    variance: e.variance,
+    formula: e.formula,
+    label: e.label,
+  }));
+  return Papa.unparse(rows, { newline: '\n' }) + '\n';
+}
+
+export function snapshotBibtex(s: StoredSnapshot): string {
+  const records = s.references.map((r) => ({ ...r.csl, id: (r.csl.id as string | undefined) ?? `ref${r.id}` }));
+  return records.length ? toBibtex(records) : '';
+}
+
+export async function listSnapshots(
+  db: Knex,
+  q: { page: number; pageSize: number; sort: 'created_at' | 'k' | 'estimate' | 'title'; order: 'asc' | 'desc'; createdBy?: number },
+) {
+  const base = db('snapshots').modify((b) => {
+    if (q.createdBy !== undefined) b.where('snapshots.created_by', q.createdBy);
+  });
+  const [{ count }] = await base.clone().count<{ count: string }[]>({ count: '*' });
+  const items = await base
+    .clone()
+    .leftJoin('users', 'users.id', 'snapshots.created_by')
+    .select('snapshots.id', 'snapshots.title', 'snapshots.created_at', 'snapshots.metric', 'snapshots.k', 'snapshots.estimate', 'snapshots.registry_version', 'users.login')
+    .orderBy(`snapshots.${q.sort}`, q.order)
+    .orderBy('snapshots.id', 'asc')
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+  return {
+    total: Number(count),
+    items: items.map((r) => ({
+      id: r.id,
+      title: r.title,
+      createdAt: r.created_at,
+      createdBy: r.login ?? null,
+      metric: r.metric,
+      k: r.k,
+      estimate: r.estimate,
+      registryVersion: Number(r.registry_version),
+    })),
+  };
+}

@@ -1,0 +1,50 @@
+import type { Knex } from 'knex';
+import { querySettledEffects, type SettledEffectRow } from '../db/effects-repo.js';
+import { currentRegistryVersion } from '../db/registry-version.js';
+import { UnprocessableError } from '../lib/errors.js';
+import type { SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
+import type { SynthesisOutput } from '../../shared/synthesis/types.js';
+
+/** Runs the pure pipeline, turning its refusals into 422s that say what to do. */
+export function synthesize(effects: readonly SettledEffectRow[], request: SynthesisRequest): SynthesisOutput {
+  try {
+    return runSynthesis(effects, request);
+  } catch (err) {
+    if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics });
+    if (err instanceof NoEffectsError) throw new UnprocessableError(err.message, { effects: 0 });
+    throw err;
+  }
+}
+
+/** A synthesis over the current settled registry, with the registry version it was computed on. */
+export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: SynthesisRequest) {
+  const [registryVersion, effects] = await Promise.all([currentRegistryVersion(db), querySettledEffects(db, request.filters)]);
+  return { registryVersion, effects, output: synthesize(effects, request) };
+}
+
+/** Distinct filter values among settled effects, with counts (for the synthesis form). */
+export async function synthesisFacets(db: Knex) {
+  const rows = await querySettledEffects(db, {});
+  const tally = (pick: (r: SettledEffectRow) => string | null) => {
+    const m = new Map<string, number>();
+    for (const r of rows) {
+      const v = pick(r);
+      if (v != null) m.set(v, (m.get(v) ?? 0) + 1);
+    }
+    return [...m].map(([value, count]) => ({ value, count })).sort((a, b) => a.value.localeCompare(b.value));
+  };
+  const labels = new Map(rows.map((r) => [r.manipulation, r.manipulationLabel]));
+  const years = rows.map((r) => r.year).filter((y): y is number => y != null);
+  return {
+    effects: rows.length,
+    manipulations: tally((r) => r.manipulation).map((f) => ({ ...f, label: labels.get(f.value) ?? f.value })),
+    outcomes: tally((r) => r.outcome),
+    metrics: tally((r) => r.metric),
+    populations: tally((r) => r.population),
+    modalities: tally((r) => r.modality),
+    tasks: tally((r) => r.task),
+    designs: tally((r) => r.design),
+    years: years.length ? { min: Math.min(...years), max: Math.max(...years) } : null,
+  };
+}
