@@ -17,6 +17,11 @@ import { tokensRouter } from './routes/tokens.js';
 import { synthesesRouter } from './routes/syntheses.js';
 import { snapshotsRouter } from './routes/snapshots.js';
 import { atlasRouter } from './routes/atlas.js';
+import { importsBodyRouter, importsRouter } from './routes/imports.js';
+import { referencesRouter } from './routes/references.js';
+import { screeningRouter } from './routes/screening.js';
+import { duplicatesRouter } from './routes/duplicates.js';
+import { searchRouter } from './routes/search.js';
 
 
 /** Builds the Express app without listening, so tests can mount it with supertest. */
@@ -93,6 +98,7 @@ type MountRouter = (ctx: AppContext) => Router;
 /** Routers with their own body parsers (mounted before the default JSON parser). */
 const earlyApiRouters: MountRouter[] = [
   // feature routers with large bodies go here
+  importsBodyRouter,
 ];
 
 /** Every API router, mounted under /api. Add a feature's router to this list. */
@@ -104,4 +110,9 @@ const apiRouters: MountRouter[] = [
   synthesesRouter,
   snapshotsRouter,
   atlasRouter,
+  importsRouter,
+  referencesRouter,
+  screeningRouter,
+  duplicatesRouter,
+  searchRouter,
 ];

@@ -27,11 +27,17 @@ export function createDoiResolver(opts: { slowMs?: number } = {}) {
   app.get('/{*doi}', async (req, res) => {
     const doi = decodeURIComponent(req.path.slice(1)).toLowerCase();
     served++;
-    const wait = (ms: number) => new Promise((r) => setTimeout(r, ms));
+    // A wait ends early when the caller hangs up, so no timer outlives the request.
+    const wait = (ms: number) =>
+      new Promise<void>((r) => {
+        const timer = setTimeout(r, ms);
+        res.on('close', () => (clearTimeout(timer), r()));
+      });
     if (delayMs) await wait(delayMs);
     if (doi.startsWith(SLOW_DOI_PREFIX)) {
       await wait(opts.slowMs ?? 30_000);
     }
+    if (res.writableEnded || res.destroyed) return;
     if (doi.startsWith(FAILING_DOI_PREFIX)) {
       res.status(500).type('text').send('resolver failure (simulated)');
       return;

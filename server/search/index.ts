@@ -80,7 +80,7 @@ export class SearchIndex {
 
   async deleteDocuments(uid: string, ids: Array<string | number>): Promise<void> {
     if (!ids.length) return;
-    await this.withIndex(uid, (idx) => idx.deleteDocuments(ids).waitTask({ timeout: this.taskTimeoutMs }));
+    await this.withIndex(uid, (idx) => idx.deleteDocuments(ids.map(String)).waitTask({ timeout: this.taskTimeoutMs }));
   }
 
   async deleteAll(uid: string): Promise<void> {

@@ -1,0 +1,310 @@
+import type { Knex } from 'knex';
+import type { AppContext } from '../context.js';
+import type { ImportBatchView, ImportEntryView, ImportFormat, ImportResult } from '../../shared/schemas/references.js';
+import { resolveDoi, setDoiResolver } from '../citations/index.js';
+import { NotFoundError } from '../lib/errors.js';
+import { recordAudit } from './audit.js';
+import { describeEntry, parseDoiList, parseEntries } from './import-parsing.js';
+import { authorKey, cleanCsl, refColumns, type Csl, type RefColumns } from './reference-fields.js';
+import { findDuplicate, offerDuplicate } from './references.js';
+import { syncReferences } from './search.js';
+
+export const DOI_QUEUE = 'doi.resolve';
+const DOI_CHUNK = 10;
+const DOI_CONCURRENCY = 4;
+
+interface EntryRow {
+  batch_id: number;
+  idx: number;
+  entry_key: string | null;
+  status: 'pending' | 'imported' | 'duplicate' | 'rejected';
+  message: string | null;
+  input: string | null;
+  reference_id: number | null;
+  likely_duplicate_of: number | null;
+}
+
+const clip = (s: string, n = 2000) => (s.length > n ? `${s.slice(0, n)}…` : s);
+const fingerprint = (c: Pick<RefColumns, 'title_key' | 'year' | 'first_author'>) => `${c.title_key}|${c.year ?? ''}|${authorKey(c.first_author)}`;
+
+/**
+ * Imports a BibTeX or RIS text as one batch in one transaction. Each entry ends imported, duplicate (of which
+ * reference) or rejected (with the entry, field and problem named); the good entries of a file with bad ones
+ * still import, and a file imported twice creates nothing the second time.
+ */
+export async function importText(
+  ctx: Pick<AppContext, 'db' | 'search'>,
+  input: { format: 'bibtex' | 'ris'; text: string; label?: string; userId: number | null },
+): Promise<ImportResult> {
+  const parsed = parseEntries(input.format, input.text);
+  const batchId = await ctx.db.transaction(async (trx) => {
+    const [batch] = await trx('import_batches')
+      .insert({ format: input.format, label: input.label ?? null, total: parsed.length, created_by: input.userId })
+      .returning('id');
+    const good = parsed.filter((p) => p.ok);
+    const cols = new Map<number, { csl: Csl; cols: RefColumns }>();
+    for (const p of good) {
+      const csl = cleanCsl(p.csl);
+      cols.set(p.index, { csl, cols: refColumns(csl) });
+    }
+
+    // What already exists, looked up in bulk: by DOI (merged records point to their survivor) and by title key.
+    const dois = [...new Set([...cols.values()].map((c) => c.cols.doi).filter(Boolean))] as string[];
+    const byDoi = new Map<string, number>();
+    for (let i = 0; i < dois.length; i += 1000) {
+      const rows = await trx('refs').whereIn('doi', dois.slice(i, i + 1000)).select('id', 'doi', 'merged_into');
+      for (const r of rows) byDoi.set(r.doi, r.merged_into ?? r.id);
+    }
+    const keys = [...new Set([...cols.values()].map((c) => c.cols.title_key))];
+    const byPrint = new Map<string, Array<{ id: number; doi: string | null }>>();
+    for (let i = 0; i < keys.length; i += 1000) {
+      const rows = await trx('refs').whereNull('merged_into').whereIn('title_key', keys.slice(i, i + 1000)).select('id', 'doi', 'title_key', 'year', 'first_author').orderBy('id');
+      for (const r of rows) {
+        const f = fingerprint(r);
+        if (!byPrint.has(f)) byPrint.set(f, []);
+        byPrint.get(f)!.push({ id: r.id, doi: r.doi });
+      }
+    }
+
+    // Decide every entry in file order; entries new to the registry get a slot filled after the insert.
+    type Decision =
+      | { kind: 'rejected'; message: string }
+      | { kind: 'duplicate'; of: number | { slot: number }; message: string }
+      | { kind: 'new'; slot: number; likely?: number | { slot: number } };
+    const newRows: Array<{ csl: Csl; cols: RefColumns }> = [];
+    const slotByDoi = new Map<string, number>();
+    const slotsByPrint = new Map<string, Array<{ slot: number; doi: string | null }>>();
+    const decisions = new Map<number, Decision>();
+    for (const p of parsed) {
+      if (!p.ok) {
+        decisions.set(p.index, { kind: 'rejected', message: p.message });
+        continue;
+      }
+      const { csl, cols: c } = cols.get(p.index)!;
+      const where = describeEntry(p, input.format);
+      if (c.doi && byDoi.has(c.doi)) {
+        decisions.set(p.index, { kind: 'duplicate', of: byDoi.get(c.doi)!, message: `${where}: duplicate of reference #${byDoi.get(c.doi)} (same DOI ${c.doi})` });
+        continue;
+      }
+      if (c.doi && slotByDoi.has(c.doi)) {
+        decisions.set(p.index, { kind: 'duplicate', of: { slot: slotByDoi.get(c.doi)! }, message: `${where}: same DOI ${c.doi} as an earlier entry of this file` });
+        continue;
+      }
+      const f = fingerprint(c);
+      const existing = byPrint.get(f) ?? [];
+      const earlier = slotsByPrint.get(f) ?? [];
+      if (!c.doi) {
+        const twin = existing.find((r) => !r.doi);
+        if (twin) {
+          decisions.set(p.index, { kind: 'duplicate', of: twin.id, message: `${where}: duplicate of reference #${twin.id} (same title, year and first author; neither has a DOI)` });
+          continue;
+        }
+        const twinSlot = earlier.find((r) => !r.doi);
+        if (twinSlot) {
+          decisions.set(p.index, { kind: 'duplicate', of: { slot: twinSlot.slot }, message: `${where}: same title, year and first author as an earlier entry of this file` });
+          continue;
+        }
+      }
+      const slot = newRows.length;
+      newRows.push({ csl, cols: c });
+      if (c.doi) slotByDoi.set(c.doi, slot);
+      if (!slotsByPrint.has(f)) slotsByPrint.set(f, []);
+      slotsByPrint.get(f)!.push({ slot, doi: c.doi });
+      const likely = existing[0]?.id ?? (earlier[0] ? { slot: earlier[0].slot } : undefined);
+      decisions.set(p.index, { kind: 'new', slot, likely });
+    }
+
+    const slotIds: number[] = [];
+    for (let i = 0; i < newRows.length; i += 500) {
+      const rows = await trx('refs')
+        .insert(newRows.slice(i, i + 500).map((r) => ({ csl: JSON.stringify(r.csl), ...r.cols, source: input.format, created_by: input.userId })))
+        .returning('id');
+      slotIds.push(...rows.map((r: { id: number }) => r.id));
+    }
+    const resolve = (v: number | { slot: number }) => (typeof v === 'number' ? v : slotIds[v.slot]);
+
+    const entryRows: EntryRow[] = parsed.map((p) => {
+      const d = decisions.get(p.index)!;
+      const base = { batch_id: batch.id, idx: p.index, entry_key: p.key ?? null, input: null as string | null, likely_duplicate_of: null as number | null };
+      if (d.kind === 'rejected') return { ...base, status: 'rejected', message: d.message, input: clip(p.text), reference_id: null };
+      if (d.kind === 'duplicate') return { ...base, status: 'duplicate', message: d.message, reference_id: resolve(d.of) };
+      const id = slotIds[d.slot];
+      const likely = d.likely === undefined ? null : resolve(d.likely);
+      return {
+        ...base,
+        status: 'imported',
+        reference_id: id,
+        likely_duplicate_of: likely,
+        message: likely ? `imported; looks like reference #${likely} (same title, year and first author) and is offered to curators as a likely duplicate` : null,
+      };
+    });
+    for (let i = 0; i < entryRows.length; i += 1000) await trx('import_entries').insert(entryRows.slice(i, i + 1000));
+    for (const e of entryRows) if (e.likely_duplicate_of && e.reference_id) await offerDuplicate(trx, e.likely_duplicate_of, e.reference_id, 'same title, year and first author');
+    await trx('import_batches').where({ id: batch.id }).update({ state: 'done', finished_at: trx.fn.now() });
+    const counts = countOf(entryRows);
+    await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: batch.id, details: { format: input.format, total: parsed.length, ...counts } });
+    return batch.id as number;
+  });
+  const created = await ctx.db('import_entries').where({ batch_id: batchId, status: 'imported' }).pluck('reference_id');
+  await syncReferences(ctx, created);
+  return getImport(ctx.db, batchId);
+}
+
+function countOf(rows: Array<Pick<EntryRow, 'status'>>) {
+  const c = { imported: 0, duplicate: 0, rejected: 0, pending: 0 };
+  for (const r of rows) c[r.status]++;
+  return c;
+}
+
+/** A DOI list: a batch whose entries are resolved by background jobs; answers at once with the batch. */
+export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' | 'env'>, input: { text: string; label?: string; userId: number | null }): Promise<ImportResult> {
+  const list = parseDoiList(input.text);
+  const seen = new Map<string, number>();
+  const batchId = await ctx.db.transaction(async (trx) => {
+    const [batch] = await trx('import_batches').insert({ format: 'doi', label: input.label ?? null, total: list.length, created_by: input.userId }).returning('id');
+    const rows: EntryRow[] = list.map((e) => {
+      const base = { batch_id: batch.id, idx: e.index, entry_key: e.text.slice(0, 200), input: null, reference_id: null, likely_duplicate_of: null };
+      if (!e.doi) return { ...base, status: 'rejected' as const, message: `${describeEntry(e, 'doi')}: "${clip(e.text, 80)}" is not a DOI (a DOI looks like 10.5555/abc)`, input: clip(e.text) };
+      if (seen.has(e.doi)) return { ...base, status: 'duplicate' as const, message: `${describeEntry(e, 'doi')}: ${e.doi} is listed twice (first as entry ${seen.get(e.doi)})` };
+      seen.set(e.doi, e.index);
+      return { ...base, status: 'pending' as const, message: null };
+    });
+    for (let i = 0; i < rows.length; i += 1000) await trx('import_entries').insert(rows.slice(i, i + 1000));
+    await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: batch.id, details: { format: 'doi', total: list.length } });
+    return batch.id as number;
+  });
+  const pending: number[] = await ctx.db('import_entries').where({ batch_id: batchId, status: 'pending' }).orderBy('idx').pluck('idx');
+  if (!pending.length) await finishIfDone(ctx.db, batchId);
+  else if (ctx.env.JOBS_ENABLED === 'true') {
+    for (let i = 0; i < pending.length; i += DOI_CHUNK) {
+      await ctx.jobs.send(DOI_QUEUE, { batchId, entries: pending.slice(i, i + DOI_CHUNK) }, { retryLimit: 2 });
+    }
+  } else {
+    // No workers in this process (JOBS_ENABLED=false): resolve here, after answering.
+    setImmediate(() => {
+      resolveDoiEntries(ctx, { batchId, entries: pending }).catch((err) => console.error('[imports] DOI batch failed:', (err as Error).message));
+    });
+  }
+  return getImport(ctx.db, batchId);
+}
+
+/** The `doi.resolve` job: resolves pending entries of a batch; safe to run twice (only pending entries are touched). */
+export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 'env'>, job: { batchId: number; entries: number[] }): Promise<void> {
+  setDoiResolver(ctx.env.DOI_RESOLVER_URL);
+  const batch = await ctx.db('import_batches').where({ id: job.batchId }).first('id', 'created_by');
+  if (!batch) return;
+  const rows: EntryRow[] = await ctx.db('import_entries').where({ batch_id: job.batchId, status: 'pending' }).whereIn('idx', job.entries).orderBy('idx');
+  const created: number[] = [];
+  let next = 0;
+  const worker = async () => {
+    while (next < rows.length) {
+      const row = rows[next++];
+      const doi = row.entry_key!.trim();
+      const where = `Line ${row.idx}`;
+      let update: Partial<EntryRow>;
+      try {
+        const csl = cleanCsl(await resolveDoi(doi, ctx.env.DOI_TIMEOUT_MS));
+        csl.DOI = csl.DOI ?? doi;
+        update = await ctx.db.transaction(async (trx) => {
+          const cols = refColumns(csl);
+          if (!cols.title) return { status: 'rejected' as const, message: `${where}: ${doi}: the resolver's record has no title` };
+          if (!cols.doi) cols.doi = doi.toLowerCase();
+          const dup = await findDuplicate(trx, cols);
+          if (dup.exact) return { status: 'duplicate' as const, reference_id: dup.exact, message: `${where}: ${doi} is already reference #${dup.exact}` };
+          const ins = await trx('refs')
+            .insert({ csl: JSON.stringify(csl), ...cols, source: 'doi', created_by: batch.created_by })
+            .onConflict('doi')
+            .ignore()
+            .returning('id');
+          if (!ins.length) {
+            const other = await trx('refs').where({ doi: cols.doi }).first('id', 'merged_into');
+            return { status: 'duplicate' as const, reference_id: other?.merged_into ?? other?.id ?? null, message: `${where}: ${doi} was imported at the same moment by another entry` };
+          }
+          const id = ins[0].id as number;
+          created.push(id);
+          if (dup.likely) await offerDuplicate(trx, dup.likely, id, 'same title, year and first author');
+          return {
+            status: 'imported' as const,
+            reference_id: id,
+            likely_duplicate_of: dup.likely ?? null,
+            message: dup.likely ? `imported; looks like reference #${dup.likely} (same title, year and first author) and is offered to curators as a likely duplicate` : null,
+          };
+        });
+      } catch (err) {
+        update = { status: 'rejected', message: `${where}: ${doi}: ${(err as Error).message}` };
+      }
+      await ctx.db('import_entries').where({ batch_id: row.batch_id, idx: row.idx, status: 'pending' }).update({ ...update, updated_at: ctx.db.fn.now() });
+    }
+  };
+  await Promise.all(Array.from({ length: Math.min(DOI_CONCURRENCY, rows.length) }, worker));
+  await syncReferences(ctx, created);
+  await finishIfDone(ctx.db, job.batchId);
+}
+
+async function finishIfDone(db: Knex, batchId: number) {
+  await db.transaction(async (trx) => {
+    const updated = await trx('import_batches')
+      .where({ id: batchId, state: 'running' })
+      .whereNotExists(trx('import_entries').where({ batch_id: batchId, status: 'pending' }).select(trx.raw('1')))
+      .update({ state: 'done', finished_at: trx.fn.now() })
+      .returning(['id', 'created_by']);
+    if (updated.length) {
+      const counts = countOf(await trx('import_entries').where({ batch_id: batchId }).select('status'));
+      await recordAudit(trx, { actorId: updated[0].created_by ?? null, action: 'import.finish', entityType: 'import_batch', entityId: batchId, details: counts });
+    }
+  });
+}
+
+function batchView(row: Record<string, any>, counts: ImportBatchView['counts']): ImportBatchView {
+  return {
+    id: row.id,
+    format: row.format as ImportFormat,
+    label: row.label,
+    state: row.state,
+    total: row.total,
+    processed: row.total - counts.pending,
+    counts,
+    createdAt: new Date(row.created_at).toISOString(),
+    finishedAt: row.finished_at ? new Date(row.finished_at).toISOString() : null,
+    createdBy: row.created_by ? { id: row.created_by, login: row.login } : null,
+  };
+}
+
+export async function getImport(db: Knex, id: number): Promise<ImportResult> {
+  const row = await db('import_batches').leftJoin('users', 'users.id', 'import_batches.created_by').where('import_batches.id', id).first('import_batches.*', 'users.login');
+  if (!row) throw new NotFoundError(`There is no import batch ${id}.`);
+  const entries: EntryRow[] = await db('import_entries').where({ batch_id: id }).orderBy('idx');
+  const view = entries.map((e): ImportEntryView => ({
+    index: e.idx,
+    status: e.status,
+    ...(e.message ? { message: e.message } : {}),
+    ...(e.reference_id ? { referenceId: e.reference_id } : {}),
+    ...(e.entry_key ? { key: e.entry_key } : {}),
+    ...(e.likely_duplicate_of ? { likelyDuplicateOf: e.likely_duplicate_of } : {}),
+  }));
+  return { batch: batchView(row, countOf(entries)), entries: view };
+}
+
+export async function listImports(db: Knex, q: { page: number; pageSize: number; sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }) {
+  const [{ count }] = await db('import_batches').count<{ count: number }[]>({ count: '*' });
+  const rows = await db('import_batches')
+    .leftJoin('users', 'users.id', 'import_batches.created_by')
+    .select('import_batches.*', 'users.login')
+    .orderBy(`import_batches.${q.sort}`, q.order)
+    .orderBy('import_batches.id', 'desc')
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+  const ids = rows.map((r: { id: number }) => r.id);
+  const counts = ids.length ? await db('import_entries').whereIn('batch_id', ids).groupBy('batch_id', 'status').select('batch_id', 'status').count({ n: '*' }) : [];
+  return {
+    items: rows.map((r: Record<string, any>) => {
+      const c = { imported: 0, duplicate: 0, rejected: 0, pending: 0 };
+      for (const x of counts as Array<{ batch_id: number; status: keyof typeof c; n: number }>) if (x.batch_id === r.id) c[x.status] = Number(x.n);
+      return batchView(r, c);
+    }),
+    total: Number(count),
+    page: q.page,
+    pageSize: q.pageSize,
+  };
+}
+
