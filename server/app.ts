@@ -22,6 +22,11 @@ import { referencesRouter } from './routes/references.js';
 import { screeningRouter } from './routes/screening.js';
 import { duplicatesRouter } from './routes/duplicates.js';
 import { searchRouter } from './routes/search.js';
+import { effectsRouter } from './routes/effects.js';
+import { manipulationsRouter } from './routes/manipulations.js';
+import { extractionsRouter } from './routes/extractions.js';
+import { assignmentsRouter } from './routes/assignments.js';
+import { reconciliationRouter } from './routes/reconciliation.js';
 
 
 /** Builds the Express app without listening, so tests can mount it with supertest. */
@@ -115,4 +120,9 @@ const apiRouters: MountRouter[] = [
   screeningRouter,
   duplicatesRouter,
   searchRouter,
+  effectsRouter,
+  manipulationsRouter,
+  extractionsRouter,
+  assignmentsRouter,
+  reconciliationRouter,
 ];

@@ -3,6 +3,7 @@ import type { Server } from 'node:http';
 import { startOAuthProvider } from './oauth-provider.js';
 import { startSearchIndex } from './search-index.js';
 import { startDoiResolver } from './doi-resolver.js';
+import { startFakeSmtp } from './smtp.js';
 
 export interface FakePorts {
   oauth: number;
@@ -35,6 +36,9 @@ export async function startFakes(ports: FakePorts): Promise<RunningFakes> {
   const doiResolver = await startDoiResolver(ports.doi);
   // The resolver holds deliberately slow requests open: drop them on stop.
   closers.push(() => new Promise<void>((r) => (doiResolver.close(() => r()), doiResolver.closeAllConnections())));
+  const mail = await startFakeSmtp(ports.smtp, ports.mailbox);
+  track(mail.mailbox);
+  closers.push(() => new Promise<void>((r) => mail.smtp.close(() => r())));
 
   return {
     async stop() {

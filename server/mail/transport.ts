@@ -1,0 +1,19 @@
+import nodemailer, { type Transporter } from 'nodemailer';
+import type { Env } from '../env.js';
+
+/** A nodemailer transport from the SMTP_* configuration, or null when no SMTP host is configured. */
+export function createMailTransport(env: Env): Transporter | null {
+  if (!env.SMTP_HOST || !env.SMTP_PORT) return null;
+  const secure = env.SMTP_SECURE === 'true';
+  return nodemailer.createTransport({
+    host: env.SMTP_HOST,
+    port: env.SMTP_PORT,
+    secure,
+    // Plain loopback servers (the local stand-in) offer no TLS; a real relay on 587 upgrades with STARTTLS.
+    ignoreTLS: !secure && env.SMTP_HOST === '127.0.0.1',
+    auth: env.SMTP_USER ? { user: env.SMTP_USER, pass: env.SMTP_PASSWORD ?? '' } : undefined,
+    connectionTimeout: 10_000,
+    greetingTimeout: 10_000,
+    socketTimeout: 20_000,
+  });
+}

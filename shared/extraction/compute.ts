@@ -1,0 +1,130 @@
+import { computeEffect } from '../stats/compute-effect.js';
+import { StatsInputError } from '../stats/errors.js';
+import { formulas, type FormulaInfo } from '../stats/formulas.js';
+import type { Metric } from '../stats/metrics.js';
+import { percentChange } from '../stats/percent-change.js';
+import { rawMean } from '../stats/raw-mean.js';
+
+/** How the paper reported a result: the engine's measures plus a single raw mean and a percent change. */
+export const REPORT_FORMS = [
+  'smd',
+  'smd_paired',
+  'log_ratio',
+  'log_ratio_paired',
+  'percent_change',
+  'mean_diff',
+  'raw_mean',
+  'fisher_z',
+] as const;
+export type ReportForm = (typeof REPORT_FORMS)[number];
+
+export const REPORT_FORM_LABELS: Record<ReportForm, string> = {
+  smd: "Two groups → Hedges' g (means & SDs, t, F or p)",
+  smd_paired: "Within subject → Hedges' g (SD of differences, condition SDs, or paired t)",
+  log_ratio: 'Two groups → log ratio of means',
+  log_ratio_paired: 'Within subject → log ratio of means',
+  percent_change: 'Percent change with its SE → log ratio of means',
+  mean_diff: 'Mean difference in ms (SDs, SD of differences, t or CI)',
+  raw_mean: 'Single raw mean in ms (mean, SD, n)',
+  fisher_z: "Correlation → Fisher's z",
+};
+
+export const METRIC_OF_FORM: Record<ReportForm, Metric> = {
+  smd: 'hedges_g',
+  smd_paired: 'hedges_g',
+  log_ratio: 'log_ratio',
+  log_ratio_paired: 'log_ratio',
+  percent_change: 'log_ratio',
+  mean_diff: 'mean_diff',
+  raw_mean: 'raw_mean',
+  fisher_z: 'fisher_z',
+};
+
+/** Every reported value the sheet can hold; which ones a form uses is in REPORT_FIELDS. */
+export const REPORTED_KEYS = [
+  'mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 't', 'F', 'p', 'direction',
+  'mean_diff', 'sd_diff', 'n', 'r', 'ci_lower', 'ci_upper', 'level', 'df', 'mean', 'sd', 'percent', 'se',
+] as const;
+export type ReportedKey = (typeof REPORTED_KEYS)[number];
+export type Reported = Partial<Record<ReportedKey, number>>;
+
+/** The fields each form offers, in entry order (alternatives are chosen by which are filled). */
+export const REPORT_FIELDS: Record<ReportForm, readonly ReportedKey[]> = {
+  smd: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 't', 'F', 'p', 'direction'],
+  smd_paired: ['mean_diff', 'sd_diff', 'mean1', 'sd1', 'mean2', 'sd2', 't', 'n', 'r'],
+  log_ratio: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2'],
+  log_ratio_paired: ['mean1', 'sd1', 'mean2', 'sd2', 'n', 'r'],
+  percent_change: ['percent', 'se', 'n'],
+  mean_diff: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 'mean_diff', 'sd_diff', 'n', 't', 'ci_lower', 'ci_upper', 'level', 'df'],
+  raw_mean: ['mean', 'sd', 'n'],
+  fisher_z: ['r', 'n'],
+};
+
+/** Forms whose within-subject variance needs the correlation between conditions. */
+const NEEDS_R: Partial<Record<ReportForm, (r: Reported) => boolean>> = {
+  smd_paired: (r) => r.t === undefined || r.sd_diff !== undefined || r.sd1 !== undefined,
+  log_ratio_paired: () => true,
+};
+
+/** The correlation assumed when a within-subject paper does not report one (a stated, editable assumption). */
+export const DEFAULT_ASSUMED_R = 0.5;
+
+export interface ComputedEffect {
+  metric: Metric;
+  effect: number;
+  variance: number;
+  formula: string;
+  formulaInfo: FormulaInfo | null;
+  /** the correlation that was assumed (not reported), or null */
+  assumedR: number | null;
+  /** total participants the effect rests on, when the reported values say */
+  n: number | null;
+}
+
+/**
+ * Computes the effect size and its variance from what the paper reported, with the engine in shared/stats.
+ * A missing r for a within-subject form is replaced by `assumedR` and returned as such.
+ * Throws StatsInputError (with the field name) when the values cannot give an effect.
+ */
+export function computeReported(form: ReportForm, reported: Reported, assumedR: number | null = DEFAULT_ASSUMED_R): ComputedEffect {
+  const values: Reported = {};
+  for (const key of REPORT_FIELDS[form]) if (reported[key] !== undefined && reported[key] !== null) values[key] = reported[key];
+  let usedAssumed: number | null = null;
+  if (NEEDS_R[form]?.(values) && values.r === undefined) {
+    if (assumedR === null || assumedR === undefined) throw new StatsInputError('r: give the reported correlation or an assumed one', 'r');
+    values.r = assumedR;
+    usedAssumed = assumedR;
+  }
+  let out: { effect: number; variance: number; formula: string };
+  if (form === 'raw_mean') out = rawMean(values.mean as number, values.sd as number, values.n as number);
+  else if (form === 'percent_change') out = percentChange(values.percent as number, values.se as number);
+  else out = computeEffect({ measure: form, ...values });
+  const n =
+    values.n1 !== undefined && values.n2 !== undefined ? values.n1 + values.n2 : values.n !== undefined ? values.n : null;
+  return {
+    metric: METRIC_OF_FORM[form],
+    effect: out.effect,
+    variance: out.variance,
+    formula: out.formula,
+    formulaInfo: formulas[out.formula] ?? null,
+    assumedR: usedAssumed,
+    n,
+  };
+}
+
+export interface ComputeAttempt {
+  ok: boolean;
+  result?: ComputedEffect;
+  error?: string;
+  field?: string;
+}
+
+/** computeReported without throwing, for the live sheet. */
+export function tryComputeReported(form: ReportForm, reported: Reported, assumedR: number | null): ComputeAttempt {
+  try {
+    return { ok: true, result: computeReported(form, reported, assumedR) };
+  } catch (e) {
+    if (e instanceof StatsInputError) return { ok: false, error: e.message, field: e.field };
+    throw e;
+  }
+}
