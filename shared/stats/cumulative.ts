@@ -8,7 +8,7 @@ import { tQuantileUpper } from './student-t.js';
 import { dlTau2 } from './dl-tau2.js';
 
 const SERIES_RATIO = 0.1;
-const TERMS = 17; // 0.1^17 < 1e-16
+const TERMS = 17; // 0.1^17 = 1e-17
 
 /**
  * Cumulative meta-analysis in the order given (sort by year first for "cumulative by year"): entry m
@@ -17,7 +17,7 @@ const TERMS = 17; // 0.1^17 < 1e-16
  *
  * For FE and DL it uses running sums: the fixed-effect sums and DL's τ²ₘ are prefix sums; the
  * random-effects sums Σⱼ≤ₘ 1/(vⱼ + τ²ₘ) come from running power-series moments around an anchor τₐ²
- * (1/(v + τₐ² + δ) = Σₙ (−δ)ⁿ/(v + τₐ²)ⁿ⁺¹, 17 terms, used while |δ|·max w ≤ 0.1, error < 1e-16); when
+ * (1/(v + τₐ² + δ) = Σₙ (−δ)ⁿ/(v + τₐ²)ⁿ⁺¹, 17 terms, used while |δ|·max w ≤ 0.1, error ≈ 1e-17); when
  * τ²ₘ drifts too far the anchor moves to τ²ₘ and the moments are rebuilt. REML and PM refit each prefix.
  *
  * Input: as pool, k ≥ 1. Example: cumulative({ effects: [0, 1], variances: [1, 1], method: 'FE' })[1].estimate = 0.5.
@@ -35,7 +35,7 @@ export function cumulative(input: PoolInput): SensitivityEntry[] {
     for (let m = 0; m < k; m++) {
       const r = poolCore({ y: y.subarray(0, m + 1), v: v.subarray(0, m + 1) }, prepared, { lean: true, noWeights: true });
       out[m] = { index: m, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper,
-        statistic: r.statistic, statistic_df: r.statistic_df, p: r.p, tau2: r.tau2, I2: r.I2, H2: r.H2, Q: r.Q };
+        statistic: r.statistic, statistic_df: r.statistic_df, tau2: r.tau2, I2: r.I2, H2: r.H2, Q: r.Q };
     }
     return out;
   }

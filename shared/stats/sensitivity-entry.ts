@@ -1,6 +1,4 @@
 import type { Method } from './types.js';
-import { normalTwoTailed } from './normal.js';
-import { tTwoTailed } from './student-t.js';
 
 /** One refit of a sensitivity analysis (leave-one-out or cumulative). */
 export interface SensitivityEntry {
@@ -12,8 +10,8 @@ export interface SensitivityEntry {
   ci_lower: number;
   ci_upper: number;
   statistic: number;
+  /** null for z; the p-value is normalTwoTailed(statistic) or tTwoTailed(statistic, statistic_df) (left out to keep k refits O(k)) */
   statistic_df: number | null;
-  p: number;
   tau2: number | null;
   I2: number | null;
   H2: number | null;
@@ -43,7 +41,6 @@ export function makeEntry(
     ci_upper: estimate + crit * se,
     statistic,
     statistic_df: statisticDf,
-    p: statisticDf === null ? normalTwoTailed(statistic) : tTwoTailed(statistic, statisticDf),
     tau2: method === 'FE' || !hetero ? null : tau2,
     I2: hetero ? (Q > 0 ? 100 * Math.max(0, (Q - df) / Q) : 0) : null,
     H2: hetero ? Q / df : null,
