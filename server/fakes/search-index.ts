@@ -52,9 +52,6 @@ const fold = (s: string) =>
 
 class FakeIndex {
   docs = new Map<string, Doc>();
-  /** Insertion order, which is what a placeholder search (empty q) returns. */
-  order: string[] = [];
-  orderDirty = false;
   settings: Settings = { searchableAttributes: ['*'], filterableAttributes: [], sortableAttributes: [], displayedAttributes: ['*'] };
   mini!: MiniSearch<Doc>;
   readonly createdAt = new Date().toISOString();
@@ -108,10 +105,7 @@ class FakeIndex {
       const prev = this.docs.get(k);
       const doc = merge && prev ? { ...prev, ...raw } : raw;
       if (prev) this.mini.replace({ ...doc, _key: k });
-      else {
-        this.mini.add({ ...doc, _key: k });
-        this.order.push(k);
-      }
+      else this.mini.add({ ...doc, _key: k });
       this.docs.set(k, doc);
     }
     this.updatedAt = new Date().toISOString();
@@ -125,17 +119,13 @@ class FakeIndex {
       this.docs.delete(k);
       n++;
     }
-    if (n) this.orderDirty = true;
     this.updatedAt = new Date().toISOString();
     return n;
   }
 
+  /** Insertion order (a Map keeps it), which is what a placeholder search (empty q) returns. */
   liveOrder(): string[] {
-    if (this.orderDirty) {
-      this.order = this.order.filter((k) => this.docs.has(k));
-      this.orderDirty = false;
-    }
-    return this.order;
+    return [...this.docs.keys()];
   }
 }
 

@@ -36,7 +36,7 @@ export function referencesRouter(ctx: AppContext) {
   router.get('/references/export', async (req, res) => {
     const q = parseInput(exportQuerySchema, req.query, 'query');
     const out = await exportReferences(ctx.db, q.ids, q.format);
-    res.type(out.type).attachment(out.filename).send(out.body);
+    res.attachment(out.filename).type(out.type).send(out.body);
   });
 
   router.post('/references/merge', requireRole('curator'), async (req, res) => {
@@ -93,7 +93,7 @@ export function referencesRouter(ctx: AppContext) {
     res.setHeader('Cache-Control', 'private, no-store');
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.attachment(file.filename);
-    res.sendFile(file.path, { headers: { 'Content-Type': 'application/pdf' } });
+    res.sendFile(file.path, { dotfiles: 'allow', headers: { 'Content-Type': 'application/pdf' } });
   });
 
   return router;
