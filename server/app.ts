@@ -27,6 +27,8 @@ import { manipulationsRouter } from './routes/manipulations.js';
 import { extractionsRouter } from './routes/extractions.js';
 import { assignmentsRouter } from './routes/assignments.js';
 import { reconciliationRouter } from './routes/reconciliation.js';
+import { agreementRouter } from './routes/agreement.js';
+import { mailboxRouter } from './routes/mailbox.js';
 
 
 /** Builds the Express app without listening, so tests can mount it with supertest. */
@@ -125,4 +127,6 @@ const apiRouters: MountRouter[] = [
   extractionsRouter,
   assignmentsRouter,
   reconciliationRouter,
+  agreementRouter,
+  mailboxRouter,
 ];
