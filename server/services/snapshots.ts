@@ -9,6 +9,8 @@ import { NotFoundError } from '../lib/errors.js';
 import { toBibtex } from '../citations/index.js';
 import { recordAudit } from './audit.js';
 import { synthesize } from './synthesis.js';
+import { prismaCounts } from './screening.js';
+import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
 import { METHOD_LABELS, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
@@ -17,35 +19,15 @@ import type { SynthesisOutput } from '../../shared/synthesis/types.js';
 const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
 export const SOFTWARE = { name: 'Chronometa', version: pkg.version };
 
-/** PRISMA 2020 counts over the registry's references; exclusion reasons where screening decisions exist. */
-export async function prismaCounts(db: Knex | Knex.Transaction): Promise<PrismaCounts | null> {
+/** PRISMA 2020 counts for the methods paragraph, from the screening records; null when they cannot be read. */
+export async function prismaForMethods(db: Knex | Knex.Transaction): Promise<PrismaCounts | null> {
   try {
-    const [c] = await db('refs').select(
-      db.raw('count(*)::int as identified'),
-      db.raw('count(*) filter (where merged_into is not null)::int as duplicates'),
-      db.raw(`count(*) filter (where merged_into is null and screening_status <> 'unscreened')::int as screened`),
-      db.raw(`count(*) filter (where merged_into is null and screening_status = 'excluded')::int as excluded`),
-      db.raw(`count(*) filter (where merged_into is null and screening_status = 'included')::int as included`),
-    );
-    const counts: PrismaCounts = { identified: c.identified, duplicatesRemoved: c.duplicates, screened: c.screened, excluded: c.excluded, included: c.included };
-    try {
-      // the latest decision of each excluded reference carries its reason
-      const reasons = await db
-        .with('latest', (q) =>
-          q.from('screening_decisions').distinctOn('ref_id').select('ref_id', 'decision', 'reason').orderBy([{ column: 'ref_id' }, { column: 'decided_at', order: 'desc' }, { column: 'id', order: 'desc' }]),
-        )
-        .from('latest')
-        .join('refs', 'refs.id', 'latest.ref_id')
-        .where({ 'latest.decision': 'excluded', 'refs.screening_status': 'excluded' })
-        .whereNull('refs.merged_into')
-        .groupBy('latest.reason')
-        .select('latest.reason as reason', db.raw('count(*)::int as count'))
-        .orderBy('count', 'desc');
-      if (reasons.length) counts.excludedReasons = reasons.map((r: { reason: string; count: number }) => ({ reason: r.reason, count: r.count }));
-    } catch {
-      // no screening table here: the counts stand without reasons
-    }
-    return counts;
+    const c = await prismaCounts(db as Knex);
+    const reasons = Object.entries(c.excluded.byReason)
+      .filter(([, n]) => n > 0)
+      .sort((a, b) => b[1] - a[1])
+      .map(([reason, count]) => ({ reason: EXCLUSION_REASON_LABELS[reason as ExclusionReason] ?? reason, count }));
+    return { identified: c.identified.total, duplicatesRemoved: c.duplicatesRemoved.total, screened: c.screened, excluded: c.excluded.total, excludedReasons: reasons, included: c.included };
   } catch {
     return null;
   }
@@ -74,7 +56,7 @@ export async function createSnapshot(db: Knex, actorId: number, request: Synthes
       const output = synthesize(effects, request);
       const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
       const refs = await trx('refs').whereIn('id', refIds).orderBy('id').select('id', 'csl', 'title', 'year', 'doi', 'first_author');
-      const prisma = await prismaCounts(trx);
+      const prisma = await prismaForMethods(trx);
       const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma });
       const id = newId();
       await trx('snapshots').insert({
@@ -247,7 +229,7 @@ export async function listSnapshots(
     .offset((q.page - 1) * q.pageSize);
   return {
     total: Number(count),
-    items: items.map((r) => ({
+    items: items.map((r: Record<string, any>) => ({
       id: r.id,
       title: r.title,
       createdAt: r.created_at,

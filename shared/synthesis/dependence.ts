@@ -47,7 +47,13 @@ function pickOne(group: SettledEffect[], rule: OnePerStudyRule): SettledEffect {
  * correlation between them, or one effect kept by a stated rule.
  */
 export function applyDependence(effects: readonly SettledEffect[], dependence: Dependence): StudyUnit[] {
-  return groupByStudy(effects).map((group) => {
+  const groups = groupByStudy(effects);
+  // one engine call for every study; studies come back in order of first appearance, as groupByStudy's
+  const combined =
+    dependence.mode === 'aggregate'
+      ? aggregateWithinStudy({ effects: effects.map((e) => e.effect), variances: effects.map((e) => e.variance), studies: effects.map((e) => e.studyId), r: dependence.r })
+      : null;
+  return groups.map((group, gi) => {
     const first = group[0];
     const n = group.reduce<number | null>((m, e) => (e.n == null ? m : Math.max(m ?? 0, e.n)), null);
     const base = { studyId: first.studyId, referenceId: first.referenceId, label: label(first), year: first.year };
@@ -56,7 +62,6 @@ export function applyDependence(effects: readonly SettledEffect[], dependence: D
       const kept = pickOne(group, dependence.rule);
       return { ...base, n: kept.n, effect: kept.effect, variance: kept.variance, effects: [kept] };
     }
-    const agg = aggregateWithinStudy(group.map((e) => e.effect), group.map((e) => e.variance), dependence.r);
-    return { ...base, n, effect: agg.effect, variance: agg.variance, effects: group };
+    return { ...base, n, effect: combined!.effects[gi], variance: combined!.variances[gi], effects: group };
   });
 }

@@ -4,7 +4,7 @@ import { MODERATOR_LABELS, type SynthesisRequest, type SubgroupVariable } from '
 import { forestFigure, type ForestSummary } from '../plots/forest.js';
 import { funnelFigure } from '../plots/funnel.js';
 import { bubbleFigure } from '../plots/bubble.js';
-import { cumulative, leaveOneOut, metaRegression, pool, trimFill, type PoolResult } from './engine.js';
+import { begg, cumulative, leaveOneOut, metaRegression, normalTwoTailed, pool, subgroups as subgroupAnalysis, tTwoTailed, trimFill, type PoolResult, type SensitivityEntry } from './engine.js';
 import { applyDependence, type StudyUnit } from './dependence.js';
 import { cautionsFor } from './cautions.js';
 import type { PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
@@ -29,6 +29,8 @@ export class NoEffectsError extends Error {
 export const SENSITIVITY_MAX_STUDIES = 1000;
 /** REML and Paule–Mandel refit every subset: beyond this many studies the refits are skipped. */
 const ITERATIVE_REFIT_MAX = 400;
+/** Begg's test is O(k²) in pairs. */
+const BEGG_MAX_STUDIES = 3000;
 
 export const metricLabel = (m: string) => METRIC_LABELS[m as Metric] ?? m;
 
@@ -106,26 +108,21 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   // Subgroups: a separate τ² within each, compared with Q between the subgroup estimates (Borenstein et al. 2009, ch. 19).
   let subgroups: SubgroupComparison | null = null;
   if (sg) {
-    const groups = [...new Set(rows.map((r) => r.subgroup!))];
-    const fitted = groups.map((value) => {
-      const idx = rows.flatMap((r, i) => (r.subgroup === value ? [i] : []));
-      const r = pool({ effects: idx.map((i) => y[i]), variances: idx.map((i) => v[i]), ...opts });
-      return { value, r };
-    });
-    const between = fitted.length > 1 ? pool({ effects: fitted.map((f) => f.r.estimate), variances: fitted.map((f) => f.r.se ** 2), method: 'FE' }) : null;
-    subgroups = {
-      variable: sg,
-      groups: fitted.map(({ value, r }) => ({ value, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
-      Q_between: between?.Q ?? null,
-      df: between?.Q_df ?? null,
-      p: between?.Q_p ?? null,
-    };
+    const sub = attempt('subgroups', () => subgroupAnalysis({ effects: y, variances: v, groups: rows.map((r) => r.subgroup!), ...opts }));
+    if (sub)
+      subgroups = {
+        variable: sg,
+        groups: sub.groups.map((r) => ({ value: r.group, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
+        Q_between: sub.Q_between,
+        df: sub.Q_between_df,
+        p: sub.Q_between_p,
+      };
   }
 
-  const sensitivityRows = (entries: ReturnType<typeof leaveOneOut>, order: number[]): SensitivityRow[] =>
+  const sensitivityRows = (entries: SensitivityEntry[], order: number[]): SensitivityRow[] =>
     entries.map((e, j) => {
       const u = units[order[j]].u;
-      return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.p, tau2: e.tau2, I2: e.I2 };
+      return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.statistic) : tTwoTailed(e.statistic, e.statistic_df), tau2: e.tau2, I2: e.I2 };
     });
   const refitsAllowed = (what: string) => {
     if (k > SENSITIVITY_MAX_STUDIES) {
@@ -151,7 +148,13 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
 
   const tf = k >= 3 ? attempt('trim-and-fill', () => trimFill({ effects: y, variances: v, ...opts })) : null;
   if (k < 3) unavailable.push({ analysis: 'trim-and-fill', reason: 'needs at least 3 studies' });
-  unavailable.push({ analysis: "Begg's test", reason: 'the statistics engine does not provide it yet' });
+  let beggResult: SynthesisOutput['begg'] = null;
+  if (k < 3) unavailable.push({ analysis: "Begg's test", reason: 'needs at least 3 studies' });
+  else if (k > BEGG_MAX_STUDIES) unavailable.push({ analysis: "Begg's test", reason: `compares every pair of studies; not run for more than ${BEGG_MAX_STUDIES} studies (${k} here)` });
+  else {
+    const b = attempt("Begg's test", () => begg({ effects: y, variances: v }));
+    if (b) beggResult = { tau: b.tau, z: b.z, p: b.p };
+  }
 
   let metaReg: SynthesisOutput['metaRegression'] = null;
   const mod = request.moderator;
@@ -219,7 +222,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     subgroups,
     leaveOneOut: leaveOut,
     cumulative: cumulativeRows,
-    begg: null,
+    begg: beggResult,
     trimFill: tf ? { side: tf.side, k0: tf.k0, estimate: tf.estimate, ci_lower: tf.ci_lower, ci_upper: tf.ci_upper, imputed: tf.filled } : null,
     metaRegression: metaReg,
     cautions: cautionsFor(result, k),
