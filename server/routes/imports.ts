@@ -2,7 +2,7 @@ import express, { Router } from 'express';
 import multer from 'multer';
 import path from 'node:path';
 import { z } from 'zod';
-import { IMPORT_FORMATS, importListQuerySchema, importRequestSchema, type ImportFormat } from '../../shared/schemas/references.js';
+import { IMPORT_FORMATS, importEntriesQuerySchema, importListQuerySchema, importRequestSchema, type ImportFormat } from '../../shared/schemas/references.js';
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { ValidationError } from '../lib/errors.js';
@@ -74,7 +74,8 @@ export function importsRouter(ctx: AppContext) {
 
   router.get('/imports/:id', requireRole('contributor'), async (req, res) => {
     const { id } = parseInput(z.object({ id: z.coerce.number().int().positive() }), req.params, 'path');
-    res.json(await getImport(ctx.db, id));
+    const q = parseInput(importEntriesQuerySchema, req.query, 'query');
+    res.json(await getImport(ctx.db, id, q.entryPage ? { page: q.entryPage, pageSize: q.entryPageSize, status: q.entryStatus } : undefined));
   });
 
   return router;

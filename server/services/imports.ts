@@ -270,10 +270,24 @@ function batchView(row: Record<string, any>, counts: ImportBatchView['counts']):
   };
 }
 
-export async function getImport(db: Knex, id: number): Promise<ImportResult> {
+/**
+ * A batch and its entries. Without paging the answer holds every entry (the API contract); the screen asks
+ * for one page of entries at a time, optionally of one status.
+ */
+export async function getImport(
+  db: Knex,
+  id: number,
+  paging?: { page: number; pageSize: number; status?: EntryRow['status'] },
+): Promise<ImportResult & { entriesTotal: number }> {
   const row = await db('import_batches').leftJoin('users', 'users.id', 'import_batches.created_by').where('import_batches.id', id).first('import_batches.*', 'users.login');
   if (!row) throw new NotFoundError(`There is no import batch ${id}.`);
-  const entries: EntryRow[] = await db('import_entries').where({ batch_id: id }).orderBy('idx');
+  const counts = countOf(await db('import_entries').where({ batch_id: id }).select('status'));
+  const filtered = db('import_entries').where({ batch_id: id }).modify((qb) => (paging?.status ? qb.where('status', paging.status) : qb));
+  const [{ n }] = await filtered.clone().count<{ n: number }[]>({ n: '*' });
+  const entries: EntryRow[] = await filtered
+    .clone()
+    .orderBy('idx')
+    .modify((qb) => (paging ? qb.limit(paging.pageSize).offset((paging.page - 1) * paging.pageSize) : qb));
   const view = entries.map((e): ImportEntryView => ({
     index: e.idx,
     status: e.status,
@@ -282,7 +296,7 @@ export async function getImport(db: Knex, id: number): Promise<ImportResult> {
     ...(e.entry_key ? { key: e.entry_key } : {}),
     ...(e.likely_duplicate_of ? { likelyDuplicateOf: e.likely_duplicate_of } : {}),
   }));
-  return { batch: batchView(row, countOf(entries)), entries: view };
+  return { batch: batchView(row, counts), entries: view, entriesTotal: Number(n) };
 }
 
 export async function listImports(db: Knex, q: { page: number; pageSize: number; sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }) {

@@ -41,10 +41,19 @@ export interface ImportBatchView {
 export interface ImportResult {
   batch: ImportBatchView;
   entries: ImportEntryView[];
+  /** How many entries match (all of them, or those of the requested status). */
+  entriesTotal?: number;
 }
 
 export const importListQuerySchema = pagingSchema(['created_at', 'format', 'total'] as const, 'created_at').extend({
   order: z.enum(['asc', 'desc']).default('desc'),
+});
+
+/** Optional paging of a batch's entries (the screen); without it GET /api/imports/:id returns them all. */
+export const importEntriesQuerySchema = z.object({
+  entryPage: z.coerce.number().int().min(1).optional(),
+  entryPageSize: z.coerce.number().int().min(1).max(500).default(100),
+  entryStatus: z.enum(ENTRY_STATUSES).optional(),
 });
 
 export const REFERENCE_SORTS = ['title', 'year', 'first_author', 'container', 'created_at', 'screening_status'] as const;

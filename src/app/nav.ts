@@ -10,6 +10,11 @@ export interface NavItem {
 
 export const NAV_ITEMS: NavItem[] = [
   // feature screens go here
+  { to: '/references', label: 'References' },
+  { to: '/search', label: 'Search' },
+  { to: '/import', label: 'Import', role: 'contributor' },
+  { to: '/screening', label: 'Screening', role: 'contributor' },
+  { to: '/duplicates', label: 'Duplicates', role: 'curator' },
   { to: '/settings/tokens', label: 'API tokens', signedIn: true },
   { to: '/admin/people', label: 'People', role: 'admin' },
   { to: '/admin/audit', label: 'Audit log', role: 'admin' },

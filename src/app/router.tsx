@@ -5,11 +5,25 @@ import { AdminPeoplePage } from './routes/AdminPeoplePage';
 import { HomePage } from './routes/HomePage';
 import { NotFoundPage } from './routes/NotFoundPage';
 import { TokensPage } from './routes/TokensPage';
+import { DuplicatesPage } from './routes/DuplicatesPage';
+import { ImportBatchPage } from './routes/ImportBatchPage';
+import { ImportPage } from './routes/ImportPage';
+import { ReferencePage } from './routes/ReferencePage';
+import { ReferencesPage } from './routes/ReferencesPage';
+import { ScreeningPage } from './routes/ScreeningPage';
+import { SearchPage } from './routes/SearchPage';
 
 /** Every screen; each feature adds its routes to this list. */
 const screens: RouteObject[] = [
   { index: true, element: <HomePage /> },
   { path: 'settings/tokens', element: <TokensPage /> },
+  { path: 'import', element: <ImportPage /> },
+  { path: 'imports/:id', element: <ImportBatchPage /> },
+  { path: 'references', element: <ReferencesPage /> },
+  { path: 'references/:id', element: <ReferencePage /> },
+  { path: 'screening', element: <ScreeningPage /> },
+  { path: 'duplicates', element: <DuplicatesPage /> },
+  { path: 'search', element: <SearchPage /> },
   { path: 'admin/people', element: <AdminPeoplePage /> },
   { path: 'admin/audit', element: <AdminAuditPage /> },
 ];

@@ -1,0 +1,30 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ImportFormat, ImportResult } from '../../../../shared/schemas/references';
+import { api } from '../../../lib/api-client';
+import { importsKeys } from './keys';
+
+export type ImportInput = { format: ImportFormat; text: string; label?: string } | { format?: ImportFormat; file: File };
+
+export const createImport = (input: ImportInput) => {
+  if ('file' in input) {
+    const form = new FormData();
+    if (input.format) form.append('format', input.format);
+    form.append('file', input.file);
+    return api<ImportResult>('/api/imports', { body: form });
+  }
+  return api<ImportResult>('/api/imports', { body: input });
+};
+
+export function useCreateImport() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: createImport,
+    onSuccess: (data) => {
+      qc.setQueryData(importsKeys.detail(data.batch.id), data);
+      // New references and queue entries appear elsewhere too.
+      void qc.invalidateQueries({ queryKey: importsKeys.lists() });
+      void qc.invalidateQueries({ queryKey: ['references'] });
+      void qc.invalidateQueries({ queryKey: ['screening'] });
+    },
+  });
+}

@@ -1,0 +1,19 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { ImportBatchView } from '../../../../shared/schemas/references';
+import { api, queryString } from '../../../lib/api-client';
+import { importsKeys } from './keys';
+
+export interface ImportsQuery {
+  page: number;
+  pageSize: number;
+  sort?: 'created_at' | 'format' | 'total';
+  order?: 'asc' | 'desc';
+}
+
+export const getImports = (q: ImportsQuery) => api<{ items: ImportBatchView[]; total: number; page: number; pageSize: number }>(`/api/imports${queryString({ ...q })}`);
+
+export const importsQueryOptions = (q: ImportsQuery) => queryOptions({ queryKey: importsKeys.list(q), queryFn: () => getImports(q), placeholderData: keepPreviousData });
+
+export function useImports(q: ImportsQuery) {
+  return useQuery(importsQueryOptions(q));
+}

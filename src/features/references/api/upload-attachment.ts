@@ -1,0 +1,16 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { api } from '../../../lib/api-client';
+import { referencesKeys } from './keys';
+
+export const uploadAttachment = ({ id, file }: { id: number; file: File }) => {
+  const form = new FormData();
+  form.append('file', file);
+  return api<{ id: number; filename: string }>(`/api/references/${id}/attachments`, { body: form });
+};
+
+export function useUploadAttachment() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: uploadAttachment, onSuccess: (_d, v) => qc.invalidateQueries({ queryKey: referencesKeys.detail(v.id) }) });
+}
+
+export const attachmentHref = (refId: number, attachmentId: number) => `/api/references/${refId}/attachments/${attachmentId}`;
