@@ -83,17 +83,17 @@ export interface ComputedEffect {
 
 /**
  * Computes the effect size and its variance from what the paper reported, with the engine in shared/stats.
- * A missing r for a within-subject form is replaced by `assumedR` and returned as such.
+ * A missing r for a within-subject form is replaced by `assumedR` (default DEFAULT_ASSUMED_R) and returned as such.
  * Throws StatsInputError (with the field name) when the values cannot give an effect.
  */
-export function computeReported(form: ReportForm, reported: Reported, assumedR: number | null = DEFAULT_ASSUMED_R): ComputedEffect {
+export function computeReported(form: ReportForm, reported: Reported, assumedR?: number | null): ComputedEffect {
   const values: Reported = {};
   for (const key of REPORT_FIELDS[form]) if (reported[key] !== undefined && reported[key] !== null) values[key] = reported[key];
   let usedAssumed: number | null = null;
   if (NEEDS_R[form]?.(values) && values.r === undefined) {
-    if (assumedR === null || assumedR === undefined) throw new StatsInputError('r: give the reported correlation or an assumed one', 'r');
-    values.r = assumedR;
-    usedAssumed = assumedR;
+    const r = assumedR ?? DEFAULT_ASSUMED_R;
+    values.r = r;
+    usedAssumed = r;
   }
   let out: { effect: number; variance: number; formula: string };
   if (form === 'raw_mean') out = rawMean(values.mean as number, values.sd as number, values.n as number);
@@ -120,7 +120,7 @@ export interface ComputeAttempt {
 }
 
 /** computeReported without throwing, for the live sheet. */
-export function tryComputeReported(form: ReportForm, reported: Reported, assumedR: number | null): ComputeAttempt {
+export function tryComputeReported(form: ReportForm, reported: Reported, assumedR?: number | null): ComputeAttempt {
   try {
     return { ok: true, result: computeReported(form, reported, assumedR) };
   } catch (e) {
