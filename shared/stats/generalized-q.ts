@@ -40,7 +40,8 @@ export function generalizedQ(
  * monotonically, so the root is unique; 0 when Q(0) ≤ target. Newton steps on 1/Q(τ²), which is
  * close to linear in τ², kept inside a bracket (bisection otherwise), until the step is below 1e-15
  * relative (or a
- * Newton step below 1e-9 relative, after which the error is at the rounding level).
+ * Newton step below 1e-9 relative, after which the error is at the rounding level). `evaluate` may
+ * replace the pass over the data (e.g. by the power series of random-effects-moments.ts).
  */
 export function solveGeneralizedQ(
   y: Float64Array,
@@ -49,6 +50,7 @@ export function solveGeneralizedQ(
   start: number,
   shift: number,
   q0?: number,
+  evaluate: (tau2: number) => { Q: number; T: number } = (t) => generalizedQ(y, v, t, shift),
 ): number {
   const atZero = q0 ?? generalizedQ(y, v, 0, shift).Q;
   if (!(atZero > target)) return 0;
@@ -56,7 +58,7 @@ export function solveGeneralizedQ(
   let hi = Infinity;
   let x = start > 0 && Number.isFinite(start) ? start : 0;
   for (let iter = 0; iter < 300; iter++) {
-    const { Q, T } = generalizedQ(y, v, x, shift);
+    const { Q, T } = evaluate(x);
     if (Q === target) return x;
     if (Q > target) lo = x;
     else hi = x;

@@ -2,7 +2,8 @@ import type { PoolOptions, PoolResult, PreparedData } from './types.js';
 import { dlTau2 } from './dl-tau2.js';
 import { remlTau2 } from './reml-tau2.js';
 import { generalizedQ, solveGeneralizedQ } from './generalized-q.js';
-import { eggerCore } from './egger-core.js';
+import { eggerFromSums } from './egger-core.js';
+import { randomEffectsMoments, seriesQ } from './random-effects-moments.js';
 import { chiSquareQuantile, chiSquareUpperTail } from './chi-square.js';
 import { normalQuantileUpper, normalTwoTailed } from './normal.js';
 import { tQuantileUpper, tTwoTailed } from './student-t.js';
@@ -37,49 +38,41 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
     };
   }
 
-  const fe = dlTau2(y, v);
+  const fe = dlTau2(y, v, !extras.lean);
   const df = k - 1;
   let tau2 = 0;
   if (method === 'DL') tau2 = fe.tau2;
   else if (method === 'PM') tau2 = solveGeneralizedQ(y, v, df, fe.tau2, fe.feMean, fe.Q);
   else if (method === 'REML') tau2 = remlTau2(y, v, fe.feMean);
 
-  // pooled estimate with weights 1/(v + τ²)
+  // pooled estimate with weights 1/(v + τ²); the random-effects pass also keeps the power-series moments
+  // that give the generalized Q near τ̂² (HKSJ numerator, Q-profile bounds) without further passes
   let sumW: number;
   let mean: number;
-  const wArr = extras.noWeights ? null : new Float64Array(k);
-  if (method === 'FE') {
+  let hksjNumerator = 0;
+  // raw weights go straight into the returned array and are scaled to percent at the end
+  const wArr: number[] | null = extras.noWeights ? null : new Array<number>(k).fill(0);
+  const isRandom = method !== 'FE';
+  let moments: ReturnType<typeof randomEffectsMoments> | null = null;
+  if (!isRandom) {
     sumW = fe.sumW;
     mean = fe.feMean;
+    hksjNumerator = fe.Q;
     if (wArr) for (let i = 0; i < k; i++) wArr[i] = 1 / v[i];
   } else {
-    let s0 = 0;
-    let s1 = 0;
-    let comp = 0;
-    const shift = fe.feMean;
-    for (let i = 0; i < k; i++) {
-      const w = 1 / (v[i] + tau2);
-      if (wArr) wArr[i] = w;
-      s0 += w;
-      const x = w * (y[i] - shift);
-      const t = s1 + x;
-      comp += Math.abs(s1) >= Math.abs(x) ? s1 - t + x : x - t + s1;
-      s1 = t;
-    }
-    sumW = s0;
-    mean = shift + (s1 + comp) / s0;
+    moments = randomEffectsMoments(y, v, tau2, fe.feMean, 1 / (fe.vmin + tau2), wArr);
+    const at = seriesQ(moments, tau2)!;
+    sumW = at.sumW;
+    mean = at.mean;
+    hksjNumerator = at.Q;
   }
+  const evaluate = (t: number) => (moments && seriesQ(moments, t)) || generalizedQ(y, v, t, fe.feMean);
 
   let se = Math.sqrt(1 / sumW);
   let crit = zCrit;
   let statisticDf: number | null = null;
   if (hksj) {
-    let s = 0;
-    for (let i = 0; i < k; i++) {
-      const d = y[i] - mean;
-      s += (d * d) / (v[i] + tau2);
-    }
-    se = Math.sqrt(s / (df * sumW));
+    se = Math.sqrt(hksjNumerator / (df * sumW));
     statisticDf = df;
     crit = tQuantileUpper(alpha / 2, df);
   }
@@ -89,7 +82,6 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
   const Q = fe.Q;
   const I2 = Q > 0 ? 100 * Math.max(0, (Q - df) / Q) : 0;
   const H2 = Q / df;
-  const isRandom = method !== 'FE';
 
   let tau2Lower: number | null = null;
   let tau2Upper: number | null = null;
@@ -97,8 +89,8 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
     // Q-profile interval (Viechtbauer 2007): the τ² where the generalized Q meets the χ²(k−1) quantiles
     const qHi = chiSquareQuantile(alpha / 2, df, true);
     const qLo = chiSquareQuantile(alpha / 2, df, false);
-    tau2Lower = solveGeneralizedQ(y, v, qHi, tau2, fe.feMean, Q);
-    tau2Upper = solveGeneralizedQ(y, v, qLo, Math.max(tau2, tau2Lower), fe.feMean, Q);
+    tau2Lower = solveGeneralizedQ(y, v, qHi, tau2, fe.feMean, Q, evaluate);
+    tau2Upper = solveGeneralizedQ(y, v, qLo, Math.max(tau2, tau2Lower), fe.feMean, Q, evaluate);
   }
 
   let I2tau: number | null = null;
@@ -116,10 +108,10 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
     piUpper = mean + half;
   }
 
-  const weights: number[] = [];
+  const weights: number[] = wArr ?? [];
   if (wArr) {
     const scale = 100 / sumW;
-    for (let i = 0; i < k; i++) weights.push(wArr[i] * scale);
+    for (let i = 0; i < k; i++) wArr[i] *= scale;
   }
 
   return {
@@ -131,7 +123,7 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
     tau2_ci_lower: tau2Lower, tau2_ci_upper: tau2Upper,
     Q, Q_df: df, Q_p: chiSquareUpperTail(Q, df), I2, I2_tau: I2tau, H2,
     pi_lower: piLower, pi_upper: piUpper,
-    egger: extras.lean ? null : eggerCore(y, v, fe.feMean, fe.sumW),
+    egger: fe.egger ? eggerFromSums(fe.egger, k) : null,
     weights,
   };
 }

@@ -9,12 +9,11 @@ export interface SensitivityEntry {
   se: number;
   ci_lower: number;
   ci_upper: number;
-  statistic: number;
-  /** null for z; the p-value is normalTwoTailed(statistic) or tTwoTailed(statistic, statistic_df) (left out to keep k refits O(k)) */
+  /** null for z intervals, else the t df (HKSJ); the test statistic is estimate/se and its p-value
+   * normalTwoTailed or tTwoTailed of it (left out, with H² = Q/(k − 1), to keep k refits cheap) */
   statistic_df: number | null;
   tau2: number | null;
   I2: number | null;
-  H2: number | null;
   Q: number | null;
 }
 
@@ -29,7 +28,6 @@ export function makeEntry(
   tau2: number,
   Q: number,
 ): SensitivityEntry {
-  const statistic = estimate / se;
   const df = k - 1;
   const hetero = k > 1;
   return {
@@ -39,11 +37,9 @@ export function makeEntry(
     se,
     ci_lower: estimate - crit * se,
     ci_upper: estimate + crit * se,
-    statistic,
     statistic_df: statisticDf,
     tau2: method === 'FE' || !hetero ? null : tau2,
     I2: hetero ? (Q > 0 ? 100 * Math.max(0, (Q - df) / Q) : 0) : null,
-    H2: hetero ? Q / df : null,
     Q: hetero ? Q : null,
   };
 }
