@@ -122,7 +122,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   const sensitivityRows = (entries: SensitivityEntry[], order: number[]): SensitivityRow[] =>
     entries.map((e, j) => {
       const u = units[order[j]].u;
-      return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.statistic) : tTwoTailed(e.statistic, e.statistic_df), tau2: e.tau2, I2: e.I2 };
+      return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.estimate / e.se) : tTwoTailed(e.estimate / e.se, e.statistic_df), tau2: e.tau2, I2: e.I2 };
     });
   const refitsAllowed = (what: string) => {
     if (k > SENSITIVITY_MAX_STUDIES) {

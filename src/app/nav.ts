@@ -10,6 +10,9 @@ export interface NavItem {
 
 export const NAV_ITEMS: NavItem[] = [
   // feature screens go here
+  { to: '/atlas', label: 'Atlas' },
+  { to: '/synthesis', label: 'Synthesis' },
+  { to: '/snapshots', label: 'Snapshots' },
   { to: '/references', label: 'References' },
   { to: '/search', label: 'Search' },
   { to: '/import', label: 'Import', role: 'contributor' },

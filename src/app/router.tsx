@@ -5,6 +5,12 @@ import { AdminPeoplePage } from './routes/AdminPeoplePage';
 import { HomePage } from './routes/HomePage';
 import { NotFoundPage } from './routes/NotFoundPage';
 import { TokensPage } from './routes/TokensPage';
+import { SynthesisPage } from './routes/SynthesisPage';
+import { SnapshotPage } from './routes/SnapshotPage';
+import { SnapshotsPage } from './routes/SnapshotsPage';
+import { AtlasPage } from './routes/AtlasPage';
+import { AtlasManipulationPage } from './routes/AtlasManipulationPage';
+import { AtlasOutcomePage } from './routes/AtlasOutcomePage';
 import { DuplicatesPage } from './routes/DuplicatesPage';
 import { ImportBatchPage } from './routes/ImportBatchPage';
 import { ImportPage } from './routes/ImportPage';
@@ -17,6 +23,12 @@ import { SearchPage } from './routes/SearchPage';
 const screens: RouteObject[] = [
   { index: true, element: <HomePage /> },
   { path: 'settings/tokens', element: <TokensPage /> },
+  { path: 'synthesis', element: <SynthesisPage /> },
+  { path: 'snapshots', element: <SnapshotsPage /> },
+  { path: 'snapshots/:id', element: <SnapshotPage /> },
+  { path: 'atlas', element: <AtlasPage /> },
+  { path: 'atlas/manipulations/:term', element: <AtlasManipulationPage /> },
+  { path: 'atlas/outcomes/:kind', element: <AtlasOutcomePage /> },
   { path: 'import', element: <ImportPage /> },
   { path: 'imports/:id', element: <ImportBatchPage /> },
   { path: 'references', element: <ReferencesPage /> },

@@ -1,0 +1,147 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router-dom';
+import { METHOD_LABELS, ONE_PER_STUDY_LABELS } from '../../../shared/schemas/synthesis';
+import { ApiRequestError } from '../../lib/api-client';
+import { Button } from '../../components/ui/Button';
+import { ErrorNote, Loading } from '../../components/ui/Notice';
+import { useSnapshot } from '../../features/snapshots/api/get-snapshot';
+import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
+import { paramsFromForm, formFromParams } from '../../features/synthesis/url-state';
+import { valueLabel } from '../../features/synthesis/labels';
+import { PlotFigure } from '../../features/plots/components/PlotFigure';
+
+function filterText(filters: Record<string, unknown>): string {
+  const parts = Object.entries(filters).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
+  return parts.length ? parts.join('; ') : 'all settled effects';
+}
+
+/** Re-open the frozen request as a live synthesis (today's registry). */
+function liveLink(request: Record<string, any>): string {
+  const p = new URLSearchParams();
+  const f = request.filters ?? {};
+  for (const m of ([] as string[]).concat(f.manipulation ?? [])) p.append('manipulation', m);
+  for (const k of ['outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo']) if (f[k] !== undefined) p.set(k, String(f[k]));
+  p.set('method', request.method);
+  if (request.hksj) p.set('hksj', '1');
+  p.set('level', String(request.level));
+  p.set('dependence', request.dependence.mode);
+  if (request.dependence.mode === 'aggregate') p.set('r', String(request.dependence.r));
+  else p.set('rule', request.dependence.rule);
+  if (request.subgroup) p.set('subgroup', request.subgroup);
+  if (request.moderator) p.set('moderator', request.moderator);
+  return `/synthesis?${paramsFromForm(formFromParams(p)).toString()}`;
+}
+
+export function SnapshotPage() {
+  const { id = '' } = useParams();
+  const { data: s, isLoading, error } = useSnapshot(id);
+  const [copied, setCopied] = useState(false);
+  if (isLoading) return <Loading what="Opening the snapshot" />;
+  if (error)
+    return (
+      <div>
+        <h1>Snapshot</h1>
+        <ErrorNote error={error instanceof ApiRequestError && error.status === 404 ? `There is no snapshot ${id}. Check the address, or browse the snapshot list.` : error} />
+        <Link to="/snapshots">All snapshots</Link>
+      </div>
+    );
+  if (!s) return null;
+  const q = s.request;
+  const api = `/api/snapshots/${s.id}`;
+  const copy = async () => {
+    await navigator.clipboard?.writeText(s.methods).catch(() => undefined);
+    setCopied(true);
+  };
+  return (
+    <article>
+      <p className="text-xs uppercase tracking-wide text-ink-faint">Snapshot · frozen, never changes</p>
+      <h1>{s.title}</h1>
+      <dl className="grid max-w-4xl grid-cols-[12rem_1fr] gap-x-3 gap-y-1 text-sm">
+        <dt className="text-ink-soft">Stable address</dt>
+        <dd>
+          <a href={s.url}>{s.url}</a>
+        </dd>
+        <dt className="text-ink-soft">Saved</dt>
+        <dd>
+          {new Date(s.createdAt).toISOString().replace('T', ' ').slice(0, 16)} UTC{s.createdBy ? ` by ${s.createdBy.name ?? s.createdBy.login}` : ''}
+        </dd>
+        <dt className="text-ink-soft">Registry version</dt>
+        <dd className="tabular-nums">{s.registryVersion}</dd>
+        <dt className="text-ink-soft">Filters</dt>
+        <dd>{filterText(q.filters)}</dd>
+        <dt className="text-ink-soft">Options</dt>
+        <dd>
+          {METHOD_LABELS[q.method]}
+          {q.hksj ? ' with HKSJ' : ''}, {Math.round(q.level * 1000) / 10}% intervals;{' '}
+          {q.dependence.mode === 'aggregate' ? `effects within a study combined with r = ${q.dependence.r.toFixed(2)}` : `one effect per study: ${ONE_PER_STUDY_LABELS[q.dependence.rule]}`}
+          {q.subgroup ? `; subgroups by ${q.subgroup}` : ''}
+          {q.moderator ? `; meta-regression on ${q.moderator}` : ''}
+        </dd>
+        <dt className="text-ink-soft">Software</dt>
+        <dd>{s.software}</dd>
+      </dl>
+
+      <h2>Exports</h2>
+      <ul className="flex flex-wrap gap-x-5 gap-y-1 text-sm" aria-label="Exports">
+        <li>
+          <a href={`${api}/export.csv`} download>
+            ↓ CSV, one row per study pooled
+          </a>
+        </li>
+        <li>
+          <a href={`${api}/effects.csv`} download>
+            ↓ CSV, every effect as coded
+          </a>
+        </li>
+        <li>
+          <a href={`${api}/export.json`} download>
+            ↓ JSON
+          </a>
+        </li>
+        <li>
+          <a href={`${api}/references.bib`} download>
+            ↓ BibTeX ({s.references.length} references)
+          </a>
+        </li>
+        <li>
+          <a href={`${api}/methods.txt`} download>
+            ↓ Methods paragraph
+          </a>
+        </li>
+        <li>
+          <Link to={liveLink(q)}>Re-run on today’s registry →</Link>
+        </li>
+      </ul>
+      <p className="mt-1 text-xs text-ink-faint">
+        The first CSV has the effect and variance of each pooled unit (a study's effects already combined): pooling its two columns with the same estimator gives
+        these numbers. The second keeps every settled effect with its study id, for your own dependence handling.
+      </p>
+
+      <h2>Methods</h2>
+      <p className="reading max-w-4xl text-sm leading-relaxed">{s.methods}</p>
+      <Button onClick={() => void copy()}>{copied ? '✓ Copied' : 'Copy the methods paragraph'}</Button>
+
+      {s.prisma && (
+        <>
+          <h2>Study flow (PRISMA 2020)</h2>
+          <table className="max-w-xl">
+            <caption className="sr-only">PRISMA counts</caption>
+            <tbody>
+              <tr><td>Records identified in the registry</td><td className="num">{s.prisma.identified}</td></tr>
+              <tr><td>Duplicates removed</td><td className="num">{s.prisma.duplicatesRemoved}</td></tr>
+              <tr><td>Records screened</td><td className="num">{s.prisma.screened}</td></tr>
+              <tr><td>Excluded</td><td className="num">{s.prisma.excluded}</td></tr>
+              {(s.prisma.excludedReasons ?? []).map((r) => (
+                <tr key={r.reason}><td className="pl-6 text-ink-soft">{r.reason}</td><td className="num">{r.count}</td></tr>
+              ))}
+              <tr><td>Included in the registry</td><td className="num">{s.prisma.included}</td></tr>
+              <tr><td><strong>In this synthesis</strong> (references / studies / effects)</td><td className="num"><strong>{s.counts.references} / {s.counts.studies} / {s.counts.effects}</strong></td></tr>
+            </tbody>
+          </table>
+        </>
+      )}
+
+      <SynthesisResults data={s} Figure={PlotFigure} fileStem={`chronometa-snapshot-${s.id}`} />
+    </article>
+  );
+}

@@ -1,0 +1,23 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { api, queryString } from '../../../lib/api-client';
+import { atlasKeys, type ReferencesQuery } from './keys';
+
+export interface AtlasReference {
+  id: number;
+  label: string;
+  title: string;
+  year: number | null;
+  doi: string | null;
+  studies: number;
+  effects: number;
+}
+
+export const getAtlasReferences = (scope: 'manipulations' | 'outcomes', slug: string, q: ReferencesQuery) =>
+  api<{ items: AtlasReference[]; total: number; page: number; pageSize: number }>(`/api/atlas/${scope}/${encodeURIComponent(slug)}/references${queryString({ ...q })}`);
+
+export const atlasReferencesQueryOptions = (scope: 'manipulations' | 'outcomes', slug: string, q: ReferencesQuery) =>
+  queryOptions({ queryKey: atlasKeys.references(scope, slug, q), queryFn: () => getAtlasReferences(scope, slug, q), placeholderData: keepPreviousData });
+
+export function useAtlasReferences(scope: 'manipulations' | 'outcomes', slug: string, q: ReferencesQuery) {
+  return useQuery(atlasReferencesQueryOptions(scope, slug, q));
+}

@@ -1,0 +1,42 @@
+import { Link } from 'react-router-dom';
+import { Caution } from '../../../components/ui/Notice';
+import type { PooledCell } from '../api/types';
+
+const digits = (metric: string) => (metric === 'raw_mean' || metric === 'mean_diff' ? 1 : 3);
+const f = (x: number | null, d: number) => (x == null || !Number.isFinite(x) ? '—' : x.toFixed(d));
+
+export function synthesisHref(filters: Record<string, string>) {
+  const p = new URLSearchParams(filters);
+  p.set('method', 'DL');
+  p.set('dependence', 'aggregate');
+  p.set('r', '0.5');
+  return `/synthesis?${p.toString()}`;
+}
+
+/** The current pooled estimate of one cell, with its cautions and a link to open it as a synthesis. */
+export function PooledCellSummary({ cell, heading }: { cell: PooledCell; heading: string }) {
+  const d = digits(cell.metric);
+  const p = cell.pooled;
+  const lvl = `${Math.round(p.level * 100)}%`;
+  return (
+    <div className="rounded border-l-4 border-caution bg-caution-light/60 p-3">
+      <h3 className="mb-1 text-base font-bold">{heading}</h3>
+      <p className="text-sm text-ink-soft">
+        {cell.metricLabel} · DerSimonian–Laird, effects within a study combined with r = 0.50 · {cell.counts.studies} studies ({cell.counts.effects} effects,{' '}
+        {cell.counts.references} references)
+      </p>
+      <p className="my-1 text-xl tabular-nums">
+        ◆ <strong>{f(p.estimate, d)}</strong> <span className="text-sm">{lvl} CI [{f(p.ci_lower, d)}, {f(p.ci_upper, d)}]</span>
+      </p>
+      <p className="text-sm tabular-nums">
+        Prediction interval {p.pi_lower == null ? '—' : `[${f(p.pi_lower, d)}, ${f(p.pi_upper, d)}]`} · τ² {f(p.tau2, 4)} · I² {p.I2 == null ? '—' : `${f(p.I2, 1)}%`}
+      </p>
+      {cell.cautions.map((c) => (
+        <Caution key={c.code}>{c.text}</Caution>
+      ))}
+      <Link to={synthesisHref(cell.filters)} className="text-sm">
+        Open as a synthesis →
+      </Link>
+    </div>
+  );
+}

@@ -1,0 +1,216 @@
+import { useState, type ComponentType } from 'react';
+import { METHOD_LABELS, MODERATOR_LABELS } from '../../../../shared/schemas/synthesis';
+import { dependenceSentence } from '../../../../shared/synthesis/methods';
+import type { PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
+import { Caution } from '../../../components/ui/Notice';
+import { digitsFor, fp, fx, valueLabel } from '../labels';
+import { ResultTable, type Column } from './ResultTable';
+
+export type FigureComponent = ComponentType<{ figure: PlotFigure; name: string; label: string; show?: Record<string, boolean> }>;
+
+function Stat({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <tr>
+      <th scope="row" className="w-1/2 bg-transparent font-normal text-ink-soft">
+        {label}
+      </th>
+      <td className="num">{children}</td>
+    </tr>
+  );
+}
+
+/** Every number of a synthesis (live or frozen) with its cautions beside it, the figures and the tables. */
+export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOutput; Figure: FigureComponent; fileStem: string }) {
+  const [showFill, setShowFill] = useState(false);
+  const r = data.result;
+  const d = digitsFor(data.metric);
+  const lvl = `${Math.round(r.level * 1000) / 10}%`;
+  const metricName = valueLabel('metric', data.metric);
+  const interval = (lo: number | null, hi: number | null) => (lo == null || hi == null ? '—' : `[${fx(lo, d)}, ${fx(hi, d)}]`);
+  const stat = r.statistic_df == null ? `z = ${fx(r.statistic, 2)}` : `t(${r.statistic_df}) = ${fx(r.statistic, 2)}`;
+
+  const studyCols: Column<PooledRow>[] = [
+    { key: 'label', label: 'Study', value: (x) => x.label },
+    { key: 'year', label: 'Year', numeric: true, value: (x) => x.year },
+    { key: 'n', label: 'n', numeric: true, value: (x) => x.n },
+    { key: 'effect', label: `${metricName} (${d} dp)`, numeric: true, value: (x) => x.effect, render: (x) => fx(x.effect, d) },
+    { key: 'se', label: 'SE', numeric: true, value: (x) => Math.sqrt(x.variance), render: (x) => fx(Math.sqrt(x.variance), d) },
+    { key: 'weight', label: 'Weight %', numeric: true, value: (x) => x.weight, render: (x) => fx(x.weight, 1) },
+    { key: 'effects', label: 'Effects', numeric: true, value: (x) => x.effectIds.length },
+    ...(data.request.subgroup ? [{ key: 'subgroup', label: 'Subgroup', value: (x: PooledRow) => x.subgroup ?? '' }] : []),
+    ...(data.request.moderator ? [{ key: 'moderator', label: MODERATOR_LABELS[data.request.moderator], numeric: true, value: (x: PooledRow) => x.moderator ?? null, render: (x: PooledRow) => fx(x.moderator, 0) }] : []),
+  ];
+  const sensCols = (first: string): Column<SensitivityRow>[] => [
+    { key: 'label', label: first, value: (x) => x.label },
+    { key: 'year', label: 'Year', numeric: true, value: (x) => x.year },
+    { key: 'k', label: 'k', numeric: true, value: (x) => x.k },
+    { key: 'estimate', label: 'Estimate', numeric: true, value: (x) => x.estimate, render: (x) => fx(x.estimate, d) },
+    { key: 'ci', label: `${lvl} CI`, numeric: true, value: (x) => x.ci_lower, render: (x) => interval(x.ci_lower, x.ci_upper) },
+    { key: 'p', label: 'p', numeric: true, value: (x) => x.p, render: (x) => fp(x.p) },
+    { key: 'tau2', label: 'τ²', numeric: true, value: (x) => x.tau2, render: (x) => fx(x.tau2, 4) },
+    { key: 'I2', label: 'I² %', numeric: true, value: (x) => x.I2, render: (x) => fx(x.I2, 1) },
+  ];
+
+  return (
+    <section aria-label="Synthesis results" className="mt-4">
+      <div className="grid gap-4 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <div className="rounded border-l-4 border-caution bg-caution-light/60 p-3">
+          <h2 className="mt-0">Pooled estimate</h2>
+          <p className="mb-2 text-sm">
+            <span className="font-semibold">◆ {metricName}</span> · {METHOD_LABELS[r.method]}
+            {r.hksj ? ' with HKSJ' : ''} · {data.counts.studies} studies ({data.counts.effects} effects, {data.counts.references} references)
+          </p>
+          <p className="mb-2 text-2xl tabular-nums" data-testid="pooled-estimate">
+            <strong>{fx(r.estimate, d)}</strong> <span className="text-base">{lvl} CI {interval(r.ci_lower, r.ci_upper)}</span>
+          </p>
+          <table className="text-sm">
+            <caption className="sr-only">Pooled estimate and heterogeneity</caption>
+            <tbody>
+              <Stat label="Prediction interval">{interval(r.pi_lower, r.pi_upper)}</Stat>
+              <Stat label="Test of the pooled effect">
+                {stat}, p = {fp(r.p)}
+              </Stat>
+              <Stat label="τ² (Q-profile CI)">
+                {fx(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fx(r.tau2_ci_lower, 4)}, ${fx(r.tau2_ci_upper, 4)}]` : ''}
+              </Stat>
+              <Stat label="τ">{fx(r.tau, 4)}</Stat>
+              <Stat label="I²">{r.I2 == null ? '—' : `${fx(r.I2, 1)}%`}</Stat>
+              <Stat label="H²">{fx(r.H2, 2)}</Stat>
+              <Stat label="Q (df), p">
+                {r.Q == null ? '—' : `${fx(r.Q, 2)} (${r.Q_df}), p = ${fp(r.Q_p)}`}
+              </Stat>
+            </tbody>
+          </table>
+          <p className="mt-2 text-xs text-ink-soft">{dependenceSentence(data.dependence)}</p>
+        </div>
+        <aside aria-label="Cautions">
+          {data.cautions.map((c) => (
+            <Caution key={c.code} title={c.code === 'not_clinical' ? 'Not clinical guidance' : 'Caution'}>
+              {c.text}
+            </Caution>
+          ))}
+        </aside>
+      </div>
+
+      <h2>Forest plot</h2>
+      <Figure figure={data.figures.forest} name={`${fileStem}-forest`} label="Forest plot" />
+
+      {data.figures.funnel && (
+        <>
+          <h2>Funnel plot</h2>
+          <label className="flex items-center gap-1.5 text-sm">
+            <input type="checkbox" checked={showFill} onChange={(e) => setShowFill(e.target.checked)} disabled={!data.trimFill} />
+            Show the studies trim-and-fill imputes {data.trimFill ? `(${data.trimFill.k0})` : '(not available)'}
+          </label>
+          <Figure figure={data.figures.funnel} name={`${fileStem}-funnel`} label="Funnel plot" show={{ trimfill: showFill }} />
+        </>
+      )}
+
+      <h2>Small-study effects</h2>
+      <table className="max-w-3xl">
+        <caption className="caption-top pb-1 text-left text-sm text-ink-soft">Asymmetry tests and trim-and-fill (estimates to {d} decimals, p to 3)</caption>
+        <thead>
+          <tr>
+            <th>Test</th>
+            <th className="num">Statistic</th>
+            <th className="num">p</th>
+            <th>Reading</th>
+          </tr>
+        </thead>
+        <tbody>
+          <tr>
+            <td>Egger's regression</td>
+            <td className="num">{r.egger ? `intercept ${fx(r.egger.intercept, 3)} (SE ${fx(r.egger.se, 3)}), t = ${fx(r.egger.t, 2)}` : '—'}</td>
+            <td className="num">{fp(r.egger?.p)}</td>
+            <td>{r.egger ? (r.egger.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : 'needs at least 3 studies'}</td>
+          </tr>
+          <tr>
+            <td>Begg's rank correlation</td>
+            <td className="num">{data.begg ? `Kendall's τ ${fx(data.begg.tau, 3)}, z = ${fx(data.begg.z, 2)}` : '—'}</td>
+            <td className="num">{fp(data.begg?.p)}</td>
+            <td>{data.begg ? (data.begg.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : (data.unavailable.find((u) => u.analysis === "Begg's test")?.reason ?? '—')}</td>
+          </tr>
+          <tr>
+            <td>Trim-and-fill</td>
+            <td className="num">{data.trimFill ? `${data.trimFill.k0} imputed (${data.trimFill.side}); adjusted ${fx(data.trimFill.estimate, d)} ${interval(data.trimFill.ci_lower, data.trimFill.ci_upper)}` : '—'}</td>
+            <td className="num">—</td>
+            <td>{data.trimFill ? (data.trimFill.k0 ? 'the adjusted value assumes the gap is publication bias' : 'no studies imputed') : (data.unavailable.find((u) => u.analysis === 'trim-and-fill')?.reason ?? '—')}</td>
+          </tr>
+        </tbody>
+      </table>
+
+      {data.subgroups && (
+        <>
+          <h2>Subgroups by {data.subgroups.variable}</h2>
+          <table className="max-w-3xl">
+            <caption className="caption-top pb-1 text-left text-sm text-ink-soft">
+              Q between subgroups = {fx(data.subgroups.Q_between, 2)} on {data.subgroups.df ?? '—'} df, p = {fp(data.subgroups.p)} (separate τ² in each)
+            </caption>
+            <thead>
+              <tr>
+                <th>Subgroup</th>
+                <th className="num">k</th>
+                <th className="num">Estimate</th>
+                <th className="num">{lvl} CI</th>
+                <th className="num">τ²</th>
+                <th className="num">I² %</th>
+              </tr>
+            </thead>
+            <tbody>
+              {data.subgroups.groups.map((g) => (
+                <tr key={g.value}>
+                  <td>{valueLabel(data.subgroups!.variable, g.value)}</td>
+                  <td className="num">{g.k}</td>
+                  <td className="num">{fx(g.estimate, d)}</td>
+                  <td className="num">{interval(g.ci_lower, g.ci_upper)}</td>
+                  <td className="num">{fx(g.tau2, 4)}</td>
+                  <td className="num">{fx(g.I2, 1)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </>
+      )}
+
+      {data.metaRegression && (
+        <>
+          <h2>Meta-regression on {MODERATOR_LABELS[data.metaRegression.moderator].toLowerCase()}</h2>
+          <p className="text-sm tabular-nums">
+            Slope {data.metaRegression.slope.toPrecision(3)} per unit [{data.metaRegression.slope_ci_lower.toPrecision(3)}, {data.metaRegression.slope_ci_upper.toPrecision(3)}], p = {fp(data.metaRegression.slope_p)}; residual τ² {fx(data.metaRegression.tau2, 4)}; R² {data.metaRegression.R2 == null ? '—' : `${fx(data.metaRegression.R2 * 100, 1)}%`}; k = {data.metaRegression.k}
+            {data.metaRegression.missing ? ` (${data.metaRegression.missing} studies without a value left out)` : ''}.
+          </p>
+          {data.figures.bubble && <Figure figure={data.figures.bubble} name={`${fileStem}-bubble`} label="Bubble plot" />}
+        </>
+      )}
+
+      <h2>Studies pooled</h2>
+      <ResultTable caption={`One row per study after combining its effects; ${data.rows.length} in all`} columns={studyCols} rows={data.rows} rowKey={(x) => x.studyId} />
+
+      {data.leaveOneOut && (
+        <>
+          <h2>Leave-one-out</h2>
+          <ResultTable caption="The analysis refitted without each study in turn" columns={sensCols('Study left out')} rows={data.leaveOneOut} rowKey={(x) => x.studyId} />
+        </>
+      )}
+      {data.cumulative && (
+        <>
+          <h2>Cumulative by year</h2>
+          <ResultTable caption="Each row pools every study up to and including this one, oldest first" columns={sensCols('Study added')} rows={data.cumulative} rowKey={(x) => x.studyId} />
+        </>
+      )}
+
+      {data.unavailable.length > 0 && (
+        <>
+          <h2>Not run here</h2>
+          <ul className="list-disc pl-5 text-sm">
+            {data.unavailable.map((u) => (
+              <li key={u.analysis}>
+                <strong>{u.analysis}</strong>: {u.reason}
+              </li>
+            ))}
+          </ul>
+        </>
+      )}
+    </section>
+  );
+}
