@@ -34,7 +34,7 @@ export function eggerSums(y: Float64Array, v: Float64Array, feMean: number, sumW
     const yi = y[i];
     if (vi !== v0) varEqual = false;
     if (yi !== y0) effEqual = false;
-    const x = 1 / Math.sqrt(vi);
+    const x = Math.sqrt(1 / vi);
     const dx = x - x0;
     const dz = yi * x - z0;
     sx += dx;

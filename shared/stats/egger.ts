@@ -1,7 +1,7 @@
 import { StatsInputError } from './errors.js';
 import { prepareData } from './validate-input.js';
 import { dlTau2 } from './dl-tau2.js';
-import { eggerCore } from './egger-core.js';
+import { eggerFromSums } from './egger-core.js';
 import type { EggerResult, NumericArray } from './types.js';
 
 /**
@@ -13,6 +13,7 @@ import type { EggerResult, NumericArray } from './types.js';
 export function egger(input: { effects: NumericArray; variances: NumericArray }): EggerResult | null {
   if (input === null || typeof input !== 'object') throw new StatsInputError('input must be an object with effects and variances');
   const { y, v } = prepareData(input.effects, input.variances);
-  const fe = dlTau2(y, v);
-  return eggerCore(y, v, fe.feMean, fe.sumW);
+  if (y.length < 3) return null;
+  const fe = dlTau2(y, v, true);
+  return eggerFromSums(fe.egger!, y.length);
 }
