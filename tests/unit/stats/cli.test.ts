@@ -26,7 +26,7 @@ describe('the meta CLI (npm run --silent meta -- pool|effect|trimfill)', () => {
     expect(res.status).toBe(0);
     const out = JSON.parse(res.stdout);
     expect(Object.keys(out).sort()).toEqual(['ci_lower', 'ci_upper', 'estimate', 'filled', 'k0', 'se', 'side', 'tau2']);
-    expect(out).toEqual(JSON.parse(JSON.stringify(trimFill({ ...(input as never), side: 'left' }))));
+    expect(out).toEqual(JSON.parse(JSON.stringify(trimFill({ ...input, side: 'left' } as never))));
   });
 
   it('bad input: exit status 2 and { error: { message } } on stdout', () => {

@@ -1,0 +1,47 @@
+import express, { Router } from 'express';
+import rateLimit from 'express-rate-limit';
+import type { AppContext } from '../context.js';
+import { parseInput } from '../lib/validate.js';
+import { ValidationError } from '../lib/errors.js';
+import { computeEffect, pool, poolInputSchema, StatsInputError } from '../../shared/stats/index.js';
+
+/**
+ * The stateless compute routes: POST /api/compute/pool and POST /api/compute/effect take and return the
+ * same JSON as `npm run meta -- pool|effect`. Open to anyone, rate-limited per client, bodies up to
+ * 200,000 effects (their own JSON parser, 20 MB, so it is mounted among the early routers).
+ */
+export function computeRouter(ctx: AppContext) {
+  const router = Router();
+  const limiter = rateLimit({
+    windowMs: 60_000,
+    limit: ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE,
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    handler: (_req, res) => {
+      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many compute requests; wait a minute and try again.' } });
+    },
+  });
+  // 200,000 effects and variances as JSON text are at most ~10 MB
+  const json = express.json({ limit: '20mb' });
+
+  router.post('/compute/pool', limiter, json, (req, res) => {
+    const input = parseInput(poolInputSchema, req.body);
+    res.json(run(() => pool(input)));
+  });
+
+  router.post('/compute/effect', limiter, json, (req, res) => {
+    res.json(run(() => computeEffect(req.body)));
+  });
+
+  return router;
+}
+
+/** The library's own refusals (naming the offending position) become 400s in the API's error shape. */
+function run<T>(fn: () => T): T {
+  try {
+    return fn();
+  } catch (err) {
+    if (err instanceof StatsInputError) throw new ValidationError(err.message, err.field ? [{ path: `body.${err.field}`, message: err.message }] : undefined);
+    throw err;
+  }
+}
