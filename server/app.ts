@@ -29,6 +29,7 @@ import { assignmentsRouter } from './routes/assignments.js';
 import { reconciliationRouter } from './routes/reconciliation.js';
 import { agreementRouter } from './routes/agreement.js';
 import { mailboxRouter } from './routes/mailbox.js';
+import { computeRouter } from './routes/compute.js';
 
 
 /** Builds the Express app without listening, so tests can mount it with supertest. */
@@ -106,6 +107,7 @@ type MountRouter = (ctx: AppContext) => Router;
 const earlyApiRouters: MountRouter[] = [
   // feature routers with large bodies go here
   importsBodyRouter,
+  computeRouter,
 ];
 
 /** Every API router, mounted under /api. Add a feature's router to this list. */
