@@ -15,6 +15,8 @@ export interface ForestStudy {
 
 export interface ForestSummary {
   label: string;
+  /** subgroups: the value the studies' `group` holds (label is what is shown) */
+  key?: string;
   estimate: number;
   ci_lower: number;
   ci_upper: number;
@@ -64,20 +66,21 @@ export function forestFigure(input: ForestInput): PlotFigure {
     omitted = input.studies.length - studies.length;
   }
   const grouped = !!input.subgroups?.length;
-  const groups = grouped ? input.subgroups!.map((g) => g.label) : [''];
+  const groups = grouped ? input.subgroups!.map((g) => g.key ?? g.label) : [''];
 
   // Rows top to bottom; y = −index.
   type Row = { kind: 'study'; s: ForestStudy; lo: number; hi: number } | { kind: 'header'; text: string } | { kind: 'diamond'; d: ForestSummary; sub: boolean } | { kind: 'pi'; d: ForestSummary } | { kind: 'gap' };
   const rows: Row[] = [];
   for (const g of groups) {
-    if (grouped) rows.push({ kind: 'header', text: g });
+    const summaryOf = grouped ? input.subgroups!.find((x) => (x.key ?? x.label) === g)! : null;
+    if (summaryOf) rows.push({ kind: 'header', text: summaryOf.label });
     for (const s of studies) {
       if (grouped && s.group !== g) continue;
       const half = z * Math.sqrt(s.variance);
       rows.push({ kind: 'study', s, lo: s.effect - half, hi: s.effect + half });
     }
-    if (grouped) {
-      const d = input.subgroups!.find((x) => x.label === g)!;
+    if (summaryOf) {
+      const d = summaryOf;
       rows.push({ kind: 'diamond', d: { ...d, label: `Subgroup: ${d.label}` }, sub: true });
       rows.push({ kind: 'gap' });
     }

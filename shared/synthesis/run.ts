@@ -7,6 +7,7 @@ import { bubbleFigure } from '../plots/bubble.js';
 import { begg, cumulative, leaveOneOut, metaRegression, normalTwoTailed, pool, subgroups as subgroupAnalysis, tTwoTailed, trimFill, type PoolResult, type SensitivityEntry } from './engine.js';
 import { applyDependence, type StudyUnit } from './dependence.js';
 import { cautionsFor } from './cautions.js';
+import { valueLabel } from './labels.js';
 import type { PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
 
 /** Raised when the matching effects use more than one metric: they are never pooled together. */
@@ -109,10 +110,12 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   let subgroups: SubgroupComparison | null = null;
   if (sg) {
     const sub = attempt('subgroups', () => subgroupAnalysis({ effects: y, variances: v, groups: rows.map((r) => r.subgroup!), ...opts }));
+    const manipulationLabels = new Map(effects.map((e) => [e.manipulation, e.manipulationLabel ?? e.manipulation]));
+    const groupLabel = (value: string) => (sg === 'manipulation' ? (manipulationLabels.get(value) ?? value) : valueLabel(sg, value));
     if (sub)
       subgroups = {
         variable: sg,
-        groups: sub.groups.map((r) => ({ value: r.group, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
+        groups: sub.groups.map((r) => ({ value: r.group, label: groupLabel(r.group), k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
         Q_between: sub.Q_between,
         df: sub.Q_between_df,
         p: sub.Q_between_p,
@@ -189,7 +192,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     level: request.level,
     studies: rows.map((r) => ({ label: r.label, year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: r.subgroup })),
     pooled: summary(pooledLabel, result),
-    subgroups: subgroups?.groups.map((g) => ({ label: g.value, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper })),
+    subgroups: subgroups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper })),
   });
   const funnel =
     k >= 2

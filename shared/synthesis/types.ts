@@ -12,6 +12,8 @@ export interface SettledEffect {
   year: number | null;
   outcome: string;
   manipulation: string;
+  /** the vocabulary label of the manipulation, when the repository gives it */
+  manipulationLabel?: string;
   metric: Metric | string;
   effect: number;
   variance: number;
@@ -57,6 +59,7 @@ export interface SensitivityRow {
 
 export interface SubgroupResult {
   value: string;
+  label: string;
   k: number;
   estimate: number;
   se: number;

@@ -3,7 +3,7 @@ import { METHOD_LABELS, MODERATOR_LABELS } from '../../../../shared/schemas/synt
 import { dependenceSentence } from '../../../../shared/synthesis/methods';
 import type { PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
 import { Caution } from '../../../components/ui/Notice';
-import { digitsFor, fp, fx, valueLabel } from '../labels';
+import { digitsFor, fp, fx, pEq, valueLabel } from '../labels';
 import { ResultTable, type Column } from './ResultTable';
 
 export type FigureComponent = ComponentType<{ figure: PlotFigure; name: string; label: string; show?: Record<string, boolean> }>;
@@ -68,7 +68,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
             <tbody>
               <Stat label="Prediction interval">{interval(r.pi_lower, r.pi_upper)}</Stat>
               <Stat label="Test of the pooled effect">
-                {stat}, p = {fp(r.p)}
+                {stat}, {pEq(r.p)}
               </Stat>
               <Stat label="τ² (Q-profile CI)">
                 {fx(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fx(r.tau2_ci_lower, 4)}, ${fx(r.tau2_ci_upper, 4)}]` : ''}
@@ -77,7 +77,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
               <Stat label="I²">{r.I2 == null ? '—' : `${fx(r.I2, 1)}%`}</Stat>
               <Stat label="H²">{fx(r.H2, 2)}</Stat>
               <Stat label="Q (df), p">
-                {r.Q == null ? '—' : `${fx(r.Q, 2)} (${r.Q_df}), p = ${fp(r.Q_p)}`}
+                {r.Q == null ? '—' : `${fx(r.Q, 2)} (${r.Q_df}), ${pEq(r.Q_p)}`}
               </Stat>
             </tbody>
           </table>
@@ -144,7 +144,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
           <h2>Subgroups by {data.subgroups.variable}</h2>
           <table className="max-w-3xl">
             <caption className="caption-top pb-1 text-left text-sm text-ink-soft">
-              Q between subgroups = {fx(data.subgroups.Q_between, 2)} on {data.subgroups.df ?? '—'} df, p = {fp(data.subgroups.p)} (separate τ² in each)
+              Q between subgroups = {fx(data.subgroups.Q_between, 2)} on {data.subgroups.df ?? '—'} df, {pEq(data.subgroups.p)} (separate τ² in each)
             </caption>
             <thead>
               <tr>
@@ -159,7 +159,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
             <tbody>
               {data.subgroups.groups.map((g) => (
                 <tr key={g.value}>
-                  <td>{valueLabel(data.subgroups!.variable, g.value)}</td>
+                  <td>{g.label}</td>
                   <td className="num">{g.k}</td>
                   <td className="num">{fx(g.estimate, d)}</td>
                   <td className="num">{interval(g.ci_lower, g.ci_upper)}</td>
@@ -176,7 +176,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
         <>
           <h2>Meta-regression on {MODERATOR_LABELS[data.metaRegression.moderator].toLowerCase()}</h2>
           <p className="text-sm tabular-nums">
-            Slope {data.metaRegression.slope.toPrecision(3)} per unit [{data.metaRegression.slope_ci_lower.toPrecision(3)}, {data.metaRegression.slope_ci_upper.toPrecision(3)}], p = {fp(data.metaRegression.slope_p)}; residual τ² {fx(data.metaRegression.tau2, 4)}; R² {data.metaRegression.R2 == null ? '—' : `${fx(data.metaRegression.R2 * 100, 1)}%`}; k = {data.metaRegression.k}
+            Slope {data.metaRegression.slope.toPrecision(3)} per unit [{data.metaRegression.slope_ci_lower.toPrecision(3)}, {data.metaRegression.slope_ci_upper.toPrecision(3)}], {pEq(data.metaRegression.slope_p)}; residual τ² {fx(data.metaRegression.tau2, 4)}; R² {data.metaRegression.R2 == null ? '—' : `${fx(data.metaRegression.R2 * 100, 1)}%`}; k = {data.metaRegression.k}
             {data.metaRegression.missing ? ` (${data.metaRegression.missing} studies without a value left out)` : ''}.
           </p>
           {data.figures.bubble && <Figure figure={data.figures.bubble} name={`${fileStem}-bubble`} label="Bubble plot" />}

@@ -1,0 +1,61 @@
+import assert from 'node:assert/strict';
+import type { Spec } from './run.js';
+import { appUrl, signInThroughPage, signOut } from './browser.js';
+
+const forestSvg = 'figure[aria-label="Forest plot"] svg.main-svg';
+
+export const specs: Spec[] = [
+  {
+    name: 'a reviewer filters by one manipulation, sees the forest plot, saves a snapshot that opens signed out',
+    async run(page) {
+      await signInThroughPage(page, 'reviewer');
+      await page.getByRole('banner').getByRole('link', { name: 'Synthesis' }).click();
+      await page.getByLabel('Manipulation').selectOption(['luminance']);
+      await page.getByLabel('Outcome kind').selectOption('duration_distortion');
+      await page.getByLabel('Metric').selectOption('hedges_g');
+      await page.getByRole('button', { name: 'Run synthesis' }).click();
+      await page.locator(forestSvg).first().waitFor();
+      // one square per study in the drawn SVG
+      const rows = await page.getByRole('table', { name: /one row per study/i }).locator('tbody tr').count();
+      assert.ok(rows >= 3, `expected at least 3 studies, saw ${rows}`);
+      const estimate = (await page.getByTestId('pooled-estimate').textContent())!;
+      assert.match(estimate, /\d\.\d{3}/);
+      assert.ok(page.url().includes('manipulation=luminance'));
+
+      await page.getByLabel('Snapshot title (optional)').fill('Luminance and duration, browser check');
+      await page.getByRole('button', { name: 'Save snapshot' }).click();
+      const saved = page.getByRole('status').filter({ hasText: 'Saved' });
+      await saved.waitFor();
+      const href = (await saved.getByRole('link').getAttribute('href'))!;
+      assert.match(href, /^\/snapshots\/[a-z0-9]+$/);
+
+      await signOut(page);
+      await page.goto(appUrl(href));
+      await page.getByRole('heading', { name: 'Luminance and duration, browser check' }).waitFor();
+      await page.locator(forestSvg).first().waitFor();
+      assert.equal(await page.getByTestId('pooled-estimate').textContent(), estimate);
+      assert.equal(await page.getByRole('link', { name: /BibTeX/ }).count(), 1);
+      assert.equal(await page.getByRole('button', { name: 'Save snapshot' }).count(), 0);
+      const csv = await page.request.get(appUrl(`/api${href}/export.csv`));
+      assert.equal(csv.status(), 200);
+      assert.match((await csv.text()).split('\n')[0], /effect,variance/);
+    },
+  },
+  {
+    name: 'signed out, the atlas shows a manipulation with its forest plot and opens it as a synthesis without a save button',
+    async run(page) {
+      await page.goto(appUrl('/atlas'));
+      await page.getByRole('link', { name: 'Numerosity' }).click();
+      await page.getByRole('heading', { name: 'Numerosity', level: 1 }).waitFor();
+      await page.locator(forestSvg).first().waitFor();
+      await page.getByRole('link', { name: 'Open as a synthesis →' }).first().click();
+      await page.locator(forestSvg).first().waitFor();
+      await page.getByText(/Sign in.*as a reviewer to freeze/).waitFor();
+      assert.equal(await page.getByRole('button', { name: 'Save snapshot' }).count(), 0);
+      // the funnel plot's trim-and-fill points appear on request
+      const box = page.getByLabel(/Show the studies trim-and-fill imputes/);
+      if (await box.isEnabled()) await box.check();
+      await page.locator('figure[aria-label="Funnel plot"] svg.main-svg').first().waitFor();
+    },
+  },
+];
