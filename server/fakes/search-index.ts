@@ -174,23 +174,42 @@ function tokenize(src: string): Token[] {
 }
 
 const asNumber = (v: unknown) => (typeof v === 'number' ? v : typeof v === 'string' && v.trim() !== '' && !Number.isNaN(Number(v)) ? Number(v) : NaN);
-const values = (v: unknown): unknown[] => (Array.isArray(v) ? v : v === undefined ? [] : [v]);
-const getPath = (doc: Doc, attr: string): unknown => attr.split('.').reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Doc)[k] : undefined), doc);
+const getPath = (doc: Doc, attr: string): unknown => (attr.includes('.') ? attr.split('.').reduce<unknown>((o, k) => (o && typeof o === 'object' ? (o as Doc)[k] : undefined), doc) : doc[attr]);
+const NON_ASCII = /[^\u0020-\u007e]/;
 
-function equals(a: unknown, b: string): boolean {
-  if (a === null || a === undefined) return false;
-  const n = asNumber(b);
-  if (typeof a === 'number' && !Number.isNaN(n)) return a === n;
-  if (typeof a === 'boolean') return String(a) === b.toLowerCase();
-  return fold(String(a)) === fold(b);
+/** A test "attribute value equals v", with v's forms worked out once (filters run over every document). */
+function equalsTo(v: string): (a: unknown) => boolean {
+  const n = asNumber(v);
+  const low = v.toLowerCase();
+  const folded = fold(v);
+  const bool = low === 'true' ? true : low === 'false' ? false : null;
+  return (a) => {
+    if (a === null || a === undefined) return false;
+    if (typeof a === 'number') return a === n;
+    if (typeof a === 'boolean') return a === bool;
+    const s = typeof a === 'string' ? a : String(a);
+    if (s === v) return true;
+    const sl = s.toLowerCase();
+    return sl === low || (NON_ASCII.test(s) || NON_ASCII.test(v) ? fold(s) === folded : false);
+  };
 }
 
-function compare(a: unknown, op: string, b: string): boolean {
-  const x = asNumber(a);
+function compareTo(op: string, b: string): (a: unknown) => boolean {
   const y = asNumber(b);
-  if (Number.isNaN(x) || Number.isNaN(y)) return false;
-  return op === '>' ? x > y : op === '>=' ? x >= y : op === '<' ? x < y : x <= y;
+  if (Number.isNaN(y)) return () => false;
+  return (a) => {
+    const x = typeof a === 'number' ? a : asNumber(a);
+    if (Number.isNaN(x)) return false;
+    return op === '>' ? x > y : op === '>=' ? x >= y : op === '<' ? x < y : x <= y;
+  };
 }
+
+/** Whether any value of the attribute (one value, or each element of an array) passes. */
+const anyOf = (attr: string, test: (a: unknown) => boolean) => (d: Doc) => {
+  const v = getPath(d, attr);
+  if (Array.isArray(v)) return v.some(test);
+  return v !== undefined && test(v);
+};
 
 function parseFilter(src: string, filterable: string[]): Pred {
   const toks = tokenize(src);
@@ -254,23 +273,29 @@ function parseFilter(src: string, filterable: string[]): Pred {
       }
       if (peek()?.t !== 'rb') fail('Expected ] to close IN');
       p++;
-      const test: Pred = (d) => values(getPath(d, attr)).some((v) => list.some((w) => equals(v, w)));
+      const tests = list.map(equalsTo);
+      const test: Pred = anyOf(attr, (v) => tests.some((t) => t(v)));
       return negIn ? (d) => !test(d) : test;
     }
     const op = peek();
     if (op?.t === 'op') {
       p++;
       const v = value();
-      if (op.v === '=') return (d) => values(getPath(d, attr)).some((x) => equals(x, v));
-      if (op.v === '!=') return (d) => !values(getPath(d, attr)).some((x) => equals(x, v));
-      return (d) => values(getPath(d, attr)).some((x) => compare(x, op.v, v));
+      if (op.v === '=') return anyOf(attr, equalsTo(v));
+      if (op.v === '!=') {
+        const eq = anyOf(attr, equalsTo(v));
+        return (d) => !eq(d);
+      }
+      return anyOf(attr, compareTo(op.v, v));
     }
     // "attr low TO high"
     const low = value();
     if (!isWord('TO')) fail(`Expected an operator after \`${attr}\``);
     p++;
     const high = value();
-    return (d) => values(getPath(d, attr)).some((x) => compare(x, '>=', low) && compare(x, '<=', high));
+    const ge = compareTo('>=', low);
+    const le = compareTo('<=', high);
+    return anyOf(attr, (x) => ge(x) && le(x));
   };
   const primary = (): Pred => {
     if (isWord('NOT')) {
@@ -588,7 +613,35 @@ export function createSearchIndexServer() {
     const limit = Math.max(0, Number(params.limit ?? 20));
     const offset = Math.max(0, Number(params.offset ?? 0));
     const pred = buildFilter(params.filter, idx.settings.filterableAttributes);
-    let keys: string[];
+    const facetNames: string[] = Array.isArray(params.facets) ? params.facets : [];
+    for (const f of facetNames) {
+      if (!idx.settings.filterableAttributes.includes(f)) {
+        throw new MeiliError(400, 'invalid_search_facets', `Attribute \`${f}\` is not filterable. Available filterable attributes are: \`${idx.settings.filterableAttributes.join(', ')}\`.`);
+      }
+    }
+    const sortRules: Array<{ attr: string; sign: number }> = Array.isArray(params.sort)
+      ? params.sort.map((s: string) => {
+          const [attr, dir] = String(s).split(':');
+          if (!idx.settings.sortableAttributes.includes(attr)) {
+            throw new MeiliError(400, 'invalid_search_sort', `Attribute \`${attr}\` is not sortable. Available sortable attributes are: \`${idx.settings.sortableAttributes.join(', ')}\`.`);
+          }
+          return { attr, sign: dir === 'desc' ? -1 : 1 };
+        })
+      : [];
+    // One pass over the candidates: filter, count facets, keep the matches (in rank or insertion order).
+    const facetCounts: Array<Record<string, number>> = facetNames.map(() => ({}));
+    let docs: Doc[] = [];
+    const consider = (d: Doc | undefined) => {
+      if (!d || (pred && !pred(d))) return;
+      docs.push(d);
+      for (let i = 0; i < facetNames.length; i++) {
+        const v = getPath(d, facetNames[i]);
+        const counts = facetCounts[i];
+        if (Array.isArray(v)) {
+          for (const x of v) if (x !== null && x !== undefined) counts[String(x)] = (counts[String(x)] ?? 0) + 1;
+        } else if (v !== null && v !== undefined) counts[String(v)] = (counts[String(v)] ?? 0) + 1;
+      }
+    };
     if (q.trim()) {
       // All words must match; the last word may be a prefix; longer words tolerate a typo.
       const results = idx.mini.search(q, {
@@ -597,20 +650,11 @@ export function createSearchIndexServer() {
         fuzzy: (term) => (term.length >= 5 ? 1 : 0),
         maxFuzzy: 1,
       });
-      keys = results.map((r) => r.id as string);
-    } else keys = idx.liveOrder();
-    let docs = keys.map((k) => idx.docs.get(k)!).filter(Boolean);
-    if (pred) docs = docs.filter(pred);
-    if (Array.isArray(params.sort) && params.sort.length) {
-      const rules = params.sort.map((s: string) => {
-        const [attr, dir] = String(s).split(':');
-        if (!idx.settings.sortableAttributes.includes(attr)) {
-          throw new MeiliError(400, 'invalid_search_sort', `Attribute \`${attr}\` is not sortable. Available sortable attributes are: \`${idx.settings.sortableAttributes.join(', ')}\`.`);
-        }
-        return { attr, sign: dir === 'desc' ? -1 : 1 };
-      });
+      for (const r of results) consider(idx.docs.get(r.id as string));
+    } else for (const d of idx.docs.values()) consider(d);
+    if (sortRules.length) {
       docs = [...docs].sort((a, b) => {
-        for (const { attr, sign } of rules) {
+        for (const { attr, sign } of sortRules) {
           const x = getPath(a, attr) as any;
           const y = getPath(b, attr) as any;
           if (x === y) continue;
@@ -621,18 +665,7 @@ export function createSearchIndexServer() {
         return 0;
       });
     }
-    let facetDistribution: Record<string, Record<string, number>> | undefined;
-    if (Array.isArray(params.facets)) {
-      facetDistribution = {};
-      for (const f of params.facets as string[]) {
-        if (!idx.settings.filterableAttributes.includes(f)) {
-          throw new MeiliError(400, 'invalid_search_facets', `Attribute \`${f}\` is not filterable. Available filterable attributes are: \`${idx.settings.filterableAttributes.join(', ')}\`.`);
-        }
-        const counts: Record<string, number> = {};
-        for (const d of docs) for (const v of values(getPath(d, f))) if (v !== null && v !== undefined) counts[String(v)] = (counts[String(v)] ?? 0) + 1;
-        facetDistribution[f] = counts;
-      }
-    }
+    const facetDistribution = facetNames.length ? Object.fromEntries(facetNames.map((f, i) => [f, facetCounts[i]])) : undefined;
     const retrieve: string[] | undefined = Array.isArray(params.attributesToRetrieve) && !params.attributesToRetrieve.includes('*') ? params.attributesToRetrieve : undefined;
     const hits = docs.slice(offset, offset + limit).map((d) => (retrieve ? Object.fromEntries(retrieve.filter((a) => a in d).map((a) => [a, d[a]])) : d));
     return {

@@ -20,7 +20,7 @@ const ROWS: Array<[string, (s: DuplicateSide) => React.ReactNode, boolean?]> = [
   ['Richness score', (s) => s.richness.toFixed(1), true],
 ];
 
-function Pair({ c }: { c: DuplicateCandidate }) {
+function Pair({ c, onDone }: { c: DuplicateCandidate; onDone: (message: string) => void }) {
   const merge = useMergeDuplicate();
   const dismiss = useDismissDuplicate();
   const richer = c.a.richness >= c.b.richness ? c.a : c.b;
@@ -60,22 +60,17 @@ function Pair({ c }: { c: DuplicateCandidate }) {
           {[c.a, c.b].map((keep) => {
             const other = keep.id === c.a.id ? c.b : c.a;
             return (
-              <Button key={keep.id} variant={keep.id === richer.id ? 'primary' : 'plain'} disabled={busy} onClick={() => merge.mutate({ candidateId: c.id, keep: keep.id })}>
+              <Button key={keep.id} variant={keep.id === richer.id ? 'primary' : 'plain'} disabled={busy} onClick={() => merge.mutate({ candidateId: c.id, keep: keep.id }, { onSuccess: (d) => onDone(`✓ Merged #${d.merged} into #${d.kept}; moved ${Object.values(d.moved).reduce((s, n) => s + n, 0)} linked rows.`) })}>
                 Keep #{keep.id}, merge #{other.id} into it
               </Button>
             );
           })}
-          <Button disabled={busy} onClick={() => dismiss.mutate(c.id)}>
+          <Button disabled={busy} onClick={() => dismiss.mutate(c.id, { onSuccess: () => onDone(`≠ Pair ${c.id} marked as two different papers.`) })}>
             Not the same paper
           </Button>
         </div>
       )}
       <ErrorNote error={merge.error ?? dismiss.error} />
-      {merge.data && (
-        <p role="status" className="mt-1 text-sm">
-          ✓ Merged #{merge.data.merged} into #{merge.data.kept}; moved {Object.values(merge.data.moved).reduce((s, n) => s + n, 0)} linked rows.
-        </p>
-      )}
     </section>
   );
 }
@@ -83,6 +78,7 @@ function Pair({ c }: { c: DuplicateCandidate }) {
 export function DuplicatesList() {
   const [status, setStatus] = useState<'open' | 'merged' | 'dismissed'>('open');
   const [page, setPage] = useState(1);
+  const [done, setDone] = useState<string | null>(null);
   const pageSize = 10;
   const { data, error, isLoading } = useDuplicates({ status, page, pageSize, sort: 'created_at', order: status === 'open' ? 'asc' : 'desc' });
   return (
@@ -104,12 +100,17 @@ export function DuplicatesList() {
           </label>
         ))}
       </fieldset>
+      {done && (
+        <p role="status" className="mb-2 text-sm font-semibold">
+          {done}
+        </p>
+      )}
       <ErrorNote error={error} />
       {isLoading && <Loading what="Loading candidate pairs" />}
       {data && data.total === 0 && (
         <EmptyState>{status === 'open' ? 'No likely duplicates are waiting. New ones appear here when an import finds the same title, year and first author.' : 'None yet.'}</EmptyState>
       )}
-      {data?.items.map((c) => <Pair key={c.id} c={c} />)}
+      {data?.items.map((c) => <Pair key={c.id} c={c} onDone={setDone} />)}
       {data && data.total > pageSize && <Pager page={page} pageSize={pageSize} total={data.total} onPage={setPage} />}
     </div>
   );

@@ -1,0 +1,85 @@
+import assert from 'node:assert/strict';
+import type { Spec } from './run.js';
+import { appUrl, signInThroughPage, signOut } from './browser.js';
+
+const stamp = Date.now().toString(36);
+const SCRIPT_TITLE = `<script>window.__injected = 1</script> Looming ${stamp} and the stretching of seconds`;
+const BIBTEX = [
+  `@article{xss${stamp}, title = {${SCRIPT_TITLE}}, author = {Probe, Ida}, year = {2021}, journal = {Journal of Invented Psychophysics}, doi = {10.5555/e2e.${stamp}.1}}`,
+  `@article{cut${stamp}, title = {A cut-off entry, author = {Cut, Off}`,
+  `@article{ok${stamp}, title = {Chronostasis ${stamp} after saccades}, author = {Probe, Ida and Other, Ola}, year = {2020}, doi = {10.5555/e2e.${stamp}.2}}`,
+].join('\n\n');
+
+export const specs: Spec[] = [
+  {
+    name: 'imports a BibTeX paste, reports the broken entry, shows a <script> title as text, screens from the keyboard and finds it by search',
+    async run(page) {
+      await signInThroughPage(page, 'coder1');
+      await page.getByRole('banner').getByRole('link', { name: 'Import' }).click();
+      await page.getByLabel('Entries').fill(BIBTEX);
+      await page.getByRole('button', { name: 'Import', exact: true }).click();
+      await page.getByRole('heading', { name: 'Import report' }).waitFor();
+      await page.getByText('✓ Finished: 3 entries read.').waitFor();
+      assert.equal(await page.locator('[data-count="imported"]').innerText(), '2');
+      assert.equal(await page.locator('[data-count="rejected"]').innerText(), '1');
+      await page.getByText(new RegExp(`Entry 2 \\(key "cut${stamp}"\\), line \\d+: the entry is not well formed`)).waitFor();
+
+      // The title is text in the report's reference page, never markup.
+      const row = page.getByRole('row', { name: new RegExp(`xss${stamp}`) });
+      await row.getByRole('link').click();
+      await page.getByRole('heading', { level: 1, name: SCRIPT_TITLE }).waitFor();
+      assert.equal(await page.evaluate(() => (window as unknown as { __injected?: number }).__injected), undefined);
+      assert.equal(await page.locator('main script').count(), 0);
+
+      // Screening from the keyboard: the queue shows the oldest first, so narrow it to this batch.
+      const batchLink = page.getByRole('link', { name: /^batch \d+$/ });
+      const batchId = (await batchLink.innerText()).replace('batch ', '');
+      await page.goto(appUrl(`/screening?batch=${batchId}`));
+      await page.getByText('2 references waiting from batch').waitFor();
+      const article = page.getByRole('article', { name: 'Reference to screen' });
+      const first = await article.getByRole('heading').innerText();
+      await page.keyboard.press('i');
+      await page.getByText(`Last: ✓ Included: ${first}`).waitFor();
+      await page.getByText('1 reference waiting from batch').waitFor();
+      await page.keyboard.press('3');
+      await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
+      await page.getByText('0 references waiting from batch').waitFor();
+      await page.getByText('Nothing is waiting.').waitFor();
+
+      // Search: by a title word, and by author with a status filter.
+      await page.getByRole('banner').getByRole('link', { name: 'Search' }).click();
+      await page.getByLabel('Words in title, authors, journal or DOI').fill(`chronostasis ${stamp}`);
+      await page.getByText(/^1 reference for/).waitFor();
+      await page.getByRole('link', { name: `Chronostasis ${stamp} after saccades` }).waitFor();
+      await page.getByLabel('Words in title, authors, journal or DOI').fill('probe');
+      await page.getByText(/^2 references for “probe”/).waitFor();
+      await page.getByRole('radio', { name: /included/ }).check();
+      await page.getByText(/^1 reference for “probe”/).waitFor();
+      await signOut(page);
+    },
+  },
+  {
+    name: 'a curator merges the seeded likely duplicate and the merged record points to the one kept',
+    async run(page) {
+      await signInThroughPage(page, 'curator');
+      await page.getByRole('banner').getByRole('link', { name: 'Duplicates' }).click();
+      const pair = page.getByRole('region', { name: /Candidate pair/ }).filter({ hasText: 'Brightness and perceived duration of brief flashes' }).first();
+      await pair.waitFor();
+      const keep = pair.getByRole('button', { name: /^Keep #\d+, merge #\d+ into it$/ }).first();
+      const label = await keep.innerText();
+      const [, kept, merged] = label.match(/Keep #(\d+), merge #(\d+)/)!;
+      await keep.click();
+      await page.getByText(`✓ Merged #${merged} into #${kept}`).waitFor();
+      await page.goto(appUrl(`/references/${merged}`));
+      await page.getByText('This record was merged into').waitFor();
+      await page.getByRole('link', { name: `reference #${kept}` }).click();
+      await page.waitForURL(new RegExp(`/references/${kept}$`));
+      // A contributor cannot reach the duplicates screen.
+      await signOut(page);
+      await signInThroughPage(page, 'coder2');
+      assert.equal(await page.getByRole('banner').getByRole('link', { name: 'Duplicates' }).count(), 0);
+      await page.goto(appUrl('/duplicates'));
+      await page.getByText('This page needs the Curator role.').waitFor();
+    },
+  },
+];
