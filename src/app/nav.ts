@@ -18,7 +18,13 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/import', label: 'Import', role: 'contributor' },
   { to: '/screening', label: 'Screening', role: 'contributor' },
   { to: '/duplicates', label: 'Duplicates', role: 'curator' },
+  { to: '/extractions', label: 'My coding', role: 'contributor' },
+  { to: '/assignments', label: 'Assign', role: 'curator' },
+  { to: '/reconciliation', label: 'Reconcile', role: 'curator' },
+  { to: '/agreement', label: 'Agreement', role: 'reviewer' },
+  { to: '/manipulations', label: 'Vocabulary' },
   { to: '/settings/tokens', label: 'API tokens', signedIn: true },
   { to: '/admin/people', label: 'People', role: 'admin' },
   { to: '/admin/audit', label: 'Audit log', role: 'admin' },
+  { to: '/admin/mail', label: 'Mail', role: 'admin' },
 ];

@@ -18,6 +18,15 @@ import { ReferencePage } from './routes/ReferencePage';
 import { ReferencesPage } from './routes/ReferencesPage';
 import { ScreeningPage } from './routes/ScreeningPage';
 import { SearchPage } from './routes/SearchPage';
+import { MyExtractionsPage } from './routes/MyExtractionsPage';
+import { ExtractionPage } from './routes/ExtractionPage';
+import { AssignmentsPage } from './routes/AssignmentsPage';
+import { ReconciliationPage } from './routes/ReconciliationPage';
+import { ReconcilePairPage } from './routes/ReconcilePairPage';
+import { RecordPage } from './routes/RecordPage';
+import { AgreementPage } from './routes/AgreementPage';
+import { ManipulationsPage } from './routes/ManipulationsPage';
+import { AdminMailPage } from './routes/AdminMailPage';
 
 /** Every screen; each feature adds its routes to this list. */
 const screens: RouteObject[] = [
@@ -36,6 +45,15 @@ const screens: RouteObject[] = [
   { path: 'screening', element: <ScreeningPage /> },
   { path: 'duplicates', element: <DuplicatesPage /> },
   { path: 'search', element: <SearchPage /> },
+  { path: 'extractions', element: <MyExtractionsPage /> },
+  { path: 'extractions/:id', element: <ExtractionPage /> },
+  { path: 'assignments', element: <AssignmentsPage /> },
+  { path: 'reconciliation', element: <ReconciliationPage /> },
+  { path: 'reconciliation/:id', element: <ReconcilePairPage /> },
+  { path: 'records/:id', element: <RecordPage /> },
+  { path: 'agreement', element: <AgreementPage /> },
+  { path: 'manipulations', element: <ManipulationsPage /> },
+  { path: 'admin/mail', element: <AdminMailPage /> },
   { path: 'admin/people', element: <AdminPeoplePage /> },
   { path: 'admin/audit', element: <AdminAuditPage /> },
 ];

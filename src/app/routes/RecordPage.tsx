@@ -1,0 +1,144 @@
+import { useState } from 'react';
+import { Link, useNavigate, useParams } from 'react-router-dom';
+import { Button } from '../../components/ui/Button';
+import { Caution, ErrorNote, Loading } from '../../components/ui/Notice';
+import { useHasRole } from '../../features/auth/api/get-me';
+import { SheetView } from '../../features/extraction/components/SheetView';
+import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { useRecord } from '../../features/reconciliation/api/get-record';
+import { useRecords } from '../../features/reconciliation/api/get-records';
+import { useReopenRecord } from '../../features/reconciliation/api/reopen-record';
+import { useSettleRecord } from '../../features/reconciliation/api/settle-record';
+import { useWithdrawRecord } from '../../features/reconciliation/api/withdraw-record';
+
+function ReasonAction({ label, onRun, pending, error }: { label: string; onRun: (reason: string) => void; pending: boolean; error: unknown }) {
+  const [open, setOpen] = useState(false);
+  const [reason, setReason] = useState('');
+  if (!open) return <Button onClick={() => setOpen(true)}>{label}…</Button>;
+  return (
+    <form
+      className="my-2 rounded border border-paper-edge p-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        onRun(reason);
+      }}
+    >
+      <label className="block text-sm">
+        <span className="block text-xs font-semibold text-ink-soft">Reason (kept with the record)</span>
+        <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1" rows={2} value={reason} onChange={(e) => setReason(e.target.value)} autoFocus />
+      </label>
+      {reason.trim().length > 0 && reason.trim().length < 3 && <span className="text-xs text-refusal">✕ give a reason of at least 3 characters</span>}
+      <div className="mt-1 flex gap-2">
+        <Button type="submit" variant="primary" disabled={pending || reason.trim().length < 3}>
+          {label}
+        </Button>
+        <Button onClick={() => setOpen(false)}>Cancel</Button>
+      </div>
+      <ErrorNote error={error} />
+    </form>
+  );
+}
+
+export function RecordPage() {
+  const id = Number(useParams().id);
+  const navigate = useNavigate();
+  const { data, error, isLoading } = useRecord(id);
+  const history = useRecords(data?.extraction.referenceId);
+  const curator = useHasRole('curator');
+  const reopen = useReopenRecord();
+  const withdraw = useWithdrawRecord();
+  const settle = useSettleRecord();
+  const x = data?.extraction;
+  return (
+    <div>
+      {isLoading && <Loading what="Loading the record" />}
+      <ErrorNote error={error} />
+      {x && (
+        <>
+          <h1>
+            Settled record of {x.reference.label}, version {x.recordVersion}
+          </h1>
+          <p className="reading">{x.reference.title}</p>
+          <p className="mb-2 text-sm text-ink-soft">
+            <StateBadge state={x.state} /> {x.settledAt && <>settled {new Date(x.settledAt).toISOString().slice(0, 10)} · </>}
+            <Link to={`/references/${x.referenceId}`}>reference</Link>
+          </p>
+          {x.supersededBy && (
+            <Caution title="Old version">
+              This version was replaced by <Link to={`/records/${x.supersededBy}`}>version {x.recordVersion! + 1}</Link>; analyses use only the current settled version.
+            </Caution>
+          )}
+          {x.reopenReason && <Caution title="Reopened">{x.reopenReason}</Caution>}
+          {curator && !x.supersededBy && (
+            <div className="my-2 flex flex-wrap items-start gap-2">
+              {x.state === 'settled' && (
+                <>
+                  <ReasonAction label="Reopen" pending={reopen.isPending} error={reopen.error} onRun={(reason) => reopen.mutate({ id, reason }, { onSuccess: (r) => navigate(`/records/${r.recordId}`) })} />
+                  <ReasonAction label="Withdraw" pending={withdraw.isPending} error={withdraw.error} onRun={(reason) => withdraw.mutate({ id, reason })} />
+                </>
+              )}
+              {x.state === 'draft' && (
+                <>
+                  <Link to={`/extractions/${id}`} className="rounded border border-paper-edge px-3 py-1.5 text-sm">
+                    Edit this version
+                  </Link>
+                  <ReasonAction label="Settle this version" pending={settle.isPending} error={settle.error} onRun={(rationale) => settle.mutate({ id, rationale })} />
+                </>
+              )}
+            </div>
+          )}
+          <SheetView studies={data.studies} />
+          {history.data && (
+            <>
+              <h2>Versions and settlements</h2>
+              <table>
+                <thead>
+                  <tr>
+                    <th className="num">Version</th>
+                    <th>State</th>
+                    <th>Current</th>
+                    <th>Created (UTC)</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {history.data.records.map((r) => (
+                    <tr key={r.id}>
+                      <td className="num">
+                        <Link to={`/records/${r.id}`}>{r.recordVersion}</Link>
+                      </td>
+                      <td>
+                        <StateBadge state={r.state} />
+                      </td>
+                      <td>{r.current ? '✓ current' : 'replaced'}</td>
+                      <td className="num">{new Date(r.createdAt).toISOString().slice(0, 16).replace('T', ' ')}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+              <table className="mt-2">
+                <thead>
+                  <tr>
+                    <th>When (UTC)</th>
+                    <th>What</th>
+                    <th>By</th>
+                    <th>Rationale</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {history.data.settlements.map((s) => (
+                    <tr key={s.id}>
+                      <td className="num">{new Date(s.at).toISOString().slice(0, 16).replace('T', ' ')}</td>
+                      <td>{s.kind}</td>
+                      <td>{s.by ? `@${s.by}` : 'automatic'}</td>
+                      <td className="whitespace-pre-wrap text-xs">{s.rationale}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </>
+          )}
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,30 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { api, queryString } from '../../../lib/api-client';
+import { manipulationKeys } from './keys';
+
+export interface Manipulation {
+  id: number;
+  term: string;
+  label: string;
+  description: string;
+  retired: boolean;
+  retiredAt: string | null;
+  version: number;
+  settledEffects: number;
+}
+export interface ManipulationsQuery {
+  includeRetired?: boolean;
+  sort?: 'term' | 'label' | 'effects';
+  order?: 'asc' | 'desc';
+  page?: number;
+  pageSize?: number;
+}
+
+export const getManipulations = (q: ManipulationsQuery) => api<{ items: Manipulation[]; total: number }>(`/api/manipulations${queryString({ ...q })}`);
+
+export const manipulationsQueryOptions = (q: ManipulationsQuery = {}) =>
+  queryOptions({ queryKey: manipulationKeys.list(q), queryFn: () => getManipulations(q), placeholderData: keepPreviousData, staleTime: 60_000 });
+
+export function useManipulations(q: ManipulationsQuery = {}) {
+  return useQuery(manipulationsQueryOptions(q));
+}

@@ -1,0 +1,158 @@
+import { useState } from 'react';
+import { REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type ReportForm, type Reported } from '../../../../shared/extraction/compute';
+import { DESIGNS } from '../../../../shared/vocabulary/designs';
+import { MODALITIES } from '../../../../shared/vocabulary/modalities';
+import { OUTCOME_KINDS } from '../../../../shared/vocabulary/outcomes';
+import { POPULATIONS } from '../../../../shared/vocabulary/populations';
+import { TASKS } from '../../../../shared/vocabulary/tasks';
+import { Button } from '../../../components/ui/Button';
+import { ErrorNote } from '../../../components/ui/Notice';
+import { ApiRequestError } from '../../../lib/api-client';
+import { REPORTED_LABELS, fmt } from '../../extraction/components/labels';
+import { StateBadge } from '../../extraction/components/StateBadge';
+import { useManipulations } from '../../manipulations/api/get-manipulations';
+import type { DiscrepancyRow as Row } from '../api/get-pair';
+import { useResolveDiscrepancy } from '../api/resolve-discrepancy';
+
+const CHOICES: Record<string, readonly string[]> = { design: DESIGNS, population: POPULATIONS, modality: MODALITIES, task: TASKS, outcome: OUTCOME_KINDS };
+const NUMERIC = new Set(['n1', 'n2', 'standardMs']);
+
+export function showValue(field: string, v: unknown): string {
+  if (v == null) return '— (blank)';
+  if (field === 'effect' && typeof v === 'object') {
+    const e = v as { form?: string; reported?: Record<string, number>; effect?: number; variance?: number; metric?: string; assumedR?: number | null };
+    const rep = Object.entries(e.reported ?? {}).map(([k, x]) => `${k} ${x}`).join(', ');
+    return `${e.metric ?? '?'} ${fmt(e.effect, 3)} (variance ${fmt(e.variance, 4)}) from ${e.form ?? '?'}: ${rep}${e.assumedR != null ? `; r assumed ${e.assumedR}` : ''}`;
+  }
+  if (field === 'studies') return `${v} stud${v === 1 ? 'y' : 'ies'}`;
+  if (field === 'effects') return `${v} effect${v === 1 ? '' : 's'}`;
+  return String(v);
+}
+
+function OwnValue({ row, value, onChange }: { row: Row; value: unknown; onChange: (v: unknown) => void }) {
+  const { data: manipulations } = useManipulations({ pageSize: 200, sort: 'label' });
+  const cls = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
+  if (row.field === 'manipulation')
+    return (
+      <select aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)}>
+        <option value="">— choose —</option>
+        {manipulations?.items.map((m) => (
+          <option key={m.term} value={m.term}>
+            {m.label}
+          </option>
+        ))}
+      </select>
+    );
+  if (CHOICES[row.field])
+    return (
+      <select aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)}>
+        <option value="">— choose —</option>
+        {CHOICES[row.field].map((c) => (
+          <option key={c}>{c}</option>
+        ))}
+      </select>
+    );
+  if (NUMERIC.has(row.field)) return <input aria-label="Own value" className={`${cls} text-right tabular-nums`} inputMode="decimal" value={value == null ? '' : String(value)} onChange={(e) => onChange(e.target.value === '' ? undefined : Number(e.target.value))} />;
+  if (row.field === 'effect') {
+    const v = (value ?? {}) as { form?: ReportForm; reported?: Reported; assumedR?: number };
+    const attempt = v.form ? tryComputeReported(v.form, v.reported ?? {}, v.assumedR) : null;
+    return (
+      <div className="text-sm">
+        <select aria-label="Reported as" className={cls} value={v.form ?? ''} onChange={(e) => onChange({ ...v, form: e.target.value || undefined })}>
+          <option value="">— reported as —</option>
+          {REPORT_FORMS.map((f) => (
+            <option key={f} value={f}>
+              {REPORT_FORM_LABELS[f]}
+            </option>
+          ))}
+        </select>
+        <div className="mt-1 grid grid-cols-3 gap-1">
+          {(v.form ? REPORT_FIELDS[v.form] : []).map((k) => (
+            <label key={k} className="text-xs">
+              {REPORTED_LABELS[k]}
+              <input
+                className={`${cls} w-full text-right tabular-nums`}
+                inputMode="decimal"
+                value={v.reported?.[k] ?? ''}
+                onChange={(e) => onChange({ ...v, reported: { ...(v.reported ?? {}), [k]: e.target.value === '' ? undefined : Number(e.target.value) } })}
+              />
+            </label>
+          ))}
+        </div>
+        <p className="mt-1 text-xs tabular-nums">{attempt ? (attempt.ok ? `✓ ${attempt.result!.metric} ${fmt(attempt.result!.effect, 3)}, variance ${fmt(attempt.result!.variance, 4)}` : `… ${attempt.error}`) : ''}</p>
+      </div>
+    );
+  }
+  return <input aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)} />;
+}
+
+/** One discrepancy: both coders' values and the curator's decision with a rationale. */
+export function DiscrepancyRow({ row, assignmentId, coders, editable }: { row: Row; assignmentId: number; coders: [string, string]; editable: boolean }) {
+  const resolve = useResolveDiscrepancy(assignmentId);
+  const [choice, setChoice] = useState<'a' | 'b' | 'value'>(row.resolution ?? 'a');
+  const [value, setValue] = useState<unknown>(row.field === 'effect' ? row.valueA : row.valueA ?? undefined);
+  const [rationale, setRationale] = useState(row.rationale ?? '');
+  const [fieldError, setFieldError] = useState<string | null>(null);
+  const structural = row.field === 'studies' || row.field === 'effects';
+  const name = `d${row.id}`;
+  return (
+    <tr className="align-top" data-testid={`discrepancy-${row.id}`}>
+      <td>
+        <strong>{row.label}</strong>
+        <div className="mt-1">
+          <StateBadge state={row.status === 'resolved' ? 'settled' : 'disputed'} /> {row.status === 'resolved' ? `resolved by @${row.resolvedBy}` : 'open'}
+        </div>
+      </td>
+      <td className="text-sm">{showValue(row.field, row.valueA)}</td>
+      <td className="text-sm">{showValue(row.field, row.valueB)}</td>
+      <td className="min-w-80">
+        {editable ? (
+          <form
+            onSubmit={(e) => {
+              e.preventDefault();
+              setFieldError(null);
+              resolve.mutate(
+                { assignmentId, id: row.id, resolution: choice, value: choice === 'value' ? value : undefined, rationale },
+                {
+                  onError: (err) => {
+                    if (err instanceof ApiRequestError) setFieldError(err.fieldErrors()['rationale'] ?? null);
+                  },
+                },
+              );
+            }}
+          >
+            <fieldset>
+              <legend className="sr-only">Decision for {row.label}</legend>
+              <label className="mr-3 text-sm">
+                <input type="radio" name={name} checked={choice === 'a'} onChange={() => setChoice('a')} /> Take @{coders[0]}
+              </label>
+              <label className="mr-3 text-sm">
+                <input type="radio" name={name} checked={choice === 'b'} onChange={() => setChoice('b')} /> Take @{coders[1]}
+              </label>
+              {!structural && (
+                <label className="text-sm">
+                  <input type="radio" name={name} checked={choice === 'value'} onChange={() => setChoice('value')} /> Enter a value
+                </label>
+              )}
+            </fieldset>
+            {choice === 'value' && <OwnValue row={row} value={value} onChange={setValue} />}
+            <label className="mt-1 block text-xs font-semibold text-ink-soft">
+              Rationale
+              <textarea className="block w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm font-normal" rows={2} value={rationale} onChange={(e) => setRationale(e.target.value)} aria-invalid={!!fieldError} />
+            </label>
+            {fieldError && <span className="text-xs text-refusal">✕ {fieldError}</span>}
+            <Button type="submit" className="mt-1" disabled={resolve.isPending}>
+              {row.status === 'resolved' ? 'Change decision' : 'Save decision'}
+            </Button>
+            {resolve.isSuccess && <span className="ml-2 text-xs">✓ Saved</span>}
+            {resolve.error && !fieldError && <ErrorNote error={resolve.error} />}
+          </form>
+        ) : (
+          <p className="text-sm">
+            {row.resolution ? `${row.resolution === 'value' ? 'own value' : `took @${coders[row.resolution === 'a' ? 0 : 1]}`}: ${row.rationale}` : '—'}
+          </p>
+        )}
+      </td>
+    </tr>
+  );
+}
