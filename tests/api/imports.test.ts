@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { bib, clearSearch, eventually, THREE_GOOD_ONE_BAD } from '../support/references.js';
+import { DEMO_IMPORT_LABEL, seed as seedDemoReferences } from '../../seeds/02_demo_references.js';
 
 describe('imports', () => {
   let t: TestApp;
@@ -112,5 +113,20 @@ describe('imports', () => {
       return r.body.batch.state === 'done' ? r.body : undefined;
     });
     expect(second.entries[0]).toMatchObject({ status: 'duplicate', referenceId: byIndex[1].referenceId });
+  });
+
+  it('the demo seed makes one batch with a rejected entry and a likely duplicate, and adds nothing when run again', async () => {
+    await seedDemoReferences(t.ctx.db);
+    const before = await t.ctx.db('refs').count({ n: '*' }).first();
+    await seedDemoReferences(t.ctx.db);
+    expect(await t.ctx.db('refs').count({ n: '*' }).first()).toEqual(before);
+    const batches = await t.ctx.db('import_batches').where({ label: DEMO_IMPORT_LABEL });
+    expect(batches).toHaveLength(1);
+    const report = await coder.get(`/api/imports/${batches[0].id}`);
+    expect(report.body.batch.counts).toMatchObject({ imported: 8, rejected: 1 });
+    expect(report.body.entries.filter((e: { likelyDuplicateOf?: number }) => e.likelyDuplicateOf)).toHaveLength(1);
+    const paged = await coder.get(`/api/imports/${batches[0].id}?entryPage=1&entryPageSize=2&entryStatus=imported`);
+    expect(paged.body.entries).toHaveLength(2);
+    expect(paged.body.entriesTotal).toBe(8);
   });
 });
