@@ -1,4 +1,4 @@
-const LN_SQRT_2PI = 0.918938533204672741780329736406;
+const LN_SQRT_2PI = 0.9189385332046728; // ln √(2π)
 
 /**
  * Stirling's series remainder lgamma(x) − [(x − ½)ln x − x + ln√(2π)] for x ≥ 10 (Abramowitz &

@@ -1,6 +1,6 @@
 import { stirlingError } from './log-gamma.js';
 
-const SQRT_2PI = 2.506628274631000502415765284811;
+const SQRT_2PI = 2.5066282746310002; // √(2π)
 
 /** Loader's deviance term bd0(x, m) = x ln(x/m) + m − x, computed without cancellation near x = m (Loader 2000). */
 export function devianceTerm(x: number, m: number): number {
