@@ -1,6 +1,6 @@
 import { stirlingError } from './log-gamma.js';
 
-const SQRT_2PI = 2.5066282746310002; // √(2π)
+const SQRT_2PI = 2.5066282746310007; // √(2π), the double nearest to 2.50662827463100050…
 
 /** Loader's deviance term bd0(x, m) = x ln(x/m) + m − x, computed without cancellation near x = m (Loader 2000). */
 export function devianceTerm(x: number, m: number): number {
