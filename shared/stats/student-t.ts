@@ -19,6 +19,22 @@ export function tTwoTailed(t: number, df: number): number {
   const y = t2 / s;
   const logX = -Math.log1p(t2 / df);
   const logY = Math.log(t2) - Math.log(s);
+  if (t2 < 16 && y <= 0.5) {
+    // Near the centre the continued fraction for I_x(df/2, ½) converges slowly at large df and its
+    // rounding builds up (~1e-11 at df = 10⁶, t = 2); there p ≥ 6e-5, so 1 − I_y(½, df/2) from the
+    // all-positive power series I_y(b, a) = yᵇxᵃ/(b·B(a, b)) · Σₙ (a + b)ₙ/(b + 1)ₙ · yⁿ is accurate instead.
+    const a = df / 2;
+    const b = 0.5;
+    let term = 1;
+    let sum = 1;
+    for (let n = 0; n < 100000; n++) {
+      term *= ((a + b + n) / (b + 1 + n)) * y;
+      sum += term;
+      if (term < 1e-17 * sum) break;
+    }
+    const central = Math.exp(b * logY + a * logX - logBeta(a, b)) * (sum / b);
+    return 1 - central;
+  }
   return regularizedBeta(x, y, df / 2, 0.5, logX, logY).lower;
 }
 
