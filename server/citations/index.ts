@@ -56,7 +56,11 @@ export async function resolveDoi(doi: string, timeoutMs: number): Promise<Record
     timer = setTimeout(() => reject(new DoiLookupError(`the DOI resolver did not answer within ${(timeoutMs / 1000).toFixed(1)} s`, 'timeout')), timeoutMs);
   });
   try {
-    const list = (await Promise.race([plugins.input.chainAsync(doi, { target: '@csl/list+object', generateGraph: false }), timeout])) as Record<string, unknown>[];
+    // The URL is built here and typed as a DOI API address, so DOIs with characters citation-js's own DOI
+    // pattern does not accept (parentheses are fine, `{` or `$` are not) still go through the plugin.
+    const url = `https://doi.org/${doi.split('/').map(encodeURIComponent).join('/')}`;
+    const chain = plugins.input.chainAsync(url, { target: '@csl/list+object', generateGraph: false, forceType: '@doi/api' });
+    const list = (await Promise.race([chain, timeout])) as Record<string, unknown>[];
     const record = list?.[0];
     if (!record || !record.title) throw new DoiLookupError('the resolver returned a record without a title', 'bad_record');
     return record;

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { AppContext } from '../context.js';
-import type { ImportBatchView, ImportEntryView, ImportFormat, ImportResult } from '../../shared/schemas/references.js';
+import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportFormat, type ImportResult } from '../../shared/schemas/references.js';
 import { resolveDoi, setDoiResolver } from '../citations/index.js';
 import { NotFoundError } from '../lib/errors.js';
 import { recordAudit } from './audit.js';
@@ -199,7 +199,7 @@ export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 
   const worker = async () => {
     while (next < rows.length) {
       const row = rows[next++];
-      const doi = row.entry_key!.trim();
+      const doi = normaliseDoi(row.entry_key) ?? row.entry_key!.trim();
       const where = `Line ${row.idx}`;
       let update: Partial<EntryRow>;
       try {

@@ -82,4 +82,26 @@ export const specs: Spec[] = [
       await page.getByText('This page needs the Curator role.').waitFor();
     },
   },
+  {
+    name: 'a DOI list resolves in the background and the report shows what happened to each DOI; a signed-out reader can open a reference',
+    async run(page) {
+      await signInThroughPage(page, 'coder2');
+      await page.goto(appUrl('/import'));
+      await page.getByRole('radio', { name: 'DOI list' }).check();
+      await page.getByLabel('DOIs').fill(`10.5555/chrono.2019.007\nhttps://doi.org/10.5555/chrono.2020.021\n10.5555/unknown.{${stamp}}\nnot-a-doi`);
+      await page.getByRole('button', { name: 'Import', exact: true }).click();
+      await page.getByRole('heading', { name: 'Import report' }).waitFor();
+      await page.getByText('✓ Finished: 4 entries read.').waitFor({ timeout: 30_000 });
+      assert.equal(await page.locator('[data-count="rejected"]').innerText(), '2');
+      await page.getByText(`10.5555/unknown.{${stamp}}: no such DOI at the resolver (404)`).waitFor();
+      await page.getByText('"not-a-doi" is not a DOI').waitFor();
+      const link = page.getByRole('row', { name: /chrono\.2019\.007/ }).getByRole('link');
+      const href = await link.getAttribute('href');
+      await signOut(page);
+      await page.goto(appUrl(href!));
+      await page.getByRole('heading', { level: 1, name: 'Audiovisual simultaneity windows in older adults' }).waitFor();
+      await page.getByText('No decision yet.').waitFor();
+      assert.equal(await page.getByRole('button', { name: 'Record decision' }).count(), 0);
+    },
+  },
 ];

@@ -11,30 +11,30 @@ const STATUS_WORDS: Record<string, string> = { unscreened: '○ unscreened', inc
 /** Search over the index, with the filters and counts in the address so a search can be shared. */
 export function SearchPanel() {
   const [params, setParams] = useSearchParams();
+  // The inputs own the state (so a click shows at once); the address follows, so a search can be shared.
   const [typed, setTyped] = useState(params.get('q') ?? '');
-  const q = params.get('q') ?? '';
-  const status = params.get('status') ?? '';
-  const yearFrom = params.get('yearFrom') ?? '';
-  const yearTo = params.get('yearTo') ?? '';
-  const page = Number(params.get('page') ?? 1) || 1;
+  const [q, setQ] = useState(params.get('q') ?? '');
+  const [status, setStatus] = useState(params.get('status') ?? '');
+  const [yearFrom, setYearFrom] = useState(params.get('yearFrom') ?? '');
+  const [yearTo, setYearTo] = useState(params.get('yearTo') ?? '');
+  const [page, setPage] = useState(Number(params.get('page') ?? 1) || 1);
   const limit = 20;
-  const set = (patch: Record<string, string>) =>
-    setParams(
-      (p) => {
-        const next = new URLSearchParams(p);
-        for (const [k, v] of Object.entries(patch)) {
-          if (v) next.set(k, v);
-          else next.delete(k);
-        }
-        if (!('page' in patch)) next.delete('page');
-        return next;
-      },
-      { replace: true },
-    );
+  const set = (patch: { q?: string; status?: string; yearFrom?: string; yearTo?: string; page?: string }) => {
+    if (patch.q !== undefined) setQ(patch.q);
+    if (patch.status !== undefined) setStatus(patch.status);
+    if (patch.yearFrom !== undefined) setYearFrom(patch.yearFrom);
+    if (patch.yearTo !== undefined) setYearTo(patch.yearTo);
+    setPage(patch.page ? Number(patch.page) : 1);
+  };
   useEffect(() => {
     const t = setTimeout(() => typed !== q && set({ q: typed }), 250);
     return () => clearTimeout(t);
   });
+  useEffect(() => {
+    const next = new URLSearchParams();
+    for (const [k, v] of Object.entries({ q, status, yearFrom, yearTo, page: page > 1 ? String(page) : '' })) if (v) next.set(k, v);
+    if (next.toString() !== params.toString()) setParams(next, { replace: true });
+  }, [q, status, yearFrom, yearTo, page, params, setParams]);
   const year = (s: string) => (/^\d{4}$/.test(s) ? Number(s) : undefined);
   const { data, error, isLoading, isFetching } = useSearch({
     q,
