@@ -13,10 +13,15 @@ export interface BubbleInput {
 /** A bubble plot for a one-moderator meta-regression: effect against the moderator, area ∝ weight, the fitted line. */
 export function bubbleFigure(input: BubbleInput): PlotFigure {
   const digits = metricDigits(input.metric);
-  const maxW = Math.max(1e-9, ...input.points.map((p) => p.weight));
   const xs = input.points.map((p) => p.x);
-  const x0 = Math.min(...xs);
-  const x1 = Math.max(...xs);
+  let maxW = 1e-9;
+  let x0 = Infinity;
+  let x1 = -Infinity;
+  for (const p of input.points) {
+    if (p.weight > maxW) maxW = p.weight;
+    if (p.x < x0) x0 = p.x;
+    if (p.x > x1) x1 = p.x;
+  }
   const data: Array<Record<string, unknown>> = [
     {
       type: 'scatter',

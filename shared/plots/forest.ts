@@ -122,7 +122,8 @@ export function forestFigure(input: ForestInput): PlotFigure {
   const colCi = { y: [] as number[], text: [] as string[] };
   const colW = { y: [] as number[], text: [] as string[] };
   const diamonds: Array<Record<string, unknown>> = [];
-  const maxW = Math.max(1e-9, ...studies.map((s) => s.weight));
+  let maxW = 1e-9;
+  for (const s of studies) if (s.weight > maxW) maxW = s.weight;
 
   rows.forEach((r, i) => {
     const y = -i;

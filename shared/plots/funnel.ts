@@ -13,7 +13,7 @@ export interface FunnelInput {
   maxPoints?: number;
 }
 
-export const FUNNEL_MAX_POINTS = 5000;
+export const FUNNEL_MAX_POINTS = 2000;
 const Z95 = 1.959963984540054;
 
 /** Evenly spaced subset by SE order, so a huge funnel keeps its shape. */
@@ -32,9 +32,11 @@ function thin<T>(items: T[], max: number, key: (t: T) => number): T[] {
 export function funnelFigure(input: FunnelInput): PlotFigure {
   const digits = metricDigits(input.metric);
   const pts = thin(input.studies, input.maxPoints ?? FUNNEL_MAX_POINTS, (s) => s.variance);
-  const ses = input.studies.map((s) => Math.sqrt(s.variance));
   const filled = input.trimFill?.filled ?? [];
-  const maxSe = Math.max(...ses, ...filled.map((f) => Math.sqrt(f.variance)), 1e-9) * 1.08;
+  let maxV = 1e-18;
+  for (const s of input.studies) if (s.variance > maxV) maxV = s.variance;
+  for (const f of filled) if (f.variance > maxV) maxV = f.variance;
+  const maxSe = Math.sqrt(maxV) * 1.08;
   const m = input.pooled;
   const show = !!input.showTrimFill;
   const data: Array<Record<string, unknown>> = [

@@ -30,6 +30,10 @@ export class NoEffectsError extends Error {
 export const SENSITIVITY_MAX_STUDIES = 1000;
 /** REML and Paule–Mandel refit every subset: beyond this many studies the refits are skipped. */
 const ITERATIVE_REFIT_MAX = 400;
+/** Code-point order: localeCompare (ICU) costs more than the whole pooling for a few hundred studies. */
+const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+/** Trim-and-fill re-ranks every study each round: beyond this it is skipped (stated in `unavailable`). */
+const TRIMFILL_MAX_STUDIES = 3000;
 /** Begg's test is O(k²) in pairs. */
 const BEGG_MAX_STUDIES = 3000;
 
@@ -82,7 +86,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   const sg = request.subgroup;
   const units = applyDependence(effects, request.dependence)
     .map((u) => ({ u, group: sg ? subgroupValue(u, sg) : undefined }))
-    .sort((a, b) => (a.group ?? '').localeCompare(b.group ?? '') || (a.u.year ?? 9999) - (b.u.year ?? 9999) || a.u.label.localeCompare(b.u.label) || a.u.studyId - b.u.studyId);
+    .sort((a, b) => cmp(a.group ?? '', b.group ?? '') || (a.u.year ?? 9999) - (b.u.year ?? 9999) || cmp(a.u.label, b.u.label) || a.u.studyId - b.u.studyId);
   const k = units.length;
   const y = new Float64Array(k);
   const v = new Float64Array(k);
@@ -92,19 +96,12 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   });
   const result = pool({ effects: y, variances: v, ...opts });
 
-  const rows: PooledRow[] = units.map(({ u, group }, i) => ({
-    studyId: u.studyId,
-    referenceId: u.referenceId,
-    label: u.label,
-    effect: u.effect,
-    variance: u.variance,
-    year: u.year,
-    n: u.n,
-    effectIds: u.effects.map((e) => e.id),
-    ...(group !== undefined ? { subgroup: group } : {}),
-    ...(request.moderator ? { moderator: moderatorValue(u, request.moderator) } : {}),
-    weight: result.weights[i],
-  }));
+  const rows: PooledRow[] = units.map(({ u, group }, i) => {
+    const row: PooledRow = { studyId: u.studyId, referenceId: u.referenceId, label: u.label, effect: u.effect, variance: u.variance, year: u.year, n: u.n, effectIds: u.effects.map((e) => e.id), weight: result.weights[i] };
+    if (group !== undefined) row.subgroup = group;
+    if (request.moderator) row.moderator = moderatorValue(u, request.moderator);
+    return row;
+  });
 
   // Subgroups: a separate τ² within each, compared with Q between the subgroup estimates (Borenstein et al. 2009, ch. 19).
   let subgroups: SubgroupComparison | null = null;
@@ -143,14 +140,15 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   let cumulativeRows: SensitivityRow[] | null = null;
   if (refitsAllowed('cumulative')) {
     // by year, then label; studies without a year last
-    const order = [...identity].sort((a, b) => (units[a].u.year ?? 9999) - (units[b].u.year ?? 9999) || units[a].u.label.localeCompare(units[b].u.label));
+    const order = [...identity].sort((a, b) => (units[a].u.year ?? 9999) - (units[b].u.year ?? 9999) || cmp(units[a].u.label, units[b].u.label));
     cumulativeRows = attempt('cumulative', () =>
       sensitivityRows(cumulative({ effects: order.map((i) => y[i]), variances: order.map((i) => v[i]), ...opts }), order),
     );
   }
 
-  const tf = k >= 3 ? attempt('trim-and-fill', () => trimFill({ effects: y, variances: v, ...opts })) : null;
+  const tf = k >= 3 && k <= TRIMFILL_MAX_STUDIES ? attempt('trim-and-fill', () => trimFill({ effects: y, variances: v, ...opts })) : null;
   if (k < 3) unavailable.push({ analysis: 'trim-and-fill', reason: 'needs at least 3 studies' });
+  if (k > TRIMFILL_MAX_STUDIES) unavailable.push({ analysis: 'trim-and-fill', reason: `re-ranks every study in each round; not run for more than ${TRIMFILL_MAX_STUDIES} studies (${k} here)` });
   let beggResult: SynthesisOutput['begg'] = null;
   if (k < 3) unavailable.push({ analysis: "Begg's test", reason: 'needs at least 3 studies' });
   else if (k > BEGG_MAX_STUDIES) unavailable.push({ analysis: "Begg's test", reason: `compares every pair of studies; not run for more than ${BEGG_MAX_STUDIES} studies (${k} here)` });

@@ -1,0 +1,141 @@
+// Benchmarks for issue 6: `npm run bench -- synthesis`.
+// Rows are SYNTHETIC (bulk-made here, under the manipulation terms synthetic_bench_large / synthetic_bench_small,
+// DOIs 10.5555/synthetic.*), never part of the demo seeds. The server runs as its own process (server/index.ts)
+// so autocannon does not share its event loop.
+//   1. POST /api/syntheses over 50,000 settled effects (20,000 studies): p95 < 300 ms (sequential requests).
+//   2. GET /api/atlas/manipulations/:term/pooled: 2,000 req/s for 30 s with no errors (cached by registry version).
+//   3. POST /api/syntheses over ~200 effects, uncached: 300 req/s.
+import { spawn } from 'node:child_process';
+import autocannon from 'autocannon';
+import { createDb } from '../../server/db/knex.js';
+import { ensureVocabulary } from '../../server/services/manipulations.js';
+import { ensureDemoPeople } from '../../seeds/01_demo_people.js';
+
+const url = process.env.DATABASE_URL!;
+if (!/chronometa_bench/.test(url)) throw new Error('run with npm run bench (it brings up chronometa_bench)');
+const origin = process.env.APP_ORIGIN!;
+const db = createDb(url);
+
+/** SYNTHETIC settled records: `refs` references, `studiesPer` studies each, effects per study cycling through `effectsPer`. */
+async function bulkSynthetic(term: string, refs: number, studiesPer: number, effectsPer: number[], seed: number) {
+  const existing = await db('manipulations').where({ term }).first('id');
+  if (existing) {
+    const [{ n }] = await db('effects').where({ manipulation_id: existing.id }).count<{ n: string }[]>({ n: '*' });
+    return Number(n);
+  }
+  const [m] = await db('manipulations')
+    .insert({ term, label: `SYNTHETIC ${term} (benchmark only)`, description: 'Synthetic rows made by tests/bench/synthesis.bench.ts; not research data.' })
+    .returning('id');
+  const cycle = `ARRAY[${effectsPer.join(',')}]`;
+  // deterministic pseudo-random numbers from sin() so reruns are identical
+  await db.raw(
+    `
+    WITH r AS (
+      INSERT INTO refs (csl, doi, title, year, first_author, title_key, source, screening_status)
+      SELECT jsonb_build_object('type','article-journal','title','SYNTHETIC benchmark reference ' || g, 'DOI', '10.5555/synthetic.${term}.' || g),
+             '10.5555/synthetic.${term}.' || g, 'SYNTHETIC benchmark reference ' || g, 1990 + (g % 35), 'Synthetic' || (g % 97), 'synthetic ${term} ' || g, 'manual', 'included'
+      FROM generate_series(1, ?) g RETURNING id
+    ), x AS (
+      INSERT INTO extractions (reference_id, kind, state, record_version, settled_at, submitted_at)
+      SELECT id, 'settled', 'settled', 1, now(), now() FROM r RETURNING id, reference_id
+    ), s AS (
+      INSERT INTO studies (reference_id) SELECT x.reference_id FROM x, generate_series(1, ?) p RETURNING id, reference_id
+    ), es AS (
+      INSERT INTO extraction_studies (extraction_id, study_id, position, label, design, n1, n2, population, modality, task, standard_ms)
+      SELECT x.id, s.id, row_number() OVER (PARTITION BY x.id ORDER BY s.id), 'Synthetic study', 'between', 20 + (s.id % 30), 20 + (s.id % 30),
+             'healthy_adults', CASE WHEN s.id % 3 = 0 THEN 'auditory' ELSE 'visual' END, 'reproduction', 200 + (s.id % 40) * 50
+      FROM s JOIN x ON x.reference_id = s.reference_id RETURNING id, extraction_id, study_id
+    )
+    INSERT INTO effects (extraction_id, extraction_study_id, position, label, outcome, manipulation_id, report_form, metric, effect, variance, formula, n_total)
+    SELECT es.extraction_id, es.id, e, 'synthetic', 'duration_distortion', ?, 'smd', 'hedges_g',
+           0.3 + 0.25 * sin(es.id * 12.9898 + e * 78.233 + ?), 0.02 + 0.15 * abs(sin(es.id * 3.1 + e + ?)), 'smd_independent', 40 + 2 * (es.id % 30)
+    FROM es, generate_series(1, (${cycle})[1 + es.study_id % ${effectsPer.length}]) e
+  `,
+    [refs, studiesPer, m.id, seed, seed],
+  );
+  await db('registry_changes').insert({ kind: 'bench.synthetic', details: JSON.stringify({ term }) });
+  const [{ n }] = await db('effects').where({ manipulation_id: m.id }).count<{ n: string }[]>({ n: '*' });
+  return Number(n);
+}
+
+function percentile(xs: number[], p: number) {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)];
+}
+
+async function waitFor(u: string) {
+  for (let i = 0; i < 120; i++) {
+    try {
+      if ((await fetch(u)).ok) return;
+    } catch {
+      // not up yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`server did not come up at ${u}`);
+}
+
+const cannon = (opts: autocannon.Options) =>
+  new Promise<autocannon.Result>((resolve, reject) => {
+    autocannon(opts, (err, res) => (err ? reject(err) : resolve(res)));
+  });
+
+let server: ReturnType<typeof spawn> | undefined;
+let failed = false;
+try {
+  await ensureDemoPeople(db);
+  await ensureVocabulary(db);
+  let t = performance.now();
+  const large = await bulkSynthetic('synthetic_bench_large', 10_000, 2, [3, 2], 1);
+  const small = await bulkSynthetic('synthetic_bench_small', 50, 2, [2], 2);
+  console.log(`synthetic rows: ${large} effects (large), ${small} effects (small), made in ${((performance.now() - t) / 1000).toFixed(1)} s`);
+
+  server = spawn('node_modules/.bin/tsx', ['server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] });
+  await waitFor(`${origin}/api/health`);
+
+  const body = (term: string) => JSON.stringify({ filters: { manipulation: term, metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } });
+
+  // 1. large synthesis, sequential
+  const times: number[] = [];
+  let studies = 0;
+  for (let i = 0; i < 33; i++) {
+    t = performance.now();
+    const res = await fetch(`${origin}/api/syntheses`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: body('synthetic_bench_large') });
+    const json = (await res.json()) as { result?: { k: number }; counts?: { effects: number } };
+    if (!res.ok) throw new Error(`synthesis answered ${res.status}: ${JSON.stringify(json).slice(0, 300)}`);
+    if (i >= 3) times.push(performance.now() - t); // first three warm the JIT and the pool
+    studies = json.result!.k;
+  }
+  const p95 = percentile(times, 95);
+  console.log(
+    `1. synthesis over ${large} effects (${studies} studies after aggregation): p50 ${percentile(times, 50).toFixed(0)} ms, p95 ${p95.toFixed(0)} ms over ${times.length} requests (target p95 < 300 ms: ${p95 < 300 ? 'met' : 'MISSED'})`,
+  );
+  if (p95 >= 300) failed = true;
+
+  // 2. atlas pooled estimate, cached by registry version
+  const atlas = await cannon({ url: `${origin}/api/atlas/manipulations/synthetic_bench_small/pooled`, connections: 32, pipelining: 1, duration: 30 });
+  const atlasErrors = atlas.errors + atlas.timeouts + atlas.non2xx;
+  console.log(
+    `2. atlas pooled estimate: ${atlas.requests.average.toFixed(0)} req/s average (min ${atlas.requests.min}/s), ${atlas.requests.total} requests in 30 s, latency p99 ${atlas.latency.p99} ms, errors ${atlasErrors} (target 2,000/s, no errors: ${atlas.requests.average >= 2000 && atlasErrors === 0 ? 'met' : 'MISSED'})`,
+  );
+  if (atlas.requests.average < 2000 || atlasErrors) failed = true;
+
+  // 3. uncached synthesis over ~200 effects
+  const synth = await cannon({
+    url: `${origin}/api/syntheses`,
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: body('synthetic_bench_small'),
+    connections: 16,
+    duration: 20,
+  });
+  const synthErrors = synth.errors + synth.timeouts + synth.non2xx;
+  console.log(
+    `3. uncached synthesis over ${small} effects: ${synth.requests.average.toFixed(0)} req/s average (min ${synth.requests.min}/s), latency p50 ${synth.latency.p50} ms, p99 ${synth.latency.p99} ms, errors ${synthErrors} (target 300/s: ${synth.requests.average >= 300 && synthErrors === 0 ? 'met' : 'MISSED'})`,
+  );
+  if (synth.requests.average < 300 || synthErrors) failed = true;
+} finally {
+  server?.kill('SIGTERM');
+  await db.destroy();
+}
+if (failed) process.exitCode = 1;
