@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { cloneElement, useCallback, useEffect, useId, useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type Resolver, type UseFormRegister } from 'react-hook-form';
 import { DEFAULT_ASSUMED_R, REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type Reported } from '../../../../shared/extraction/compute';
 import { effectWarnings, studyWarnings } from '../../../../shared/extraction/warnings';
@@ -38,18 +38,26 @@ function errorAt(errors: FieldErrors<Sheet>, path: string): string | undefined {
 
 const inputCls = 'w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm aria-[invalid=true]:border-refusal';
 
-function Field({ label, error, children, hint }: { label: string; error?: string; children: React.ReactNode; hint?: string }) {
+function Field({ label, error, children, hint }: { label: string; error?: string; children: React.ReactElement<Record<string, unknown>>; hint?: string }) {
+  const id = useId();
+  // An explicit label (not a wrapping one), so a select's chosen option never becomes part of its name.
   return (
-    <label className="block text-sm">
-      <span className="block text-xs font-semibold text-ink-soft">{label}</span>
-      {children}
-      {hint && <span className="block text-xs text-ink-faint">{hint}</span>}
+    <div className="text-sm">
+      <label htmlFor={id} className="block text-xs font-semibold text-ink-soft">
+        {label}
+      </label>
+      {cloneElement(children, { id, 'aria-describedby': error ? `${id}-error` : hint ? `${id}-hint` : undefined })}
+      {hint && (
+        <span id={`${id}-hint`} className="block text-xs text-ink-faint">
+          {hint}
+        </span>
+      )}
       {error && (
-        <span className="block text-xs text-refusal" role="alert">
+        <span id={`${id}-error`} className="block text-xs text-refusal" role="alert">
           ✕ {error}
         </span>
       )}
-    </label>
+    </div>
   );
 }
 
