@@ -97,9 +97,19 @@ export const specs: Spec[] = [
       await page.getByText('"not-a-doi" is not a DOI').waitFor();
       const link = page.getByRole('row', { name: /chrono\.2019\.007/ }).getByRole('link');
       const href = await link.getAttribute('href');
+      // Editing: a wrong year is named beside its field; a good edit shows at once.
+      await page.goto(appUrl(href!));
+      await page.getByRole('button', { name: /^Edit title, authors/ }).click();
+      await page.getByLabel('Year').fill('19');
+      await page.getByRole('button', { name: 'Save changes' }).click();
+      await page.getByText('✕ a year has four digits').waitFor();
+      await page.getByLabel('Year').fill('2019');
+      await page.getByLabel('Title').fill('Audiovisual simultaneity windows in older adults (corrected)');
+      await page.getByRole('button', { name: 'Save changes' }).click();
+      await page.getByRole('heading', { level: 1, name: 'Audiovisual simultaneity windows in older adults (corrected)' }).waitFor();
       await signOut(page);
       await page.goto(appUrl(href!));
-      await page.getByRole('heading', { level: 1, name: 'Audiovisual simultaneity windows in older adults' }).waitFor();
+      await page.getByRole('heading', { level: 1, name: 'Audiovisual simultaneity windows in older adults (corrected)' }).waitFor();
       await page.getByText('No decision yet.').waitFor();
       assert.equal(await page.getByRole('button', { name: 'Record decision' }).count(), 0);
     },
