@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Caution, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useExtraction } from '../../features/extraction/api/get-extraction';
+import { useManipulations } from '../../features/manipulations/api/get-manipulations';
 import { SheetForm } from '../../features/extraction/components/SheetForm';
 import { SheetView } from '../../features/extraction/components/SheetView';
 import { StateBadge } from '../../features/extraction/components/StateBadge';
@@ -11,6 +12,8 @@ export function ExtractionPage() {
   const id = Number(useParams().id);
   const { data, error, isLoading, refetch } = useExtraction(id);
   const [done, setDone] = useState<{ state: string; discrepancies: number } | null>(null);
+  // The sheet's manipulation lists need the vocabulary before the form sets its values.
+  const vocabulary = useManipulations({ includeRetired: true, pageSize: 200, sort: 'label' });
   return (
     <RequireRole role="contributor">
       {isLoading && <Loading what="Opening the sheet" />}
@@ -33,8 +36,12 @@ export function ExtractionPage() {
               {done.state === 'disputed' && `≠ The codings differ on ${done.discrepancies} field(s); a curator will reconcile them.`}
             </div>
           )}
+          {data.extraction.editable && !done && vocabulary.isLoading && <Loading what="Loading the vocabulary" />}
+          <ErrorNote error={vocabulary.error} />
           {data.extraction.editable && !done ? (
-            <SheetForm key={data.extraction.version} detail={data} onSubmitted={(r) => (setDone(r), void refetch())} onReload={() => void refetch()} />
+            vocabulary.data && (
+              <SheetForm key={data.extraction.version} detail={data} onSubmitted={(r) => (setDone(r), void refetch())} onReload={() => void refetch()} />
+            )
           ) : (
             <SheetView studies={data.studies} />
           )}

@@ -75,11 +75,11 @@ export function ReconcilePairPage() {
           <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
             <section aria-label={`Sheet of @${data.assignment.coder1}`}>
               <h3 className="font-bold">A: @{data.assignment.coder1}</h3>
-              <SheetView studies={data.a?.studies ?? []} />
+              <SheetView compact studies={data.a?.studies ?? []} />
             </section>
             <section aria-label={`Sheet of @${data.assignment.coder2}`}>
               <h3 className="font-bold">B: @{data.assignment.coder2}</h3>
-              <SheetView studies={data.b?.studies ?? []} />
+              <SheetView compact studies={data.b?.studies ?? []} />
             </section>
           </div>
         </>

@@ -97,7 +97,7 @@ export function RecordPage() {
                     <th className="num">Version</th>
                     <th>State</th>
                     <th>Current</th>
-                    <th>Created (UTC)</th>
+                    <th className="num">Created (UTC)</th>
                   </tr>
                 </thead>
                 <tbody>
@@ -118,7 +118,7 @@ export function RecordPage() {
               <table className="mt-2">
                 <thead>
                   <tr>
-                    <th>When (UTC)</th>
+                    <th className="num">When (UTC)</th>
                     <th>What</th>
                     <th>By</th>
                     <th>Rationale</th>

@@ -5,7 +5,7 @@ import type { StoredStudy } from '../api/types';
 import { fmt } from './labels';
 
 /** A read-only, printable view of a sheet (a submitted coding or a settled record). */
-export function SheetView({ studies }: { studies: StoredStudy[] }) {
+export function SheetView({ studies, compact = false }: { studies: StoredStudy[]; compact?: boolean }) {
   if (!studies.length) return <p className="text-ink-soft">No studies coded.</p>;
   return (
     <div>
@@ -19,39 +19,43 @@ export function SheetView({ studies }: { studies: StoredStudy[] }) {
             {s.n2 != null ? ` + ${s.n2}` : ''} · {s.population ?? '—'}
             {s.diagnosis ? ` (${s.diagnosis})` : ''} · {s.modality ?? '—'} · {s.task ?? '—'} · standard {s.standardMs != null ? `${s.standardMs} ms` : '—'}
           </p>
-          <table className="mt-1">
-            <thead>
-              <tr>
-                <th>#</th>
-                <th>Label</th>
-                <th>Outcome</th>
-                <th>Manipulation</th>
-                <th>Metric</th>
-                <th className="num">Effect (3 dp)</th>
-                <th className="num">Variance (4 dp)</th>
-                <th>Formula</th>
-                <th>Provenance</th>
-              </tr>
-            </thead>
-            <tbody>
-              {s.effects.map((e, j) => (
-                <tr key={e.id}>
-                  <td className="num">{j + 1}</td>
-                  <td>{e.label}</td>
-                  <td>{e.outcome ?? '—'}</td>
-                  <td>{e.manipulation ?? '—'}</td>
-                  <td>{e.computed ? METRIC_LABELS[e.computed.metric as Metric] : '—'}</td>
-                  <td className="num">{fmt(e.computed?.effect, 3)}</td>
-                  <td className="num">{fmt(e.computed?.variance, 4)}</td>
-                  <td className="text-xs">
-                    {e.computed ? formulas[e.computed.formula]?.label ?? e.computed.formula : '—'}
-                    {e.computed?.assumedR != null && <span className="text-caution-dark"> · ⚠ r = {e.computed.assumedR} assumed</span>}
-                  </td>
-                  <td className="text-xs">{[e.page && `p. ${e.page}`, e.locator, e.quote && `“${e.quote}”`].filter(Boolean).join(' · ')}</td>
+          <div className="overflow-x-auto">
+            <table className="mt-1">
+              <thead>
+                <tr>
+                  <th>#</th>
+                  <th>Label</th>
+                  <th>Outcome</th>
+                  <th>Manipulation</th>
+                  <th>Metric</th>
+                  <th className="num">Effect (3 dp)</th>
+                  <th className="num">Variance (4 dp)</th>
+                  {!compact && <th>Formula</th>}
+                  <th>Provenance</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {s.effects.map((e, j) => (
+                  <tr key={e.id}>
+                    <td className="num">{j + 1}</td>
+                    <td>{e.label}</td>
+                    <td>{e.outcome ?? '—'}</td>
+                    <td>{e.manipulation ?? '—'}</td>
+                    <td>{e.computed ? METRIC_LABELS[e.computed.metric as Metric] : '—'}</td>
+                    <td className="num">{fmt(e.computed?.effect, 3)}</td>
+                    <td className="num">{fmt(e.computed?.variance, 4)}</td>
+                    {!compact && (
+                      <td className="text-xs">
+                        {e.computed ? formulas[e.computed.formula]?.label ?? e.computed.formula : '—'}
+                        {e.computed?.assumedR != null && <span className="text-caution-dark"> · ⚠ r = {e.computed.assumedR} assumed</span>}
+                      </td>
+                    )}
+                    <td className="text-xs">{[e.page && `p. ${e.page}`, e.locator, !compact && e.quote && `“${e.quote}”`].filter(Boolean).join(' · ')}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
         </section>
       ))}
     </div>

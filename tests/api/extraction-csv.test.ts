@@ -1,0 +1,30 @@
+import { describe, expect, it } from 'vitest';
+import { parseEffectsCsv } from '../../src/features/extraction/components/CsvImport';
+import { computeReported } from '../../shared/extraction/compute.js';
+
+describe('bulk CSV entry', () => {
+  it('turns good rows into studies and effects and names every bad row by line', () => {
+    const csv = [
+      'study,design,n1_study,population,modality,task,standard_ms,label,outcome,manipulation,form,mean_diff,sd_diff,n,t,mean,sd',
+      'Experiment 1,within,24,healthy_adults,visual,reproduction,600,bright vs dim,duration_distortion,luminance,smd_paired,40,80,24,,,',
+      'Experiment 1,within,24,healthy_adults,visual,reproduction,600,large vs small,duration_distortion,size,smd_paired,,,24,2.9,,',
+      'Experiment 2,within,18,healthy_adults,audiovisual,simultaneity_judgement,,window,simultaneity_window,loudness,raw_mean,,,18,,260,70',
+      'Experiment 2,sideways,18,healthy_adults,audiovisual,simultaneity_judgement,,window,simultaneity_window,loudness,raw_mean,,,18,,260,70',
+      'Experiment 3,within,18,healthy_adults,visual,bisection,,oops,duration_distortion,luminance,smd_paired,40,-5,18,,,',
+    ].join('\n');
+    const { rows, errors } = parseEffectsCsv(csv);
+    expect(rows).toHaveLength(3);
+    expect(rows[0].study).toMatchObject({ label: 'Experiment 1', design: 'within', n1: 24, standardMs: 600 });
+    expect(rows[0].effect).toMatchObject({ manipulation: 'luminance', form: 'smd_paired', reported: { mean_diff: 40, sd_diff: 80, n: 24 } });
+    const g = computeReported('smd_paired', rows[0].effect.reported as any, rows[0].effect.assumedR);
+    expect(g.assumedR).toBe(0.5);
+    expect(errors.map((e) => e.row)).toEqual([5, 6]);
+    expect(errors[0].message).toMatch(/design/);
+    expect(errors[1].message).toMatch(/sd_diff must be a positive finite number/);
+  });
+
+  it('refuses unknown columns', () => {
+    const { errors } = parseEffectsCsv('study,colour\nExperiment 1,red');
+    expect(errors[0]).toMatchObject({ row: 1, message: expect.stringMatching(/unknown column: colour/) });
+  });
+});
