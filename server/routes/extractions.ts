@@ -5,7 +5,7 @@ import { saveExtractionSchema, submitExtractionSchema } from '../../shared/schem
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
-import { getExtraction, listMyExtractions, saveDraft, submitExtraction } from '../services/extractions.js';
+import { claimReference, getExtraction, listClaimable, listMyExtractions, saveDraft, submitExtraction } from '../services/extractions.js';
 
 const idParams = z.object({ id: idParam });
 const mineQuery = z.object({
@@ -16,6 +16,14 @@ const mineQuery = z.object({
   order: z.enum(['asc', 'desc']).default('desc'),
 });
 
+const claimableQuery = z.object({
+  q: z.string().trim().max(200).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(15),
+  sort: z.enum(['reference', 'year']).default('reference'),
+  order: z.enum(['asc', 'desc']).default('asc'),
+});
+
 /** Coding sheets: a contributor's own extractions (blind to the other coder of the pair). */
 export function extractionsRouter(ctx: AppContext) {
   const router = Router();
@@ -24,6 +32,16 @@ export function extractionsRouter(ctx: AppContext) {
   router.get('/extractions', async (req, res) => {
     const q = parseInput(mineQuery, req.query, 'query');
     res.json({ ...(await listMyExtractions(ctx.db, req.user!.id, q)), page: q.page, pageSize: q.pageSize });
+  });
+
+  router.get('/extractions/claimable', async (req, res) => {
+    const q = parseInput(claimableQuery, req.query, 'query');
+    res.json({ ...(await listClaimable(ctx.db, req.user!.id, q)), page: q.page, pageSize: q.pageSize });
+  });
+
+  router.post('/extractions', async (req, res) => {
+    const { referenceId } = parseInput(z.object({ referenceId: idParam }), req.body);
+    res.status(201).json(await claimReference(ctx.db, req.user!.id, referenceId));
   });
 
   router.get('/extractions/:id', async (req, res) => {

@@ -58,9 +58,21 @@ export async function createAssignment(ctx: AppContext, actorId: number, input: 
     const [assignment] = await trx('assignments')
       .insert({ reference_id: input.referenceId, coder1_id: input.coder1Id, coder2_id: input.coder2Id, assigned_by: actorId })
       .returning('*');
-    const rows = await trx('extractions')
-      .insert([input.coder1Id, input.coder2Id].map((coder) => ({ reference_id: input.referenceId, assignment_id: assignment.id, kind: 'coding', coder_id: coder, state: 'draft', updated_by: actorId })))
-      .returning(['id', 'coder_id']);
+    // A coder who already claimed the reference keeps that sheet; it joins the pair.
+    const claimed: { id: number; coder_id: number }[] = await trx('extractions')
+      .where({ reference_id: input.referenceId, kind: 'coding' })
+      .whereNull('assignment_id')
+      .whereIn('coder_id', [input.coder1Id, input.coder2Id])
+      .where('state', 'draft')
+      .select('id', 'coder_id');
+    if (claimed.length) await trx('extractions').whereIn('id', claimed.map((c) => c.id)).update({ assignment_id: assignment.id, updated_at: trx.fn.now() });
+    const fresh = [input.coder1Id, input.coder2Id].filter((coder) => !claimed.some((c) => c.coder_id === coder));
+    const created = fresh.length
+      ? await trx('extractions')
+          .insert(fresh.map((coder) => ({ reference_id: input.referenceId, assignment_id: assignment.id, kind: 'coding', coder_id: coder, state: 'draft', updated_by: actorId })))
+          .returning(['id', 'coder_id'])
+      : [];
+    const rows = [...claimed, ...created];
     await recordAudit(trx, { actorId, action: 'assignment.create', entityType: 'assignment', entityId: assignment.id, details: input });
     return { assignment, extractions: rows as { id: number; coder_id: number }[], ref, coders };
   });
@@ -131,6 +143,45 @@ export async function listCandidates(db: Knex, q: { q?: string; status?: 'unassi
     total: Number(count),
     items: rows.map((r: any) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi, assignmentState: r.assignment_state, settled: r.settled })),
   };
+}
+
+/** Included references a contributor may claim: not being double coded, not settled, not already claimed by them. */
+export async function listClaimable(db: Knex, userId: number, q: { q?: string; page: number; pageSize: number; sort: 'reference' | 'year'; order: 'asc' | 'desc' }) {
+  const base = db('refs as r')
+    .whereNull('r.merged_into')
+    .where('r.screening_status', 'included')
+    .whereNotExists(db('assignments as a').whereRaw('a.reference_id = r.id').whereIn('a.state', ['coding', 'disputed']))
+    .whereNotExists(db('extractions as x').whereRaw('x.reference_id = r.id').where('x.kind', 'settled').whereNull('x.superseded_by').whereIn('x.state', ['settled', 'draft']))
+    .whereNotExists(db('extractions as m').whereRaw('m.reference_id = r.id').where({ 'm.kind': 'coding', 'm.coder_id': userId }).whereNot('m.state', 'settled'))
+    .modify((qb) => {
+      if (q.q) qb.where((w) => w.whereILike('r.title', `%${q.q}%`).orWhereILike('r.first_author', `%${q.q}%`));
+    });
+  const [{ count }] = await base.clone().count<{ count: string }[]>({ count: '*' });
+  const rows = await base
+    .clone()
+    .select('r.id', 'r.title', 'r.first_author', 'r.year', 'r.doi')
+    .orderBy(q.sort === 'year' ? 'r.year' : 'r.first_author', q.order)
+    .orderBy('r.id', 'asc')
+    .limit(q.pageSize)
+    .offset((q.page - 1) * q.pageSize);
+  return { total: Number(count), items: rows.map((r: any) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi })) };
+}
+
+/** A contributor claims a reference to code it; a curator later pairs the claim with a second coder. */
+export async function claimReference(db: Knex, actorId: number, referenceId: number) {
+  return db.transaction(async (trx) => {
+    const ref = await trx('refs').where({ id: referenceId }).forUpdate().first();
+    if (!ref) throw new NotFoundError(`No reference ${referenceId}.`);
+    if (ref.merged_into) throw new UnprocessableError(`Reference ${referenceId} was merged into ${ref.merged_into}; claim that one.`);
+    if (ref.screening_status !== 'included') throw new UnprocessableError('Only included references are coded; screen it in first.');
+    const active = await trx('assignments').where({ reference_id: referenceId }).whereIn('state', ['coding', 'disputed']).first('id');
+    if (active) throw new ConflictError(`Reference ${referenceId} is already being double coded (assignment ${active.id}).`);
+    const mine = await trx('extractions').where({ reference_id: referenceId, kind: 'coding', coder_id: actorId }).whereNot('state', 'settled').first('id');
+    if (mine) throw new ConflictError(`You already have a sheet for this reference (extraction ${mine.id}).`, { extractionId: mine.id });
+    const [x] = await trx('extractions').insert({ reference_id: referenceId, kind: 'coding', coder_id: actorId, state: 'draft', updated_by: actorId }).returning('id');
+    await recordAudit(trx, { actorId, action: 'extraction.claim', entityType: 'extraction', entityId: x.id, details: { referenceId } });
+    return { id: x.id as number };
+  });
 }
 
 export async function listCoders(db: Knex) {

@@ -12,6 +12,8 @@ describeAccess(
     { method: 'post', path: '/api/manipulations', body: { term: 'colour_saturation', label: 'Colour saturation' }, who: ['curator'], bad: { body: { term: 'Not A Slug', label: '' } } },
     { method: 'patch', path: '/api/manipulations/luminance', body: { version: 999, label: 'Luminance' }, who: ['curator'], bad: { path: '/api/manipulations/BAD%20TERM', body: { version: 1 } } },
     { method: 'get', path: '/api/extractions', who: ['contributor'], bad: { path: '/api/extractions?state=lost' } },
+    { method: 'get', path: '/api/extractions/claimable', who: ['contributor'], bad: { path: '/api/extractions/claimable?sort=colour' } },
+    { method: 'post', path: '/api/extractions', body: { referenceId: 999999 }, who: ['contributor'], bad: { body: { referenceId: 'abc' } } },
     { method: 'get', path: (ids) => `/api/extractions/${ids.extraction}`, who: ['contributor'], bad: { path: '/api/extractions/0' } },
     { method: 'put', path: '/api/extractions/999999', body: { version: 99, sheet: { studies: [] } }, who: ['contributor'], bad: { body: { version: 'x' } } },
     { method: 'post', path: '/api/extractions/999999/submit', body: { version: 99 }, who: ['contributor'], bad: { body: {} } },

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseEffectsCsv } from '../../src/features/extraction/components/CsvImport';
+import { parseEffectsCsv } from '../../shared/extraction/csv.js';
 import { computeReported } from '../../shared/extraction/compute.js';
 
 describe('bulk CSV entry', () => {

@@ -187,3 +187,34 @@ describe('double coding over the API: assign, blind coding, dispute, reconcile, 
     }
   });
 });
+
+describe('claiming: a contributor claims a reference, a curator pairs the claim', () => {
+  let t: TestApp;
+  let ids: Map<string, number>;
+  beforeAll(async () => {
+    t = await createTestApp();
+    ids = await resetDb(t.ctx.db);
+  });
+  afterAll(() => t.close());
+
+  it('the claimed sheet joins the pair; claiming twice or an assigned reference is refused', async () => {
+    const ref = await insertReference(t.ctx.db, { firstAuthor: 'Zielinski', year: 2012 });
+    const coder1 = await signIn(t.app, 'coder1');
+    const list = await coder1.get('/api/extractions/claimable');
+    expect(list.body.items.map((r: any) => r.id)).toContain(ref);
+    const claim = await coder1.post('/api/extractions').send({ referenceId: ref });
+    expect(claim.status).toBe(201);
+    expect((await coder1.post('/api/extractions').send({ referenceId: ref })).status).toBe(409);
+    expect((await coder1.get('/api/extractions/claimable')).body.items.map((r: any) => r.id)).not.toContain(ref);
+    await coder1.put(`/api/extractions/${claim.body.id}`).send({ version: 1, sheet: luminanceSheet() });
+    const curator = await signIn(t.app, 'curator');
+    const pair = await curator.post('/api/assignments').send({ referenceId: ref, coder1Id: ids.get('coder1'), coder2Id: ids.get('coder2') });
+    expect(pair.status).toBe(201);
+    expect(pair.body.extractionIds).toContain(claim.body.id);
+    const kept = await coder1.get(`/api/extractions/${claim.body.id}`);
+    expect(kept.body.extraction.assignmentId).toBe(pair.body.id);
+    expect(kept.body.studies).toHaveLength(1);
+    const coder2 = await signIn(t.app, 'coder2');
+    expect((await coder2.post('/api/extractions').send({ referenceId: ref })).status).toBe(409);
+  });
+});
