@@ -8,16 +8,24 @@ import { RegistryCache } from '../services/atlas.js';
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
 export function synthesesRouter(ctx: AppContext) {
   const router = Router();
-  const cache = new RegistryCache(4);
+  const facetsCache = new RegistryCache(4);
+  // A synthesis is a pure function of the request and the settled registry, so answers are kept per
+  // registry version (any settled change retires them all); the header says whether this one was computed.
+  const answers = new RegistryCache(64);
 
   router.post('/syntheses', async (req, res) => {
     const request = parseInput(synthesisRequestSchema, req.body);
-    const { registryVersion, output } = await synthesizeRegistry(ctx.db, request);
-    res.json({ registryVersion, ...output });
+    let computed = false;
+    const body = await answers.get(ctx.db, JSON.stringify(request), async () => {
+      computed = true;
+      const { registryVersion, output } = await synthesizeRegistry(ctx.db, request);
+      return { registryVersion, ...output };
+    });
+    res.set('X-Synthesis-Cache', computed ? 'miss' : 'hit').type('application/json').send(body);
   });
 
   router.get('/syntheses/facets', async (_req, res) => {
-    res.type('application/json').send(await cache.get(ctx.db, 'facets', () => synthesisFacets(ctx.db)));
+    res.type('application/json').send(await facetsCache.get(ctx.db, 'facets', () => synthesisFacets(ctx.db)));
   });
 
   return router;

@@ -1,5 +1,7 @@
 import type { Knex } from 'knex';
-import { querySettledEffects, type SettledEffectRow } from '../db/effects-repo.js';
+import { querySettledEffects } from '../db/effects-repo.js';
+import { querySynthesisRows } from '../db/synthesis-repo.js';
+import type { SettledEffect } from '../../shared/synthesis/types.js';
 import { NotFoundError } from '../lib/errors.js';
 import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
 import { OUTCOMES, type OutcomeKind } from '../../shared/vocabulary/outcomes.js';
@@ -14,11 +16,28 @@ import { cautionsFor } from '../../shared/synthesis/cautions.js';
 export class RegistryCache {
   private key = '';
   private entries = new Map<string, Promise<string>>();
-  constructor(private readonly maxEntries = 500) {}
+  private bytes = 0;
+  constructor(
+    private readonly maxEntries = 500,
+    /** answers are UTF-16 strings: about 2 bytes a character */
+    private readonly maxChars = 32 * 1024 * 1024,
+  ) {}
 
-  async versionKey(db: Knex): Promise<string> {
-    const row = await db('registry_changes').orderBy('id', 'desc').first('id', 'at');
-    return row ? `${row.id}@${new Date(row.at).getTime()}` : '0';
+  private inflight: Promise<string> | null = null;
+
+  /**
+   * Requests that arrive while a lookup is running share it (single flight): under load one query serves
+   * many requests, and a lone request still reads the version itself.
+   */
+  versionKey(db: Knex): Promise<string> {
+    this.inflight ??= db('registry_changes')
+      .orderBy('id', 'desc')
+      .first('id', 'at')
+      .then((row) => (row ? `${row.id}@${new Date(row.at).getTime()}` : '0'))
+      .finally(() => {
+        this.inflight = null;
+      });
+    return this.inflight;
   }
 
   async get(db: Knex, name: string, compute: () => Promise<unknown>): Promise<string> {
@@ -26,12 +45,20 @@ export class RegistryCache {
     if (key !== this.key) {
       this.key = key;
       this.entries = new Map();
+      this.bytes = 0;
     }
     let hit = this.entries.get(name);
     if (!hit) {
-      if (this.entries.size >= this.maxEntries) this.entries.clear();
+      if (this.entries.size >= this.maxEntries || this.bytes >= this.maxChars) {
+        this.entries = new Map();
+        this.bytes = 0;
+      }
       const entries = this.entries;
-      hit = compute().then((v) => JSON.stringify(v));
+      hit = compute().then((v) => {
+        const text = JSON.stringify(v);
+        if (entries === this.entries) this.bytes += text.length;
+        return text;
+      });
       hit.catch(() => entries.delete(name));
       entries.set(name, hit);
     }
@@ -39,7 +66,7 @@ export class RegistryCache {
   }
 }
 
-const count = (rows: SettledEffectRow[]) => ({
+const count = (rows: SettledEffect[]) => ({
   effects: rows.length,
   studies: new Set(rows.map((r) => r.studyId)).size,
   references: new Set(rows.map((r) => r.referenceId)).size,
@@ -60,11 +87,11 @@ const outcomeLabel = (o: string) => OUTCOMES[o as OutcomeKind]?.label ?? o;
 
 /** Every manipulation and outcome kind with counts of settled references, studies and effects. */
 export async function atlasLanding(db: Knex) {
-  const [rows, vocab] = await Promise.all([querySettledEffects(db, {}), db('manipulations').whereNull('retired_at').orderBy('label').select('term', 'label', 'description')]);
+  const [rows, vocab] = await Promise.all([querySynthesisRows(db, {}), db('manipulations').whereNull('retired_at').orderBy('label').select('term', 'label', 'description')]);
   const byManip = groupBy(rows, (r) => r.manipulation);
   const byOutcome = groupBy(rows, (r) => r.outcome);
   const known = new Set(vocab.map((v: { term: string }) => v.term));
-  const extra = [...byManip.keys()].filter((t) => !known.has(t)).map((t) => ({ term: t, label: byManip.get(t)![0].manipulationLabel, description: '' }));
+  const extra = [...byManip.keys()].filter((t) => !known.has(t)).map((t) => ({ term: t, label: byManip.get(t)![0].manipulationLabel ?? t, description: '' }));
   return {
     totals: count(rows),
     manipulations: [...vocab, ...extra].map((m: { term: string; label: string; description: string }) => {
@@ -81,7 +108,7 @@ export async function atlasLanding(db: Knex) {
 const DEFAULT_REQUEST = { method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } } as const;
 
 /** The current pooled estimate of each (outcome kind, metric) cell of one manipulation's or outcome's effects. */
-function pooledCells(rows: SettledEffectRow[], filters: (first: SettledEffectRow) => Record<string, string>, withFigure: boolean) {
+function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => Record<string, string>, withFigure: boolean) {
   const cells = groupBy(rows, (r) => `${r.outcome}\u0000${r.manipulation}\u0000${r.metric}`);
   return [...cells.values()]
     .map((rs) => {
@@ -93,7 +120,7 @@ function pooledCells(rows: SettledEffectRow[], filters: (first: SettledEffectRow
         outcome: rs[0].outcome,
         outcomeLabel: outcomeLabel(rs[0].outcome),
         manipulation: rs[0].manipulation,
-        manipulationLabel: rs[0].manipulationLabel,
+        manipulationLabel: rs[0].manipulationLabel ?? rs[0].manipulation,
         metric: rs[0].metric,
         metricLabel: metricLabel(rs[0].metric),
         filters: f,
@@ -114,7 +141,7 @@ async function manipulationRow(db: Knex, term: string) {
 
 export async function atlasManipulation(db: Knex, term: string) {
   const m = await manipulationRow(db, term);
-  const rows = await querySettledEffects(db, { manipulation: term });
+  const rows = await querySynthesisRows(db, { manipulation: term });
   return {
     manipulation: { term: m.term, label: m.label, description: m.description, retired: !!m.retired_at },
     totals: count(rows),
@@ -125,13 +152,13 @@ export async function atlasManipulation(db: Knex, term: string) {
 /** Only the pooled numbers of a manipulation (what scripts and the atlas cards need). */
 export async function atlasManipulationPooled(db: Knex, term: string) {
   await manipulationRow(db, term);
-  const rows = await querySettledEffects(db, { manipulation: term });
+  const rows = await querySynthesisRows(db, { manipulation: term });
   return { term, totals: count(rows), cells: pooledCells(rows, (r) => ({ manipulation: term, outcome: r.outcome, metric: r.metric }), false) };
 }
 
 export async function atlasOutcome(db: Knex, kind: string) {
   if (!(kind in OUTCOMES)) throw new NotFoundError(`No outcome kind "${kind}".`);
-  const rows = await querySettledEffects(db, { outcome: kind });
+  const rows = await querySynthesisRows(db, { outcome: kind });
   const info = OUTCOMES[kind as OutcomeKind];
   return {
     outcome: { kind, label: info.label, typicalReport: info.typicalReport, metrics: info.metrics, metricLabels: info.metrics.map(metricLabel) },

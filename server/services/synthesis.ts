@@ -1,13 +1,13 @@
 import type { Knex } from 'knex';
-import { querySettledEffects, type SettledEffectRow } from '../db/effects-repo.js';
+import { querySynthesisRows } from '../db/synthesis-repo.js';
 import { currentRegistryVersion } from '../db/registry-version.js';
 import { UnprocessableError } from '../lib/errors.js';
 import type { SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
-import type { SynthesisOutput } from '../../shared/synthesis/types.js';
+import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
 
 /** Runs the pure pipeline, turning its refusals into 422s that say what to do. */
-export function synthesize(effects: readonly SettledEffectRow[], request: SynthesisRequest): SynthesisOutput {
+export function synthesize(effects: readonly SettledEffect[], request: SynthesisRequest): SynthesisOutput {
   try {
     return runSynthesis(effects, request);
   } catch (err) {
@@ -19,20 +19,20 @@ export function synthesize(effects: readonly SettledEffectRow[], request: Synthe
 
 /** A synthesis over the current settled registry, with the registry version it was computed on. */
 export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: SynthesisRequest) {
-  const [registryVersion, effects] = await Promise.all([currentRegistryVersion(db), querySettledEffects(db, request.filters)]);
+  const [registryVersion, effects] = await Promise.all([currentRegistryVersion(db), querySynthesisRows(db, request.filters)]);
   return { registryVersion, effects, output: synthesize(effects, request) };
 }
 
 /** Distinct filter values among settled effects, with counts (for the synthesis form). */
 export async function synthesisFacets(db: Knex) {
-  const rows = await querySettledEffects(db, {});
-  const tally = (pick: (r: SettledEffectRow) => string | null) => {
+  const rows = await querySynthesisRows(db, {});
+  const tally = (pick: (r: SettledEffect) => string | null) => {
     const m = new Map<string, number>();
     for (const r of rows) {
       const v = pick(r);
       if (v != null) m.set(v, (m.get(v) ?? 0) + 1);
     }
-    return [...m].map(([value, count]) => ({ value, count })).sort((a, b) => a.value.localeCompare(b.value));
+    return [...m].map(([value, count]) => ({ value, count })).sort((a, b) => (a.value < b.value ? -1 : a.value > b.value ? 1 : 0));
   };
   const labels = new Map(rows.map((r) => [r.manipulation, r.manipulationLabel]));
   const years = rows.map((r) => r.year).filter((y): y is number => y != null);

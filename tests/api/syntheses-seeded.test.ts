@@ -2,6 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pool } from '../../shared/stats/index.js';
 import { seed as seedReferences } from '../../seeds/02_demo_references.js';
 import { seed as seedRegistry } from '../../seeds/03_demo_registry.js';
+import { querySettledEffects } from '../../server/db/effects-repo.js';
+import { querySynthesisRows } from '../../server/db/synthesis-repo.js';
 import { anonymous, createTestApp, resetDb, type TestApp } from '../support/test-app.js';
 
 describe('synthesis over the seeded demo registry', () => {
@@ -32,6 +34,18 @@ describe('synthesis over the seeded demo registry', () => {
       }
     }
     expect(cells).toBeGreaterThanOrEqual(10);
+  });
+
+  it('the lean synthesis query answers the same rows as querySettledEffects, whatever the filters', async () => {
+    const cases = [{}, { manipulation: 'luminance' }, { manipulation: ['numerosity', 'size'], metric: 'hedges_g' }, { outcome: 'simultaneity_window' }, { modality: 'auditory', yearFrom: 2010, yearTo: 2020 }, { manipulation: 'no_such_term' }];
+    const keys = ['id', 'referenceId', 'studyId', 'studyLabel', 'referenceLabel', 'year', 'outcome', 'manipulation', 'manipulationLabel', 'metric', 'effect', 'variance', 'n', 'design', 'population', 'modality', 'task', 'standardMs'] as const;
+    for (const f of cases) {
+      const full = await querySettledEffects(t.ctx.db, f);
+      const lean = await querySynthesisRows(t.ctx.db, f);
+      expect(lean.length).toBe(full.length);
+      expect(lean).toEqual(full.map((r) => Object.fromEntries(keys.map((k) => [k, r[k]]))));
+    }
+    expect((await querySynthesisRows(t.ctx.db, {})).length).toBeGreaterThanOrEqual(120);
   });
 
   it('refuses to pool a manipulation coded in two metrics without a metric filter', async () => {

@@ -82,10 +82,24 @@ describe('POST /api/syntheses', () => {
     expect(res.body.result.k).toBe(12);
   });
 
+  it('keeps an answer per registry version: repeated requests hit, a settled change recomputes', async () => {
+    const req = { filters: { manipulation: 'luminance', metric: 'hedges_g' }, level: 0.9 };
+    const first = await anonymous(t.app).post('/api/syntheses').send(req);
+    const again = await anonymous(t.app).post('/api/syntheses').send(req);
+    expect(first.headers['x-synthesis-cache']).toBe('miss');
+    expect(again.headers['x-synthesis-cache']).toBe('hit');
+    expect(again.body).toEqual(first.body);
+    await settleInventedReference(t.ctx.db, 'luminance', 2024, [{ mean1: 720, mean2: 600, sd: 80, n: 30 }]);
+    const after = await anonymous(t.app).post('/api/syntheses').send(req);
+    expect(after.headers['x-synthesis-cache']).toBe('miss');
+    expect(after.body.registryVersion).toBeGreaterThan(first.body.registryVersion);
+    expect(after.body.rows).toHaveLength(first.body.rows.length + 1);
+  });
+
   it('lists filter values with counts', async () => {
     const res = await anonymous(t.app).get('/api/syntheses/facets');
     expect(res.status).toBe(200);
-    expect(res.body.manipulations).toEqual([{ value: 'luminance', count: 14, label: 'Luminance' }]);
+    expect(res.body.manipulations).toEqual([{ value: 'luminance', count: 15, label: 'Luminance' }]);
     expect(res.body.metrics.map((m: any) => m.value)).toEqual(['hedges_g', 'log_ratio']);
   });
 });
