@@ -167,13 +167,13 @@ export async function atlasOutcome(db: Knex, kind: string) {
   };
 }
 
-const REF_SORT = { year: 'r.year', label: 'r.first_author', title: 'r.title', effects: 'effects' } as const;
+type RefSort = 'year' | 'label' | 'title' | 'effects';
 
 /** The references behind an atlas page, paged and sorted on the server. */
 export async function atlasReferences(
   db: Knex,
   where: { manipulation?: string; outcome?: string },
-  q: { page: number; pageSize: number; sort: keyof typeof REF_SORT; order: 'asc' | 'desc' },
+  q: { page: number; pageSize: number; sort: RefSort; order: 'asc' | 'desc' },
 ) {
   const rows = await querySettledEffects(db, where);
   const byRef = groupBy(rows, (r) => String(r.referenceId));

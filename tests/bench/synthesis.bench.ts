@@ -82,6 +82,7 @@ const cannon = (opts: autocannon.Options) =>
   });
 
 let server: ReturnType<typeof spawn> | undefined;
+let stopping = false;
 let failed = false;
 try {
   await ensureDemoPeople(db);
@@ -92,7 +93,12 @@ try {
   await db.raw('ANALYZE'); // fresh statistics after the bulk load, as autovacuum would give a live database
   console.log(`synthetic rows: ${large} effects (large), ${small} effects (small), made in ${((performance.now() - t) / 1000).toFixed(1)} s`);
 
-  server = spawn('node_modules/.bin/tsx', ['server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'inherit'] });
+  server = spawn('node_modules/.bin/tsx', ['server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'pipe'] });
+  let serverErr = '';
+  server.stderr!.on('data', (d) => (serverErr += String(d)));
+  server.on('exit', (code) => {
+    if (code && !stopping) console.error(`server exited with ${code}:\n${serverErr}`);
+  });
   await waitFor(`${origin}/api/health`);
 
   const body = (term: string) => JSON.stringify({ filters: { manipulation: term, metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } });
@@ -158,6 +164,7 @@ try {
   );
   if (synth.requests.average < 300 || synthErrors) failed = true;
 } finally {
+  stopping = true;
   server?.kill('SIGTERM');
   await db.destroy();
 }

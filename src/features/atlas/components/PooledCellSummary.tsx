@@ -23,7 +23,7 @@ export function PooledCellSummary({ cell, heading }: { cell: PooledCell; heading
       <h3 className="mb-1 text-base font-bold">{heading}</h3>
       <p className="text-sm text-ink-soft">
         {cell.metricLabel} · DerSimonian–Laird, effects within a study combined with r = 0.50 · {cell.counts.studies} studies ({cell.counts.effects} effects,{' '}
-        {cell.counts.references} references)
+        {cell.counts.references} {cell.counts.references === 1 ? 'reference' : 'references'})
       </p>
       <p className="my-1 text-xl tabular-nums">
         ◆ <strong>{f(p.estimate, d)}</strong> <span className="text-sm">{lvl} CI [{f(p.ci_lower, d)}, {f(p.ci_upper, d)}]</span>
