@@ -86,6 +86,13 @@ export const specs: Spec[] = [
       await page.getByRole('link', { name: 'Open the settled record' }).click();
       await page.getByRole('heading', { name: /Settled record of/ }).waitFor();
       await page.getByText('reconciled', { exact: true }).first().waitFor();
+      // The coders' "settled" mails went out as background jobs; the admin mailbox shows them.
+      await page.getByRole('button', { name: 'Sign out' }).click();
+      await page.getByRole('banner').getByRole('link', { name: 'Sign in' }).waitFor();
+      await signInThroughPage(page, 'admin');
+      await page.goto(appUrl('/admin/mail'));
+      await page.getByRole('article', { name: /your coding of .* is settled/ }).first().waitFor({ timeout: 20_000 });
+      await page.getByRole('row').filter({ hasText: 'settled' }).filter({ hasText: 'sent' }).first().waitFor({ timeout: 20_000 });
     },
   },
 ];
