@@ -57,7 +57,7 @@ export async function createSnapshot(db: Knex, actorId: number, request: Synthes
       const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
       const refs = await trx('refs').whereIn('id', refIds).orderBy('id').select('id', 'csl', 'title', 'year', 'doi', 'first_author');
       const prisma = await prismaForMethods(trx);
-      const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma });
+      const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma, notRun: output.unavailable.map((u) => u.analysis) });
       const id = newId();
       await trx('snapshots').insert({
         id,

@@ -18,6 +18,8 @@ export interface MethodsInput {
   software: { name: string; version: string };
   registryVersion: number | null;
   prisma: PrismaCounts | null;
+  /** analyses that were not run (SynthesisOutput.unavailable), left out of the prose */
+  notRun?: string[];
 }
 
 const CITATION: Record<SynthesisRequest['method'], string> = {
@@ -46,7 +48,16 @@ export function methodsParagraph(m: MethodsInput): string {
     : '';
   const hetero =
     ` Heterogeneity is reported as Cochran's Q with its p value, I² and H² (Higgins & Thompson, 2002), τ² with a ${level} Q-profile interval (Viechtbauer, 2007), and a ${level} prediction interval with t on k − 2 degrees of freedom (Higgins, Thompson & Spiegelhalter, 2009).`;
-  const bias = ` Small-study effects were examined with Egger's regression test (Egger, Davey Smith, Schneider & Minder, 1997), Begg's rank correlation (Begg & Mazumdar, 1994) and trim-and-fill (Duval & Tweedie, 2000); leave-one-out and cumulative (by year) analyses were run for sensitivity.`;
+  const skip = new Set(m.notRun ?? []);
+  const smallStudy = [
+    counts.studies >= 3 ? "Egger's regression test (Egger, Davey Smith, Schneider & Minder, 1997)" : '',
+    skip.has("Begg's test") ? '' : "Begg's rank correlation (Begg & Mazumdar, 1994)",
+    skip.has('trim-and-fill') ? '' : 'trim-and-fill (Duval & Tweedie, 2000)',
+  ].filter(Boolean);
+  const sensitivity = [skip.has('leave-one-out') || counts.studies < 2 ? '' : 'leave-one-out', skip.has('cumulative') ? '' : 'cumulative (by year)'].filter(Boolean);
+  const bias =
+    (smallStudy.length ? ` Small-study effects were examined with ${smallStudy.length > 1 ? `${smallStudy.slice(0, -1).join(', ')} and ${smallStudy.at(-1)}` : smallStudy[0]}.` : '') +
+    (sensitivity.length ? ` ${sensitivity.join(' and ').replace(/^./, (c) => c.toUpperCase())} analyses were run for sensitivity.` : '');
   const extras = [
     q.subgroup ? ` Subgroups by ${q.subgroup} were compared with a Q test between subgroup estimates (separate τ² per subgroup).` : '',
     q.moderator ? ` A mixed-effects meta-regression on ${q.moderator === 'standardMs' ? 'standard duration (ms)' : 'publication year'} was fitted.` : '',

@@ -97,6 +97,13 @@ describe('synthesis pipeline (pure, over rows)', () => {
     expect(text).toMatch(/Chronometa 0\.1\.0 on registry version 12/);
     expect(text).toMatch(/40 records identified.*2 duplicates removed.*38 records screened.*10 excluded.*28 included/);
     expect(text).toMatch(/8 references \(8 studies, 9 effects\)/);
+    expect(text).toMatch(/Egger's regression test .*, Begg's rank correlation .* and trim-and-fill/);
+    const fewer = methodsParagraph({
+      request: out.request, metricLabel: "Hedges' g", counts: { effects: 2, studies: 2, references: 2 }, software: { name: 'Chronometa', version: '0.1.0' }, registryVersion: 1, prisma: null,
+      notRun: ["Begg's test", 'trim-and-fill'],
+    });
+    expect(fewer).not.toMatch(/Begg|trim-and-fill|Egger/);
+    expect(fewer).toMatch(/Leave-one-out and cumulative \(by year\) analyses/);
   });
 });
 
