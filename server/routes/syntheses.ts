@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import rateLimit from 'express-rate-limit';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
@@ -13,7 +14,19 @@ export function synthesesRouter(ctx: AppContext) {
   // registry version (any settled change retires them all); the header says whether this one was computed.
   const answers = new RegistryCache(64);
 
-  router.post('/syntheses', async (req, res) => {
+  // Signed-out callers share the compute routes' per-client limit; signed-in users and tokens are not limited.
+  const anonymousLimit = rateLimit({
+    windowMs: 60_000,
+    limit: ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE,
+    standardHeaders: 'draft-7',
+    legacyHeaders: false,
+    skip: (req) => !!req.user,
+    handler: (_req, res) => {
+      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many syntheses from this address; wait a minute, or sign in.' } });
+    },
+  });
+
+  router.post('/syntheses', anonymousLimit, async (req, res) => {
     const request = parseInput(synthesisRequestSchema, req.body);
     let computed = false;
     const body = await answers.get(ctx.db, JSON.stringify(request), async () => {

@@ -103,3 +103,20 @@ describe('POST /api/syntheses', () => {
     expect(res.body.metrics.map((m: any) => m.value)).toEqual(['hedges_g', 'log_ratio']);
   });
 });
+
+describe('POST /api/syntheses rate limit', () => {
+  it('limits signed-out callers per minute, not signed-in ones', async () => {
+    const t = await createTestApp({ env: { COMPUTE_RATE_LIMIT_PER_MINUTE: '2' } });
+    try {
+      await resetDb(t.ctx.db);
+      const body = { filters: { manipulation: 'pitch' } };
+      const codes = [];
+      for (let i = 0; i < 3; i++) codes.push((await anonymous(t.app).post('/api/syntheses').send(body)).status);
+      expect(codes).toEqual([422, 422, 429]);
+      const reviewer = await signIn(t.app, 'reviewer');
+      for (let i = 0; i < 3; i++) expect((await reviewer.post('/api/syntheses').send(body)).status).toBe(422);
+    } finally {
+      await t.close();
+    }
+  });
+});
