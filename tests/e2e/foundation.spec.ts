@@ -8,7 +8,7 @@ export const specs: Spec[] = [
     async run(page) {
       await signInThroughPage(page, 'admin');
       await page.getByText('Ines Valtonen').first().waitFor();
-      await page.getByRole('link', { name: 'People' }).click();
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'People' }).click();
       const row = page.getByRole('row', { name: /@reader/ });
       await row.waitFor();
       const box = row.getByRole('checkbox', { name: 'Reviewer' });
