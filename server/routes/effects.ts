@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { editSettledEffectSchema, effectsQuerySchema } from '../../shared/schemas/extraction.js';
+import { editSettledEffectSchema, effectsQuerySchema, reasonSchema } from '../../shared/schemas/extraction.js';
 import { idParam } from '../../shared/schemas/common.js';
 import { z } from 'zod';
 import { requireRole } from '../auth/require-role.js';
@@ -8,7 +8,7 @@ import { countSettledEffects, getSettledEffect, querySettledEffects } from '../d
 import { currentRegistryVersion } from '../db/registry-version.js';
 import { NotFoundError } from '../lib/errors.js';
 import { parseInput } from '../lib/validate.js';
-import { editSettledEffect } from '../services/extractions.js';
+import { editSettledEffect, withdrawEffect } from '../services/extractions.js';
 
 const idParams = z.object({ id: idParam });
 
@@ -39,6 +39,12 @@ export function effectsRouter(ctx: AppContext) {
     const body = parseInput(editSettledEffectSchema, req.body);
     const result = await editSettledEffect(ctx.db, req.user!.id, id, body);
     res.json(result);
+  });
+
+  router.post('/effects/:id/withdraw', requireRole('curator'), async (req, res) => {
+    const { id } = parseInput(idParams, req.params, 'path');
+    const body = parseInput(reasonSchema, req.body);
+    res.json(await withdrawEffect(ctx.db, req.user!.id, id, body.reason));
   });
 
   return router;

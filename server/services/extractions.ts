@@ -616,3 +616,19 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
     return { id: row.id as number, version: row.version as number, effect: r.effect, variance: r.variance, metric: r.metric, formula: r.formula, registryVersion };
   });
 }
+
+/** Withdraws one settled effect (it leaves every analysis; the row and its history stay). */
+export async function withdrawEffect(db: Knex, actorId: number, effectId: number, reason: string) {
+  return db.transaction(async (trx) => {
+    const f = await trx('effects').where({ id: effectId }).forUpdate().first();
+    if (!f) throw new NotFoundError(`No effect ${effectId}.`);
+    const x = await trx('extractions').where({ id: f.extraction_id }).first();
+    if (x.kind !== 'settled' || x.state !== 'settled' || x.superseded_by) throw new ConflictError(`Effect ${effectId} is not part of a current settled record.`);
+    if (f.withdrawn_at) throw new ConflictError(`Effect ${effectId} is already withdrawn.`);
+    await trx('effects').where({ id: effectId }).update({ withdrawn_at: trx.fn.now(), withdrawn_reason: reason, version: f.version + 1, updated_by: actorId, updated_at: trx.fn.now() });
+    await trx('settlements').insert({ reference_id: x.reference_id, assignment_id: x.assignment_id, record_id: x.id, kind: 'withdrawn', actor_id: actorId, rationale: `effect ${effectId}: ${reason}` });
+    await recordAudit(trx, { actorId, action: 'effect.withdraw', entityType: 'effect', entityId: effectId, details: { reason } });
+    const registryVersion = await bumpRegistry(trx, { kind: 'effect.withdraw', referenceId: x.reference_id, extractionId: x.id, effectId, actorId, details: { reason } });
+    return { id: effectId, withdrawn: true, registryVersion };
+  });
+}

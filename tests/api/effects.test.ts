@@ -108,4 +108,16 @@ describe('settled effects: repository, registry version and GET /api/effects', (
     const coder = await signIn(t.app, 'coder1');
     expect((await coder.patch(`/api/effects/${row.id}`).send({ version: 2, reason: 'x', effect })).status).toBe(403);
   });
+
+  it('a curator withdraws one settled effect: it leaves the settled set and the registry version grows', async () => {
+    const curator = await signIn(t.app, 'curator');
+    const [row] = await querySettledEffects(t.ctx.db, { referenceId: refA });
+    const v0 = await currentRegistryVersion(t.ctx.db);
+    const res = await curator.post(`/api/effects/${row.id}/withdraw`).send({ reason: 'the same participants as another paper' });
+    expect(res.status).toBe(200);
+    expect(res.body.registryVersion).toBe(v0 + 1);
+    expect(await querySettledEffects(t.ctx.db, { referenceId: refA })).toHaveLength(0);
+    expect((await anonymous(t.app).get(`/api/effects/${row.id}`)).status).toBe(404);
+    expect((await curator.post(`/api/effects/${row.id}/withdraw`).send({ reason: 'again please' })).status).toBe(409);
+  });
 });

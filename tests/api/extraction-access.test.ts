@@ -8,6 +8,7 @@ describeAccess(
     { method: 'get', path: '/api/effects', who: 'anyone', bad: { path: '/api/effects?pageSize=100000' } },
     { method: 'get', path: (ids) => `/api/effects/${ids.effect}`, who: 'anyone', bad: { path: '/api/effects/abc' } },
     { method: 'patch', path: (ids) => `/api/effects/${ids.effect}`, body: { version: 99, reason: 'check', effect: {} }, who: ['curator'], bad: { body: { version: 0 } } },
+    { method: 'post', path: '/api/effects/999999/withdraw', body: { reason: 'duplicate data' }, who: ['curator'], bad: { body: { reason: '' } } },
     { method: 'get', path: '/api/manipulations', who: 'anyone', bad: { path: '/api/manipulations?sort=colour' } },
     { method: 'post', path: '/api/manipulations', body: { term: 'colour_saturation', label: 'Colour saturation' }, who: ['curator'], bad: { body: { term: 'Not A Slug', label: '' } } },
     { method: 'patch', path: '/api/manipulations/luminance', body: { version: 999, label: 'Luminance' }, who: ['curator'], bad: { path: '/api/manipulations/BAD%20TERM', body: { version: 1 } } },

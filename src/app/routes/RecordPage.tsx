@@ -10,6 +10,7 @@ import { useRecords } from '../../features/reconciliation/api/get-records';
 import { useReopenRecord } from '../../features/reconciliation/api/reopen-record';
 import { useSettleRecord } from '../../features/reconciliation/api/settle-record';
 import { useWithdrawRecord } from '../../features/reconciliation/api/withdraw-record';
+import { useWithdrawEffect } from '../../features/reconciliation/api/withdraw-effect';
 
 function ReasonAction({ label, onRun, pending, error }: { label: string; onRun: (reason: string) => void; pending: boolean; error: unknown }) {
   const [open, setOpen] = useState(false);
@@ -35,6 +36,42 @@ function ReasonAction({ label, onRun, pending, error }: { label: string; onRun: 
         <Button onClick={() => setOpen(false)}>Cancel</Button>
       </div>
       <ErrorNote error={error} />
+    </form>
+  );
+}
+
+function WithdrawEffect({ effects }: { effects: { id: number; label: string }[] }) {
+  const withdraw = useWithdrawEffect();
+  const [id, setId] = useState('');
+  const [reason, setReason] = useState('');
+  return (
+    <form
+      className="my-3 flex flex-wrap items-end gap-2 text-sm"
+      onSubmit={(e) => {
+        e.preventDefault();
+        withdraw.mutate({ id: Number(id), reason }, { onSuccess: () => (setId(''), setReason('')) });
+      }}
+    >
+      <label>
+        <span className="block text-xs font-semibold text-ink-soft">Withdraw one effect</span>
+        <select className="rounded border border-paper-edge bg-white px-2 py-1" value={id} onChange={(e) => setId(e.target.value)}>
+          <option value="">— effect —</option>
+          {effects.map((f) => (
+            <option key={f.id} value={f.id}>
+              {f.label}
+            </option>
+          ))}
+        </select>
+      </label>
+      <label className="grow">
+        <span className="block text-xs font-semibold text-ink-soft">Reason</span>
+        <input className="w-full rounded border border-paper-edge bg-white px-2 py-1" value={reason} onChange={(e) => setReason(e.target.value)} />
+      </label>
+      <Button type="submit" variant="danger" disabled={!id || reason.trim().length < 3 || withdraw.isPending}>
+        Withdraw the effect
+      </Button>
+      {withdraw.isSuccess && <span role="status">✓ Withdrawn; it no longer enters analyses.</span>}
+      <ErrorNote error={withdraw.error} />
     </form>
   );
 }
@@ -88,6 +125,9 @@ export function RecordPage() {
             </div>
           )}
           <SheetView studies={data.studies} />
+          {curator && !x.supersededBy && x.state === 'settled' && (
+            <WithdrawEffect effects={data.studies.flatMap((st, i) => st.effects.map((f, j) => ({ id: f.id, label: `Study ${i + 1}, effect ${j + 1}: ${f.label}` })))} />
+          )}
           {history.data && (
             <>
               <h2>Versions and settlements</h2>
