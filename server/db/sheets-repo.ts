@@ -15,6 +15,8 @@ export interface StoredEffect {
   locator?: string;
   quote?: string;
   version: number;
+  /** set when a curator withdrew this settled effect */
+  withdrawnReason?: string | null;
   computed: { metric: string; effect: number; variance: number; formula: string; assumedR: number | null; n: number | null } | null;
 }
 
@@ -125,6 +127,7 @@ export async function readSheet(db: Knex | Knex.Transaction, extractionId: numbe
         locator: u(f.locator),
         quote: u(f.quote),
         version: f.version,
+        withdrawnReason: f.withdrawn_at ? (f.withdrawn_reason ?? 'withdrawn') : null,
         computed:
           f.effect == null
             ? null

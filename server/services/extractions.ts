@@ -535,7 +535,8 @@ export async function reopenRecord(db: Knex, actorId: number, recordId: number, 
         record_version: x.record_version + 1, supersedes_id: x.id, reopen_reason: reason, notes: x.notes, updated_by: actorId,
       })
       .returning('*');
-    const studies = await readSheet(trx, x.id);
+    // Withdrawn effects stay out of the new version.
+    const studies = (await readSheet(trx, x.id)).map((s) => ({ ...s, effects: s.effects.filter((e) => !e.withdrawnReason) }));
     await writeSheet(trx, draft.id, toSheet(studies, x.notes), { studyIds: studies.map((s) => s.studyId), actorId });
     await trx('extractions').where({ id: x.id }).update({ superseded_by: draft.id, updated_at: trx.fn.now() });
     await trx('settlements').insert({ reference_id: x.reference_id, assignment_id: x.assignment_id, record_id: x.id, kind: 'reopened', actor_id: actorId, rationale: reason });

@@ -12,6 +12,7 @@ export interface StoredEffect {
   locator?: string;
   quote?: string;
   version: number;
+  withdrawnReason?: string | null;
   computed: { metric: string; effect: number; variance: number; formula: string; assumedR: number | null; n: number | null } | null;
 }
 

@@ -23,7 +23,7 @@ import { REPORTED_LABELS } from './labels';
 export function toFormSheet(studies: StoredStudy[], notes: string): Sheet {
   return sheetDraftSchema.parse({
     notes,
-    studies: studies.map(({ id: _id, studyId: _sid, effects, ...s }) => ({ ...s, effects: effects.map(({ id: _e, version: _v, computed: _c, ...e }) => e) })),
+    studies: studies.map(({ id: _id, studyId: _sid, effects, ...s }) => ({ ...s, effects: effects.map(({ id: _e, version: _v, computed: _c, withdrawnReason: _w, ...e }) => e) })),
   });
 }
 

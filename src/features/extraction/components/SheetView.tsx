@@ -38,7 +38,10 @@ export function SheetView({ studies, compact = false }: { studies: StoredStudy[]
                 {s.effects.map((e, j) => (
                   <tr key={e.id}>
                     <td className="num">{j + 1}</td>
-                    <td>{e.label}</td>
+                    <td>
+                      {e.label}
+                      {e.withdrawnReason && <span className="block text-xs text-refusal">⊘ withdrawn: {e.withdrawnReason}</span>}
+                    </td>
                     <td>{e.outcome ?? '—'}</td>
                     <td>{e.manipulation ?? '—'}</td>
                     <td>{e.computed ? METRIC_LABELS[e.computed.metric as Metric] : '—'}</td>
