@@ -77,6 +77,8 @@ export function buildApp(ctx: AppContext) {
   // A Bearer request is authenticated by its token alone and never touches the session.
   app.use((req, res, next) => {
     if (bearerToken(req.headers.authorization)) return next();
+    // A signed-out request without a cookie has no session to restore; only sign-in needs a fresh one.
+    if (!req.headers.cookie && !req.path.startsWith('/auth/')) return next();
     sessionMiddleware(req, res, (err?: unknown) => {
       if (err) return next(err);
       initialize(req, res, () => restore(req, res, next));
