@@ -1,6 +1,5 @@
 import type { Knex } from 'knex';
-import { querySynthesisRows } from '../db/synthesis-repo.js';
-import { currentRegistryVersion } from '../db/registry-version.js';
+import { settledEffectsAt, settledEffectsFor } from './settled-effects-cache.js';
 import { UnprocessableError } from '../lib/errors.js';
 import type { SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
@@ -19,13 +18,13 @@ export function synthesize(effects: readonly SettledEffect[], request: Synthesis
 
 /** A synthesis over the current settled registry, with the registry version it was computed on. */
 export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: SynthesisRequest) {
-  const [registryVersion, effects] = await Promise.all([currentRegistryVersion(db), querySynthesisRows(db, request.filters)]);
+  const { registryVersion, effects } = await settledEffectsFor(db, request.filters);
   return { registryVersion, effects, output: synthesize(effects, request) };
 }
 
 /** Distinct filter values among settled effects, with counts (for the synthesis form). */
 export async function synthesisFacets(db: Knex) {
-  const rows = await querySynthesisRows(db, {});
+  const rows = (await settledEffectsAt(db)).effects;
   const tally = (pick: (r: SettledEffect) => string | null) => {
     const m = new Map<string, number>();
     for (const r of rows) {

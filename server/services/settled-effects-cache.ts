@@ -1,0 +1,71 @@
+import type { Knex } from 'knex';
+import type { SettledEffectFilters } from '../db/effects-repo.js';
+import { currentRegistryVersion } from '../db/registry-version.js';
+import { querySynthesisRows } from '../db/synthesis-repo.js';
+import type { SettledEffect } from '../../shared/synthesis/types.js';
+
+interface Loaded {
+  version: number;
+  effects: SettledEffect[];
+}
+
+interface Slot {
+  loaded?: Loaded;
+  loading?: { version: number; promise: Promise<Loaded> };
+}
+
+const slots = new WeakMap<Knex, Slot>();
+
+/**
+ * Every settled effect, held in memory per registry version (which grows with every change to settled data,
+ * a relabel included), so a synthesis filters in memory instead of decoding tens of thousands of rows from
+ * PostgreSQL on each request. Each server process keeps its own copy; the version check is one indexed query.
+ */
+export async function settledEffectsAt(db: Knex): Promise<Loaded> {
+  let slot = slots.get(db);
+  if (!slot) slots.set(db, (slot = {}));
+  const version = await currentRegistryVersion(db);
+  if (slot.loaded?.version === version) return slot.loaded;
+  if (slot.loading?.version !== version) {
+    const promise = querySynthesisRows(db, {}).then((effects) => {
+      const loaded = { version, effects };
+      if (!slot.loaded || slot.loaded.version <= version) slot.loaded = loaded;
+      return loaded;
+    });
+    slot.loading = { version, promise };
+    promise.finally(() => {
+      if (slot.loading?.promise === promise) slot.loading = undefined;
+    }).catch(() => undefined);
+  }
+  return slot.loading.promise;
+}
+
+/** The same rows, in the same order, as querySynthesisRows(db, filters) — a test holds the two together. */
+export function filterSettledEffects(effects: readonly SettledEffect[], f: SettledEffectFilters): SettledEffect[] {
+  const terms = f.manipulation === undefined ? null : new Set(Array.isArray(f.manipulation) ? f.manipulation : [f.manipulation]);
+  const out: SettledEffect[] = [];
+  for (const e of effects) {
+    if (terms && !terms.has(e.manipulation)) continue;
+    if (f.outcome && e.outcome !== f.outcome) continue;
+    if (f.metric && e.metric !== f.metric) continue;
+    if (f.population && e.population !== f.population) continue;
+    if (f.modality && e.modality !== f.modality) continue;
+    if (f.task && e.task !== f.task) continue;
+    if (f.design && e.design !== f.design) continue;
+    if (f.yearFrom !== undefined && (e.year == null || e.year < f.yearFrom)) continue;
+    if (f.yearTo !== undefined && (e.year == null || e.year > f.yearTo)) continue;
+    if (f.referenceId !== undefined && e.referenceId !== f.referenceId) continue;
+    out.push(e);
+  }
+  return out;
+}
+
+/** Settled effects matching the filters with the registry version they belong to; a transaction reads directly. */
+export async function settledEffectsFor(db: Knex | Knex.Transaction, filters: SettledEffectFilters) {
+  if ((db as Knex.Transaction).isTransaction) {
+    const [registryVersion, effects] = await Promise.all([currentRegistryVersion(db), querySynthesisRows(db, filters)]);
+    return { registryVersion, effects };
+  }
+  const loaded = await settledEffectsAt(db as Knex);
+  return { registryVersion: loaded.version, effects: filterSettledEffects(loaded.effects, filters) };
+}
