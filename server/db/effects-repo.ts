@@ -62,32 +62,45 @@ const SORT_COLUMNS: Record<NonNullable<SettledEffectPaging['sort']>, string> = {
   outcome: 'f.outcome',
 };
 
-/** Effects of current settled records only: not superseded, not withdrawn, not of merged-away references. */
-function settledBase(db: Knex | Knex.Transaction, f: SettledEffectFilters) {
+/**
+ * The one definition of a settled effect: an effect of the current settled record (not superseded), not
+ * withdrawn, with a computed value, of a reference that was not merged away. Every reader of settled data
+ * (the effects API, the synthesis, the atlas) starts from this.
+ */
+export function settledEffectsFrom(db: Knex | Knex.Transaction) {
   return db('effects as f')
     .join('extractions as x', 'x.id', 'f.extraction_id')
     .join('extraction_studies as s', 's.id', 'f.extraction_study_id')
     .join('refs as r', 'r.id', 'x.reference_id')
-    .join('manipulations as m', 'm.id', 'f.manipulation_id')
     .where({ 'x.kind': 'settled', 'x.state': 'settled' })
     .whereNull('x.superseded_by')
     .whereNull('f.withdrawn_at')
     .whereNull('r.merged_into')
-    .whereNotNull('f.effect')
+    .whereNotNull('f.effect');
+}
+
+/** The filters other than manipulation, on a query built from settledEffectsFrom. */
+export function applyStudyFilters(q: Knex.QueryBuilder, f: SettledEffectFilters) {
+  if (f.outcome) q.where('f.outcome', f.outcome);
+  if (f.metric) q.where('f.metric', f.metric);
+  if (f.population) q.where('s.population', f.population);
+  if (f.modality) q.where('s.modality', f.modality);
+  if (f.task) q.where('s.task', f.task);
+  if (f.design) q.where('s.design', f.design);
+  if (f.yearFrom !== undefined) q.where('r.year', '>=', f.yearFrom);
+  if (f.yearTo !== undefined) q.where('r.year', '<=', f.yearTo);
+  if (f.referenceId !== undefined) q.where('r.id', f.referenceId);
+}
+
+function settledBase(db: Knex | Knex.Transaction, f: SettledEffectFilters) {
+  return settledEffectsFrom(db)
+    .join('manipulations as m', 'm.id', 'f.manipulation_id')
     .modify((q) => {
       if (f.manipulation !== undefined) {
         const terms = Array.isArray(f.manipulation) ? f.manipulation : [f.manipulation];
         q.whereIn('m.term', terms);
       }
-      if (f.outcome) q.where('f.outcome', f.outcome);
-      if (f.metric) q.where('f.metric', f.metric);
-      if (f.population) q.where('s.population', f.population);
-      if (f.modality) q.where('s.modality', f.modality);
-      if (f.task) q.where('s.task', f.task);
-      if (f.design) q.where('s.design', f.design);
-      if (f.yearFrom !== undefined) q.where('r.year', '>=', f.yearFrom);
-      if (f.yearTo !== undefined) q.where('r.year', '<=', f.yearTo);
-      if (f.referenceId !== undefined) q.where('r.id', f.referenceId);
+      applyStudyFilters(q, f);
     });
 }
 

@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { settledEffectsFrom } from '../db/effects-repo.js';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors.js';
 import { recordAudit } from './audit.js';
 import { bumpRegistry } from '../db/registry-version.js';
@@ -63,13 +64,7 @@ export interface ManipulationRow {
 }
 
 export async function listManipulations(db: Knex, opts: { includeRetired: boolean; sort: 'term' | 'label' | 'effects'; order: 'asc' | 'desc'; page: number; pageSize: number }) {
-  const counts = db('effects as f')
-    .join('extractions as x', 'x.id', 'f.extraction_id')
-    .join('refs as r', 'r.id', 'x.reference_id')
-    .where({ 'x.kind': 'settled', 'x.state': 'settled' })
-    .whereNull('x.superseded_by')
-    .whereNull('f.withdrawn_at')
-    .whereNull('r.merged_into')
+  const counts = settledEffectsFrom(db)
     .groupBy('f.manipulation_id')
     .select('f.manipulation_id', db.raw('count(*)::int as n'))
     .as('c');
