@@ -21,6 +21,10 @@ function prng(seed: number) {
   };
 }
 let rand = prng(20261201);
+// Between-study differences in true effect (labs, stimuli, samples), drawn from a stream of their own so
+// that every other seeded value stays as it was.
+let labRand = prng(424242);
+const labShift = (width: number) => (labRand() - 0.5) * 2 * width;
 const between = (lo: number, hi: number) => lo + (hi - lo) * rand();
 const int = (lo: number, hi: number) => Math.round(between(lo, hi));
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)];
@@ -100,7 +104,7 @@ type EffectIn = NonNullable<NonNullable<SheetInput['studies']>[number]['effects'
 
 /** Reported statistics in a form a paper of this kind would give, around the planned size. */
 function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: number | undefined, standardMs: number, label: string, page: string): EffectIn {
-  const target = between(plan.size[0], plan.size[1]);
+  let target = between(plan.size[0], plan.size[1]);
   const base = { label, outcome: plan.outcome, manipulation: plan.manipulation, page, locator: pick(['Table 1', 'Table 2', 'Figure 3', 'Figure 2B', 'Results, p. 2']), quote: '' };
   if (plan.outcome === 'duration_distortion') {
     if (plan.logRatio) {
@@ -110,6 +114,7 @@ function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: nu
       }
       return { ...base, form: 'percent_change', reported: { percent: r1((Math.exp(target) - 1) * 100), se: r1(between(1.5, 3.5)), n: n1 }, quote: 'Durations were over-reproduced by a stated percentage.' };
     }
+    target += labShift(0.3);
     if (design === 'between') {
       const sd = r1(standardMs * between(0.12, 0.25));
       const m2 = r1(standardMs * between(0.9, 1.05));
@@ -225,6 +230,7 @@ async function seedPair(knex: Knex, refId: number, a: SheetInput, b: SheetInput,
 
 export async function seed(knex: Knex): Promise<void> {
   rand = prng(20261201);
+  labRand = prng(424242);
   await ensureVocabulary(knex);
   const curator = await userId(knex, 'curator');
   const c1 = await userId(knex, 'coder1');
