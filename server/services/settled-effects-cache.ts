@@ -7,6 +7,18 @@ import type { SettledEffect } from '../../shared/synthesis/types.js';
 interface Loaded {
   version: number;
   effects: SettledEffect[];
+  /** the same effects by manipulation term, each list in id order */
+  byManipulation: Map<string, SettledEffect[]>;
+}
+
+function indexByManipulation(effects: SettledEffect[]) {
+  const by = new Map<string, SettledEffect[]>();
+  for (const e of effects) {
+    const list = by.get(e.manipulation);
+    if (list) list.push(e);
+    else by.set(e.manipulation, [e]);
+  }
+  return by;
 }
 
 interface Slot {
@@ -28,7 +40,7 @@ export async function settledEffectsAt(db: Knex): Promise<Loaded> {
   if (slot.loaded?.version === version) return slot.loaded;
   if (slot.loading?.version !== version) {
     const promise = querySynthesisRows(db, {}).then((effects) => {
-      const loaded = { version, effects };
+      const loaded = { version, effects, byManipulation: indexByManipulation(effects) };
       if (!slot.loaded || slot.loaded.version <= version) slot.loaded = loaded;
       return loaded;
     });
@@ -67,5 +79,14 @@ export async function settledEffectsFor(db: Knex | Knex.Transaction, filters: Se
     return { registryVersion, effects };
   }
   const loaded = await settledEffectsAt(db as Knex);
-  return { registryVersion: loaded.version, effects: filterSettledEffects(loaded.effects, filters) };
+  return { registryVersion: loaded.version, effects: filterSettledEffects(candidates(loaded, filters), filters) };
+}
+
+/** Only the manipulations asked for, merged back into id order, instead of every settled effect. */
+function candidates(loaded: Loaded, filters: SettledEffectFilters): readonly SettledEffect[] {
+  if (filters.manipulation === undefined) return loaded.effects;
+  const terms = [...new Set(Array.isArray(filters.manipulation) ? filters.manipulation : [filters.manipulation])];
+  const lists = terms.map((t) => loaded.byManipulation.get(t) ?? []);
+  if (lists.length === 1) return lists[0];
+  return lists.flat().sort((a, b) => a.id - b.id);
 }

@@ -21,13 +21,16 @@ describe('settled effects held in memory per registry version', () => {
       {},
       { manipulation: 'luminance' },
       { manipulation: ['luminance', 'numerosity'], metric: 'hedges_g' as const },
+      { manipulation: ['numerosity', 'luminance', 'numerosity'] },
       { modality: 'auditory', yearFrom: 2008, yearTo: 2012 },
       { yearFrom: 2014 },
       { manipulation: 'no_such_term' },
       { outcome: 'simultaneity_window' },
     ];
     for (const f of cases) {
-      expect(filterSettledEffects(effects, f)).toEqual(await querySynthesisRows(t.ctx.db, f));
+      const fromDb = await querySynthesisRows(t.ctx.db, f);
+      expect(filterSettledEffects(effects, f)).toEqual(fromDb);
+      expect((await settledEffectsFor(t.ctx.db, f)).effects).toEqual(fromDb);
     }
     expect(filterSettledEffects(effects, { manipulation: 'luminance' }).length).toBeGreaterThanOrEqual(12);
   });
