@@ -1,39 +1,10 @@
 import type { Knex } from 'knex';
 import type { Sheet } from '../../shared/schemas/extraction.js';
-import { tryComputeReported, type ReportForm, type Reported } from '../../shared/extraction/compute.js';
+import { tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
+import type { StoredEffect, StoredStudy } from '../../shared/extraction/stored-sheet.js';
+
+export type { StoredEffect, StoredStudy };
 import { resolveManipulations } from '../services/manipulations.js';
-
-export interface StoredEffect {
-  id: number;
-  label: string;
-  outcome?: string;
-  manipulation?: string;
-  form?: ReportForm;
-  reported: Reported;
-  assumedR?: number;
-  page?: string;
-  locator?: string;
-  quote?: string;
-  version: number;
-  /** set when a curator withdrew this settled effect */
-  withdrawnReason?: string | null;
-  computed: { metric: string; effect: number; variance: number; formula: string; assumedR: number | null; n: number | null } | null;
-}
-
-export interface StoredStudy {
-  id: number;
-  studyId: number | null;
-  label: string;
-  design?: string;
-  n1?: number;
-  n2?: number;
-  population?: string;
-  diagnosis?: string;
-  modality?: string;
-  task?: string;
-  standardMs?: number;
-  effects: StoredEffect[];
-}
 
 const u = <T>(v: T | null | undefined): T | undefined => (v === null ? undefined : v);
 

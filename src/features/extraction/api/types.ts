@@ -1,35 +1,6 @@
-import type { ReportForm, Reported } from '../../../../shared/extraction/compute';
+import type { StoredEffect, StoredStudy } from '../../../../shared/extraction/stored-sheet';
 
-export interface StoredEffect {
-  id: number;
-  label: string;
-  outcome?: string;
-  manipulation?: string;
-  form?: ReportForm;
-  reported: Reported;
-  assumedR?: number;
-  page?: string;
-  locator?: string;
-  quote?: string;
-  version: number;
-  withdrawnReason?: string | null;
-  computed: { metric: string; effect: number; variance: number; formula: string; assumedR: number | null; n: number | null } | null;
-}
-
-export interface StoredStudy {
-  id: number;
-  studyId: number | null;
-  label: string;
-  design?: string;
-  n1?: number;
-  n2?: number;
-  population?: string;
-  diagnosis?: string;
-  modality?: string;
-  task?: string;
-  standardMs?: number;
-  effects: StoredEffect[];
-}
+export type { StoredEffect, StoredStudy };
 
 export interface ExtractionDetail {
   extraction: {
