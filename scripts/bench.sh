@@ -13,7 +13,7 @@ RUN_ID="bench-$$"
 cleanup() { pg_down; [ -n "${PG_CLUSTER_DIR:-}" ] && rm -rf "$PG_CLUSTER_DIR"; }
 trap cleanup EXIT
 trap 'exit 130' INT TERM
-pg_up "$RUN_ID" "$PG_PORT" || exit 1
+pg_up "$RUN_ID" "$PG_PORT" scratch || exit 1
 pg_create_db chronometa_bench
 export DB_NAME=chronometa_bench
 source scripts/local-env.sh

@@ -12,7 +12,7 @@ pg_up dev "$PG_PORT"
 pg_create_db "$DB_NAME"
 source scripts/local-env.sh
 export NODE_ENV=development
-node_modules/.bin/tsx server/fakes/run.ts & pids+=($!)
+for fake in oauth search doi mail; do node_modules/.bin/tsx server/fakes/run.ts "$fake" & pids+=($!); done
 npm run --silent db:migrate
 npm run --silent db:seed
 node_modules/.bin/tsx watch server/index.ts & pids+=($!)

@@ -27,9 +27,13 @@ pg_base_dir() {
   echo "/var/lib/chronometa/$key"
 }
 
-# pg_up NAME PORT: a cluster in <base>/NAME listening on 127.0.0.1:PORT.
+# pg_up NAME PORT [durable|scratch]: a cluster in <base>/NAME listening on 127.0.0.1:PORT.
+# durable (the default, for data a user keeps) keeps fsync on; scratch (throw-away test and bench clusters)
+# turns fsync and synchronous commit off for speed.
 pg_up() {
-  local name="$1" port="$2"
+  local name="$1" port="$2" durability="${3:-durable}"
+  local speed=""
+  [ "$durability" = scratch ] && speed="-c fsync=off -c synchronous_commit=off -c full_page_writes=off"
   pg_install_if_missing
   local base; base="$(pg_base_dir)"
   PG_CLUSTER_DIR="$base/$name"
@@ -44,7 +48,7 @@ pg_up() {
   fi
   if ! as_pg "$PGBIN/pg_ctl" -D "$PGDATA" status >/dev/null 2>&1; then
     as_pg "$PGBIN/pg_ctl" -D "$PGDATA" -l "$log" -w -t 60 \
-      -o "-c listen_addresses=127.0.0.1 -p $port -k $sockdir -c fsync=off -c max_connections=200" start >/dev/null \
+      -o "-c listen_addresses=127.0.0.1 -p $port -k $sockdir $speed -c max_connections=200" start >/dev/null \
       || { tail -n 20 "$log"; return 1; }
   fi
   local i

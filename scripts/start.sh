@@ -3,6 +3,7 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/pg.sh
+source scripts/supervise.sh
 
 if [ ! -x node_modules/.bin/tsx ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
   echo "Installing npm packages..."
@@ -15,10 +16,12 @@ export FAKE_BASE_PORT="${CHRONOMETA_FAKE_BASE_PORT:-4101}"
 export DB_NAME=chronometa
 external_db="${DATABASE_URL:-}"
 
-FAKES_PID=""; SERVER_PID=""
+LOG_DIR=".data/logs"
+mkdir -p "$LOG_DIR"
+TAIL_PID=""
 cleanup() {
-  [ -n "$SERVER_PID" ] && kill "$SERVER_PID" 2>/dev/null && wait "$SERVER_PID" 2>/dev/null
-  [ -n "$FAKES_PID" ] && kill "$FAKES_PID" 2>/dev/null && wait "$FAKES_PID" 2>/dev/null
+  [ -n "$TAIL_PID" ] && kill "$TAIL_PID" 2>/dev/null
+  stop_supervised
   [ -z "$external_db" ] && pg_down
   true
 }
@@ -34,14 +37,19 @@ source scripts/local-env.sh
 [ -n "$external_db" ] && export DATABASE_URL="$external_db"
 export NODE_ENV=production
 
-node_modules/.bin/tsx server/fakes/run.ts &
-FAKES_PID=$!
+# Each stand-in in its own process, restarted if it crashes.
+for fake in oauth search doi mail; do
+  supervise "$fake stand-in" "$LOG_DIR/fake-$fake.log" node_modules/.bin/tsx server/fakes/run.ts "$fake"
+done
 npm run --silent db:migrate
 npm run --silent db:seed
 echo "Building the client..."
 node_modules/.bin/vite build --logLevel error
-node_modules/.bin/tsx server/index.ts &
-SERVER_PID=$!
+# The server is restarted if it crashes; PostgreSQL and the stand-ins keep running meanwhile.
+supervise server "$LOG_DIR/server.log" node_modules/.bin/tsx server/index.ts
+SERVER_SUPERVISOR=$!
+tail -n 0 -F "$LOG_DIR/server.log" 2>/dev/null &
+TAIL_PID=$!
 for _ in $(seq 1 120); do
   curl -fsS -o /dev/null "$APP_ORIGIN/api/health" 2>/dev/null && break
   sleep 0.5
@@ -49,4 +57,6 @@ done
 echo
 echo "Chronometa is up: $APP_ORIGIN"
 echo "Sign in as one of the demo people: admin, curator, coder1, coder2, reviewer, reader. Ctrl-C stops everything."
-wait "$SERVER_PID"
+echo "Logs: $LOG_DIR/"
+# Ends when the server could not be kept running (or on Ctrl-C); cleanup stops everything else.
+wait "$SERVER_SUPERVISOR" || true

@@ -28,7 +28,7 @@ cleanup() {
 trap cleanup EXIT
 trap 'exit 130' INT TERM
 
-pg_up "$RUN_ID" "$PG_PORT" || exit 1
+pg_up "$RUN_ID" "$PG_PORT" scratch || exit 1
 pg_create_db chronometa_test
 export DB_NAME=chronometa_test
 source scripts/local-env.sh

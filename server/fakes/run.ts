@@ -26,20 +26,35 @@ export interface RunningFakes {
   stop(): Promise<void>;
 }
 
-export async function startFakes(ports: FakePorts): Promise<RunningFakes> {
-  const closers: Array<() => Promise<void>> = [];
-  const track = (server: Server) => closers.push(() => new Promise<void>((r) => server.close(() => r())));
+export const FAKE_NAMES = ['oauth', 'search', 'doi', 'mail'] as const;
+export type FakeName = (typeof FAKE_NAMES)[number];
 
-  track(await startOAuthProvider(ports.oauth));
-  // Other stand-ins register here (search index, DOI resolver, SMTP + mailbox).
-  track(await startSearchIndex(ports.meili));
-  const doiResolver = await startDoiResolver(ports.doi);
-  // The resolver holds deliberately slow requests open: drop them on stop.
-  closers.push(() => new Promise<void>((r) => (doiResolver.close(() => r()), doiResolver.closeAllConnections())));
-  const mail = await startFakeSmtp(ports.smtp, ports.mailbox);
-  track(mail.mailbox);
-  closers.push(() => new Promise<void>((r) => mail.smtp.close(() => r())));
+type Closer = () => Promise<void>;
+const closeServer = (server: Server): Closer => () => new Promise<void>((r) => server.close(() => r()));
 
+/** Starts one stand-in; returns what stops it. */
+async function startFake(name: FakeName, ports: FakePorts): Promise<Closer[]> {
+  switch (name) {
+    case 'oauth':
+      return [closeServer(await startOAuthProvider(ports.oauth))];
+    case 'search':
+      return [closeServer(await startSearchIndex(ports.meili))];
+    case 'doi': {
+      const resolver = await startDoiResolver(ports.doi);
+      // The resolver holds deliberately slow requests open: drop them on stop.
+      return [() => new Promise<void>((r) => (resolver.close(() => r()), resolver.closeAllConnections()))];
+    }
+    case 'mail': {
+      const mail = await startFakeSmtp(ports.smtp, ports.mailbox);
+      return [closeServer(mail.mailbox), () => new Promise<void>((r) => mail.smtp.close(() => r()))];
+    }
+  }
+}
+
+/** Starts the named stand-ins (all by default) in this process. */
+export async function startFakes(ports: FakePorts, names: readonly FakeName[] = FAKE_NAMES): Promise<RunningFakes> {
+  const closers: Closer[] = [];
+  for (const name of names) closers.push(...(await startFake(name, ports)));
   return {
     async stop() {
       await Promise.all(closers.map((c) => c()));
@@ -47,10 +62,25 @@ export async function startFakes(ports: FakePorts): Promise<RunningFakes> {
   };
 }
 
+// `tsx server/fakes/run.ts [oauth|search|doi|mail ...]`: the named stand-ins (all when none is named).
+// The start scripts run each in its own process, so one failing does not take the others down.
 if (import.meta.url === `file://${process.argv[1]}`) {
   const ports = fakePortsFromEnv();
-  const fakes = await startFakes(ports);
-  console.log(`Local stand-ins on 127.0.0.1: OAuth ${ports.oauth}, search ${ports.meili}, DOI ${ports.doi}, SMTP ${ports.smtp}, mailbox ${ports.mailbox}`);
+  const asked = process.argv.slice(2);
+  const unknown = asked.filter((n) => !(FAKE_NAMES as readonly string[]).includes(n));
+  if (unknown.length) {
+    console.error(`Unknown stand-in ${unknown.join(', ')}; choose from ${FAKE_NAMES.join(', ')}.`);
+    process.exit(2);
+  }
+  const names = asked.length ? (asked as FakeName[]) : FAKE_NAMES;
+  const fakes = await startFakes(ports, names);
+  const where: Record<FakeName, string> = {
+    oauth: `OAuth ${ports.oauth}`,
+    search: `search ${ports.meili}`,
+    doi: `DOI ${ports.doi}`,
+    mail: `SMTP ${ports.smtp}, mailbox ${ports.mailbox}`,
+  };
+  console.log(`Local stand-in on 127.0.0.1: ${names.map((n) => where[n]).join(', ')}`);
   const stop = () => fakes.stop().finally(() => process.exit(0));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
