@@ -4,8 +4,7 @@ import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { Pager } from '../../components/ui/Pager';
 import { SortHeader } from '../../components/ui/SortHeader';
 import { useMe } from '../../features/auth/api/get-me';
-import type { SnapshotListQuery } from '../../features/snapshots/api/keys';
-import { useSnapshots } from '../../features/snapshots/api/list-snapshots';
+import { useSnapshots, type SnapshotListQuery } from '../../features/snapshots/api/list-snapshots';
 import { valueLabel } from '../../features/synthesis/labels';
 
 export function SnapshotsPage() {

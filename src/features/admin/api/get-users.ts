@@ -2,6 +2,7 @@ import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query'
 import type { Role } from '../../../../shared/roles';
 import type { UserListQuery } from '../../../../shared/schemas/users';
 import { api, queryString } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface AdminUser {
   id: number;
@@ -13,17 +14,11 @@ export interface AdminUser {
   roles: Role[];
 }
 
-export const usersKeys = {
-  all: ['users'] as const,
-  lists: () => [...usersKeys.all, 'list'] as const,
-  list: (q: Partial<UserListQuery>) => [...usersKeys.lists(), q] as const,
-};
-
 export const getUsers = (q: Partial<UserListQuery>) =>
   api<{ items: AdminUser[]; total: number; page: number; pageSize: number }>(`/api/admin/users${queryString(q)}`);
 
 export const usersQueryOptions = (q: Partial<UserListQuery>) =>
-  queryOptions({ queryKey: usersKeys.list(q), queryFn: () => getUsers(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.users.list(q), queryFn: () => getUsers(q), placeholderData: keepPreviousData });
 
 export function useUsers(q: Partial<UserListQuery>) {
   return useQuery(usersQueryOptions(q));

@@ -1,12 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Role } from '../../../../shared/roles';
 import { api } from '../../../lib/api-client';
-import { usersKeys } from './get-users';
+import { queryKeys } from '../../../lib/query/keys';
 
 export const setRole = ({ userId, role, granted }: { userId: number; role: Role; granted: boolean }) =>
   api<{ user: { id: number; roles: Role[] } }>(`/api/admin/users/${userId}/roles/${role}`, { method: granted ? 'PUT' : 'DELETE' });
 
 export function useSetRole() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: setRole, onSuccess: () => qc.invalidateQueries({ queryKey: usersKeys.lists() }) });
+  return useMutation({ mutationFn: setRole, onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.users.lists() }) });
 }

@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface AgreementSummary {
   pairs: number;
@@ -18,15 +19,9 @@ export interface ReferenceAgreement {
   effectSizes: { metric: string; items: number; icc: number | null }[];
 }
 
-export const agreementKeys = {
-  all: ['agreement'] as const,
-  overall: () => [...agreementKeys.all, 'overall'] as const,
-  references: (q: object) => [...agreementKeys.all, 'references', q] as const,
-};
-
 export const getAgreement = () => api<{ overall: AgreementSummary; coderPairs: (AgreementSummary & { coders: string })[] }>('/api/agreement');
 
-export const agreementQueryOptions = () => queryOptions({ queryKey: agreementKeys.overall(), queryFn: getAgreement });
+export const agreementQueryOptions = () => queryOptions({ queryKey: queryKeys.agreement.overall(), queryFn: getAgreement });
 
 export function useAgreement() {
   return useQuery(agreementQueryOptions());
@@ -42,5 +37,5 @@ export interface ReferenceAgreementQuery {
 export const getReferenceAgreement = (q: ReferenceAgreementQuery) => api<{ items: ReferenceAgreement[]; total: number }>(`/api/agreement/references${queryString({ ...q })}`);
 
 export function useReferenceAgreement(q: ReferenceAgreementQuery) {
-  return useQuery({ queryKey: agreementKeys.references(q), queryFn: () => getReferenceAgreement(q), placeholderData: keepPreviousData });
+  return useQuery({ queryKey: queryKeys.agreement.references(q), queryFn: () => getReferenceAgreement(q), placeholderData: keepPreviousData });
 }

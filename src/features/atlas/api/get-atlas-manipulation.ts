@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { atlasKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 import type { Counts, PooledCell } from './types';
 
 export interface AtlasManipulation {
@@ -11,7 +11,7 @@ export interface AtlasManipulation {
 
 export const getAtlasManipulation = (term: string) => api<AtlasManipulation>(`/api/atlas/manipulations/${encodeURIComponent(term)}`);
 export const atlasManipulationQueryOptions = (term: string) =>
-  queryOptions({ queryKey: atlasKeys.manipulation(term), queryFn: () => getAtlasManipulation(term), staleTime: 60_000, retry: false });
+  queryOptions({ queryKey: queryKeys.atlas.manipulation(term), queryFn: () => getAtlasManipulation(term), staleTime: 60_000, retry: false });
 export function useAtlasManipulation(term: string) {
   return useQuery(atlasManipulationQueryOptions(term));
 }

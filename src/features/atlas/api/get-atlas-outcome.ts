@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { atlasKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 import type { Counts, PooledCell } from './types';
 
 export interface AtlasOutcome {
@@ -11,7 +11,7 @@ export interface AtlasOutcome {
 
 export const getAtlasOutcome = (kind: string) => api<AtlasOutcome>(`/api/atlas/outcomes/${encodeURIComponent(kind)}`);
 export const atlasOutcomeQueryOptions = (kind: string) =>
-  queryOptions({ queryKey: atlasKeys.outcome(kind), queryFn: () => getAtlasOutcome(kind), staleTime: 60_000, retry: false });
+  queryOptions({ queryKey: queryKeys.atlas.outcome(kind), queryFn: () => getAtlasOutcome(kind), staleTime: 60_000, retry: false });
 export function useAtlasOutcome(kind: string) {
   return useQuery(atlasOutcomeQueryOptions(kind));
 }

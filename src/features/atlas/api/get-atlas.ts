@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { atlasKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 import type { Counts } from './types';
 
 export interface AtlasLanding {
@@ -10,7 +10,7 @@ export interface AtlasLanding {
 }
 
 export const getAtlas = () => api<AtlasLanding>('/api/atlas');
-export const atlasQueryOptions = () => queryOptions({ queryKey: atlasKeys.landing(), queryFn: getAtlas, staleTime: 60_000 });
+export const atlasQueryOptions = () => queryOptions({ queryKey: queryKeys.atlas.landing(), queryFn: getAtlas, staleTime: 60_000 });
 export function useAtlas() {
   return useQuery(atlasQueryOptions());
 }

@@ -2,12 +2,11 @@ import { useState } from 'react';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { SortHeader } from '../../../components/ui/SortHeader';
-import { useAtlasReferences } from '../api/get-atlas-references';
-import type { ReferencesQuery } from '../api/keys';
+import { FIRST_REFERENCES_PAGE, useAtlasReferences, type ReferencesQuery } from '../api/get-atlas-references';
 
 /** The references behind an atlas page; paged and sorted on the server. */
 export function ReferencesTable({ scope, slug }: { scope: 'manipulations' | 'outcomes'; slug: string }) {
-  const [q, setQ] = useState<ReferencesQuery>({ page: 1, pageSize: 25, sort: 'year', order: 'asc' });
+  const [q, setQ] = useState<ReferencesQuery>(FIRST_REFERENCES_PAGE);
   const { data, isLoading, error } = useAtlasReferences(scope, slug, q);
   const onSort = (sort: ReferencesQuery['sort'], order: 'asc' | 'desc') => setQ({ ...q, sort, order, page: 1 });
   if (isLoading) return <Loading what="Loading the references" />;

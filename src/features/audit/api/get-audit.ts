@@ -1,5 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface AuditItem {
   id: number;
@@ -19,16 +20,10 @@ export interface AuditQuery {
   action?: string;
 }
 
-export const auditKeys = {
-  all: ['audit'] as const,
-  lists: () => [...auditKeys.all, 'list'] as const,
-  list: (q: AuditQuery) => [...auditKeys.lists(), q] as const,
-};
-
 export const getAudit = (q: AuditQuery) => api<{ items: AuditItem[]; total: number }>(`/api/admin/audit${queryString({ ...q })}`);
 
 export const auditQueryOptions = (q: AuditQuery) =>
-  queryOptions({ queryKey: auditKeys.list(q), queryFn: () => getAudit(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.audit.list(q), queryFn: () => getAudit(q), placeholderData: keepPreviousData });
 
 export function useAudit(q: AuditQuery) {
   return useQuery(auditQueryOptions(q));

@@ -2,8 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Me } from '../../../../shared/schemas/users';
 import { hasRole, type Role } from '../../../../shared/roles';
 import { api, ApiRequestError } from '../../../lib/api-client';
-
-export const authKeys = { all: ['auth'] as const, me: () => [...authKeys.all, 'me'] as const };
+import { queryKeys } from '../../../lib/query/keys';
 
 export async function getMe(): Promise<Me | null> {
   try {
@@ -14,7 +13,7 @@ export async function getMe(): Promise<Me | null> {
   }
 }
 
-export const meQueryOptions = () => queryOptions({ queryKey: authKeys.me(), queryFn: getMe, staleTime: 60_000 });
+export const meQueryOptions = () => queryOptions({ queryKey: queryKeys.auth.me(), queryFn: getMe, staleTime: 60_000 });
 
 export function useMe() {
   return useQuery(meQueryOptions());

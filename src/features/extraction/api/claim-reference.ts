@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { extractionKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export const claimReference = (referenceId: number) => api<{ id: number }>('/api/extractions', { method: 'POST', body: { referenceId } });
 
 export function useClaimReference() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: claimReference, onSuccess: () => qc.invalidateQueries({ queryKey: extractionKeys.all }) });
+  return useMutation({ mutationFn: claimReference, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.extractions.all }), qc.invalidateQueries({ queryKey: queryKeys.assignments.all })]) });
 }

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { extractionKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface ClaimableQuery {
   q?: string;
@@ -20,7 +20,7 @@ export interface Claimable {
 export const getClaimable = (q: ClaimableQuery) => api<{ items: Claimable[]; total: number }>(`/api/extractions/claimable${queryString({ ...q })}`);
 
 export const claimableQueryOptions = (q: ClaimableQuery) =>
-  queryOptions({ queryKey: [...extractionKeys.all, 'claimable', q], queryFn: () => getClaimable(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.extractions.claimable(q), queryFn: () => getClaimable(q), placeholderData: keepPreviousData });
 
 export function useClaimable(q: ClaimableQuery) {
   return useQuery(claimableQueryOptions(q));

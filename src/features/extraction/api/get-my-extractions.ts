@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { extractionKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface MyExtractionsQuery {
   state?: string;
@@ -24,7 +24,7 @@ export interface MyExtraction {
 export const getMyExtractions = (q: MyExtractionsQuery) => api<{ items: MyExtraction[]; total: number }>(`/api/extractions${queryString({ ...q })}`);
 
 export const myExtractionsQueryOptions = (q: MyExtractionsQuery) =>
-  queryOptions({ queryKey: extractionKeys.list(q), queryFn: () => getMyExtractions(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.extractions.list(q), queryFn: () => getMyExtractions(q), placeholderData: keepPreviousData });
 
 export function useMyExtractions(q: MyExtractionsQuery) {
   return useQuery(myExtractionsQueryOptions(q));

@@ -1,11 +1,20 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { extractionKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
+import { registryChanged } from '../../../lib/query/registry-changed';
 
 export const submitExtraction = ({ id, version }: { id: number; version: number }) =>
   api<{ state: string; pairState: string | null; discrepancies: number; recordId?: number }>(`/api/extractions/${id}/submit`, { method: 'POST', body: { version } });
 
 export function useSubmitExtraction() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: submitExtraction, onSuccess: () => qc.invalidateQueries({ queryKey: extractionKeys.all }) });
+  return useMutation({
+    mutationFn: submitExtraction,
+    onSuccess: (result) =>
+      Promise.all([
+        ...[queryKeys.extractions.all, queryKeys.assignments.all, queryKeys.reconciliation.all, queryKeys.agreement.all].map((queryKey) => qc.invalidateQueries({ queryKey })),
+        // Two codings that agree settle at once.
+        ...(result.state === 'settled' ? [qc.invalidateQueries({ queryKey: queryKeys.records.all }), registryChanged(qc)] : []),
+      ]),
+  });
 }

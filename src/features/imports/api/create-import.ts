@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ImportFormat, ImportResult } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
-import { importsKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export type ImportInput = { format: ImportFormat; text: string; label?: string } | { format?: ImportFormat; file: File };
 
@@ -20,11 +20,11 @@ export function useCreateImport() {
   return useMutation({
     mutationFn: createImport,
     onSuccess: (data) => {
-      qc.setQueryData(importsKeys.detail(data.batch.id), data);
-      // New references and queue entries appear elsewhere too.
-      void qc.invalidateQueries({ queryKey: importsKeys.lists() });
-      void qc.invalidateQueries({ queryKey: ['references'] });
-      void qc.invalidateQueries({ queryKey: ['screening'] });
+      qc.setQueryData(queryKeys.imports.detail(data.batch.id), data);
+      // New references, queue entries and likely duplicates appear elsewhere too.
+      for (const queryKey of [queryKeys.imports.lists(), queryKeys.references.all, queryKeys.screening.all, queryKeys.duplicates.all, queryKeys.search.all]) {
+        void qc.invalidateQueries({ queryKey });
+      }
     },
   });
 }

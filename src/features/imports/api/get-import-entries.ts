@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { EntryStatus, ImportEntryView } from '../../../../shared/schemas/references';
 import { api, queryString } from '../../../lib/api-client';
-import { importsKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface EntriesQuery {
   page: number;
@@ -14,7 +14,7 @@ export const getImportEntries = (id: number, q: EntriesQuery) =>
   api<{ entries: ImportEntryView[]; entriesTotal: number }>(`/api/imports/${id}${queryString({ entryPage: q.page, entryPageSize: 100, entryStatus: q.status || undefined })}`);
 
 export const importEntriesQueryOptions = (id: number, q: EntriesQuery) =>
-  queryOptions({ queryKey: [...importsKeys.detail(id), 'entries', q], queryFn: () => getImportEntries(id, q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.imports.entries(id, q), queryFn: () => getImportEntries(id, q), placeholderData: keepPreviousData });
 
 /** One page of a batch's entries, asked of the server (a batch may hold thousands). */
 export function useImportEntries(id: number, q: EntriesQuery) {

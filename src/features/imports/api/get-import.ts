@@ -1,14 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ImportResult } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
-import { importsKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export const getImport = (id: number) => api<ImportResult>(`/api/imports/${id}`);
 
 /** Polls while the batch is still running (DOI batches resolve in the background). */
 export const importQueryOptions = (id: number) =>
   queryOptions({
-    queryKey: importsKeys.detail(id),
+    queryKey: queryKeys.imports.detail(id),
     queryFn: () => getImport(id),
     refetchInterval: (q) => (q.state.data?.batch.state === 'running' ? 700 : false),
   });

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { ImportBatchView } from '../../../../shared/schemas/references';
 import { api, queryString } from '../../../lib/api-client';
-import { importsKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface ImportsQuery {
   page: number;
@@ -12,7 +12,7 @@ export interface ImportsQuery {
 
 export const getImports = (q: ImportsQuery) => api<{ items: ImportBatchView[]; total: number; page: number; pageSize: number }>(`/api/imports${queryString({ ...q })}`);
 
-export const importsQueryOptions = (q: ImportsQuery) => queryOptions({ queryKey: importsKeys.list(q), queryFn: () => getImports(q), placeholderData: keepPreviousData });
+export const importsQueryOptions = (q: ImportsQuery) => queryOptions({ queryKey: queryKeys.imports.list(q), queryFn: () => getImports(q), placeholderData: keepPreviousData });
 
 export function useImports(q: ImportsQuery) {
   return useQuery(importsQueryOptions(q));

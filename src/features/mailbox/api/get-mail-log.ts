@@ -1,11 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-
-export const mailKeys = {
-  all: ['mail'] as const,
-  log: (q: object) => [...mailKeys.all, 'log', q] as const,
-  mailbox: (q: object) => [...mailKeys.all, 'mailbox', q] as const,
-};
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface MailLogRow {
   id: number;
@@ -31,7 +26,7 @@ export const getMailLog = (q: { status?: string; page: number; pageSize: number;
   api<{ items: MailLogRow[]; total: number }>(`/api/mail/log${queryString({ ...q })}`);
 
 export const mailLogQueryOptions = (q: { status?: string; page: number; pageSize: number; order: 'asc' | 'desc' }) =>
-  queryOptions({ queryKey: mailKeys.log(q), queryFn: () => getMailLog(q), placeholderData: keepPreviousData, refetchInterval: 5000 });
+  queryOptions({ queryKey: queryKeys.mail.list(q), queryFn: () => getMailLog(q), placeholderData: keepPreviousData, refetchInterval: 5000 });
 
 export function useMailLog(q: { status?: string; page: number; pageSize: number; order: 'asc' | 'desc' }) {
   return useQuery(mailLogQueryOptions(q));

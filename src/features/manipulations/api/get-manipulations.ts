@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { manipulationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface Manipulation {
   id: number;
@@ -23,7 +23,7 @@ export interface ManipulationsQuery {
 export const getManipulations = (q: ManipulationsQuery) => api<{ items: Manipulation[]; total: number }>(`/api/manipulations${queryString({ ...q })}`);
 
 export const manipulationsQueryOptions = (q: ManipulationsQuery = {}) =>
-  queryOptions({ queryKey: manipulationKeys.list(q), queryFn: () => getManipulations(q), placeholderData: keepPreviousData, staleTime: 60_000 });
+  queryOptions({ queryKey: queryKeys.manipulations.list(q), queryFn: () => getManipulations(q), placeholderData: keepPreviousData, staleTime: 60_000 });
 
 export function useManipulations(q: ManipulationsQuery = {}) {
   return useQuery(manipulationsQueryOptions(q));

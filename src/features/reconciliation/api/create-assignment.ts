@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export const createAssignment = (body: { referenceId: number; coder1Id: number; coder2Id: number }) =>
   api<{ id: number; extractionIds: number[] }>('/api/assignments', { method: 'POST', body });
 
 export function useCreateAssignment() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: createAssignment, onSuccess: () => qc.invalidateQueries({ queryKey: reconciliationKeys.all }) });
+  return useMutation({ mutationFn: createAssignment, onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.assignments.all }), qc.invalidateQueries({ queryKey: queryKeys.extractions.all })]) });
 }

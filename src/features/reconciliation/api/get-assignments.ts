@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface AssignmentsQuery {
   state?: string;
@@ -25,7 +25,7 @@ export interface AssignmentRow {
 export const getAssignments = (q: AssignmentsQuery) => api<{ items: AssignmentRow[]; total: number }>(`/api/assignments${queryString({ ...q })}`);
 
 export const assignmentsQueryOptions = (q: AssignmentsQuery) =>
-  queryOptions({ queryKey: reconciliationKeys.assignments(q), queryFn: () => getAssignments(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.assignments.list(q), queryFn: () => getAssignments(q), placeholderData: keepPreviousData });
 
 export function useAssignments(q: AssignmentsQuery) {
   return useQuery(assignmentsQueryOptions(q));

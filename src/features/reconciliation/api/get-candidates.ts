@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface CandidatesQuery {
   q?: string;
@@ -23,7 +23,7 @@ export interface Candidate {
 export const getCandidates = (q: CandidatesQuery) => api<{ items: Candidate[]; total: number }>(`/api/assignments/candidates${queryString({ ...q })}`);
 
 export const candidatesQueryOptions = (q: CandidatesQuery) =>
-  queryOptions({ queryKey: reconciliationKeys.candidates(q), queryFn: () => getCandidates(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.assignments.candidates(q), queryFn: () => getCandidates(q), placeholderData: keepPreviousData });
 
 export function useCandidates(q: CandidatesQuery) {
   return useQuery(candidatesQueryOptions(q));

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface Coder {
   id: number;
@@ -10,7 +10,7 @@ export interface Coder {
 
 export const getCoders = () => api<{ items: Coder[] }>('/api/assignments/coders');
 
-export const codersQueryOptions = () => queryOptions({ queryKey: reconciliationKeys.coders(), queryFn: getCoders, staleTime: 60_000 });
+export const codersQueryOptions = () => queryOptions({ queryKey: queryKeys.assignments.coders(), queryFn: getCoders, staleTime: 60_000 });
 
 export function useCoders() {
   return useQuery(codersQueryOptions());

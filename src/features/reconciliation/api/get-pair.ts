@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { StoredStudy } from '../../extraction/api/types';
-import { reconciliationKeys } from './keys';
+import type { StoredStudy } from '../../../../shared/extraction/stored-sheet';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface PairSide {
   extractionId: number;
@@ -32,7 +32,7 @@ export interface PairDetail {
 
 export const getPair = (id: number) => api<PairDetail>(`/api/reconciliation/${id}`);
 
-export const pairQueryOptions = (id: number) => queryOptions({ queryKey: reconciliationKeys.pair(id), queryFn: () => getPair(id) });
+export const pairQueryOptions = (id: number) => queryOptions({ queryKey: queryKeys.reconciliation.detail(id), queryFn: () => getPair(id) });
 
 export function usePair(id: number) {
   return useQuery(pairQueryOptions(id));

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface QueueQuery {
   page: number;
@@ -31,7 +31,7 @@ export interface ReopenedItem {
 
 export const getQueue = (q: QueueQuery) => api<{ items: QueueItem[]; total: number; reopened: ReopenedItem[] }>(`/api/reconciliation${queryString({ ...q })}`);
 
-export const queueQueryOptions = (q: QueueQuery) => queryOptions({ queryKey: reconciliationKeys.queue(q), queryFn: () => getQueue(q), placeholderData: keepPreviousData });
+export const queueQueryOptions = (q: QueueQuery) => queryOptions({ queryKey: queryKeys.reconciliation.list(q), queryFn: () => getQueue(q), placeholderData: keepPreviousData });
 
 export function useQueue(q: QueueQuery) {
   return useQuery(queueQueryOptions(q));

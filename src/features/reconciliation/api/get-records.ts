@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface RecordVersion {
   id: number;
@@ -24,7 +24,7 @@ export interface SettlementRow {
 
 export const getRecords = (referenceId: number) => api<{ records: RecordVersion[]; settlements: SettlementRow[] }>(`/api/records${queryString({ referenceId })}`);
 
-export const recordsQueryOptions = (referenceId: number) => queryOptions({ queryKey: reconciliationKeys.records(referenceId), queryFn: () => getRecords(referenceId) });
+export const recordsQueryOptions = (referenceId: number) => queryOptions({ queryKey: queryKeys.records.history(referenceId), queryFn: () => getRecords(referenceId) });
 
 export function useRecords(referenceId: number | undefined) {
   return useQuery({ ...recordsQueryOptions(referenceId ?? 0), enabled: !!referenceId });

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export const resolveDiscrepancy = ({ assignmentId, id, ...body }: { assignmentId: number; id: number; resolution: 'a' | 'b' | 'value'; value?: unknown; rationale: string }) =>
   api<{ discrepancy: { id: number; status: string } }>(`/api/reconciliation/${assignmentId}/discrepancies/${id}`, { method: 'PUT', body });
 
 export function useResolveDiscrepancy(assignmentId: number) {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: resolveDiscrepancy, onSuccess: () => qc.invalidateQueries({ queryKey: reconciliationKeys.pair(assignmentId) }) });
+  return useMutation({ mutationFn: resolveDiscrepancy, onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.reconciliation.detail(assignmentId) }) });
 }

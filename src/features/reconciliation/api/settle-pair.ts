@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { settledWorkChanged } from './settled-work-changed';
 
 export const settlePair = ({ assignmentId, rationale }: { assignmentId: number; rationale: string }) =>
   api<{ recordId: number; recordVersion: number; registryVersion: number }>(`/api/reconciliation/${assignmentId}/settle`, { method: 'POST', body: { rationale } });
 
 export function useSettlePair() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: settlePair, onSuccess: () => qc.invalidateQueries({ queryKey: reconciliationKeys.all }) });
+  return useMutation({ mutationFn: settlePair, onSuccess: () => settledWorkChanged(qc) });
 }

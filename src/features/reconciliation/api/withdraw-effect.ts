@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { settledWorkChanged } from './settled-work-changed';
 
 export const withdrawEffect = ({ id, reason }: { id: number; reason: string }) =>
   api<{ id: number; withdrawn: boolean; registryVersion: number }>(`/api/effects/${id}/withdraw`, { method: 'POST', body: { reason } });
 
 export function useWithdrawEffect() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: withdrawEffect, onSuccess: () => qc.invalidateQueries({ queryKey: reconciliationKeys.all }) });
+  return useMutation({ mutationFn: withdrawEffect, onSuccess: () => settledWorkChanged(qc) });
 }

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { reconciliationKeys } from './keys';
+import { settledWorkChanged } from './settled-work-changed';
 
 export const withdrawRecord = ({ id, reason }: { id: number; reason: string }) =>
   api<{ recordId: number; state: string; registryVersion: number }>(`/api/records/${id}/withdraw`, { method: 'POST', body: { reason } });
 
 export function useWithdrawRecord() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: withdrawRecord, onSuccess: () => qc.invalidateQueries({ queryKey: reconciliationKeys.all }) });
+  return useMutation({ mutationFn: withdrawRecord, onSuccess: () => settledWorkChanged(qc) });
 }

@@ -1,12 +1,17 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ReferenceEdit } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
-import { referencesKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
+import { registryChanged } from '../../../lib/query/registry-changed';
 
 export const editReference = ({ id, edit }: { id: number; edit: ReferenceEdit }) =>
   api<{ id: number; version: number; changed: string[] }>(`/api/references/${id}`, { method: 'PATCH', body: edit });
 
 export function useEditReference() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: editReference, onSuccess: () => qc.invalidateQueries({ queryKey: referencesKeys.all }) });
+  return useMutation({
+    mutationFn: editReference,
+    // Titles, years and authors show in syntheses, the atlas and search.
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: queryKeys.references.all }), qc.invalidateQueries({ queryKey: queryKeys.duplicates.all }), registryChanged(qc)]),
+  });
 }

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { referencesKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 import type { Page, ReferenceSummary } from './types';
 
 export type DuplicateSide = ReferenceSummary & { richness: number; mergedInto: number | null; fields: number };
@@ -25,7 +25,7 @@ export interface DuplicateQuery {
 
 export const getDuplicates = (q: DuplicateQuery) => api<Page<DuplicateCandidate>>(`/api/duplicates${queryString({ ...q })}`);
 
-export const duplicatesQueryOptions = (q: DuplicateQuery) => queryOptions({ queryKey: referencesKeys.duplicates(q), queryFn: () => getDuplicates(q), placeholderData: keepPreviousData });
+export const duplicatesQueryOptions = (q: DuplicateQuery) => queryOptions({ queryKey: queryKeys.duplicates.list(q), queryFn: () => getDuplicates(q), placeholderData: keepPreviousData });
 
 export function useDuplicates(q: DuplicateQuery) {
   return useQuery(duplicatesQueryOptions(q));

@@ -1,13 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { ReferenceListQuery } from '../../../../shared/schemas/references';
 import { api, queryString } from '../../../lib/api-client';
-import { referencesKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 import type { Page, ReferenceSummary } from './types';
 
 export const getReferences = (q: Partial<ReferenceListQuery>) => api<Page<ReferenceSummary>>(`/api/references${queryString(q)}`);
 
 export const referencesQueryOptions = (q: Partial<ReferenceListQuery>) =>
-  queryOptions({ queryKey: referencesKeys.list(q), queryFn: () => getReferences(q), placeholderData: keepPreviousData });
+  queryOptions({ queryKey: queryKeys.references.list(q), queryFn: () => getReferences(q), placeholderData: keepPreviousData });
 
 export function useReferences(q: Partial<ReferenceListQuery>) {
   return useQuery(referencesQueryOptions(q));

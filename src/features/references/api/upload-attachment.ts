@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { referencesKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export const uploadAttachment = ({ id, file }: { id: number; file: File }) => {
   const form = new FormData();
@@ -10,7 +10,7 @@ export const uploadAttachment = ({ id, file }: { id: number; file: File }) => {
 
 export function useUploadAttachment() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: uploadAttachment, onSuccess: (_d, v) => qc.invalidateQueries({ queryKey: referencesKeys.detail(v.id) }) });
+  return useMutation({ mutationFn: uploadAttachment, onSuccess: (_d, v) => qc.invalidateQueries({ queryKey: queryKeys.references.detail(v.id) }) });
 }
 
 export const attachmentHref = (refId: number, attachmentId: number) => `/api/references/${refId}/attachments/${attachmentId}`;

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { screeningKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface PrismaCounts {
   identified: { total: number; bySource: Record<string, number> };
@@ -14,7 +14,7 @@ export interface PrismaCounts {
 
 export const getCounts = () => api<PrismaCounts>('/api/screening/counts');
 
-export const countsQueryOptions = () => queryOptions({ queryKey: screeningKeys.counts(), queryFn: getCounts });
+export const countsQueryOptions = () => queryOptions({ queryKey: queryKeys.screening.counts(), queryFn: getCounts });
 
 export function useCounts() {
   return useQuery(countsQueryOptions());

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api, queryString } from '../../../lib/api-client';
-import { screeningKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface QueueItem {
   id: number;
@@ -15,7 +15,7 @@ export interface QueueItem {
 
 export const getQueue = (q: { limit: number; batch?: number }) => api<{ items: QueueItem[]; remaining: number }>(`/api/screening/queue${queryString(q)}`);
 
-export const queueQueryOptions = (q: { limit: number; batch?: number }) => queryOptions({ queryKey: screeningKeys.queue(q), queryFn: () => getQueue(q) });
+export const queueQueryOptions = (q: { limit: number; batch?: number }) => queryOptions({ queryKey: queryKeys.screening.list(q), queryFn: () => getQueue(q) });
 
 export function useQueue(q: { limit: number; batch?: number }) {
   return useQuery(queueQueryOptions(q));

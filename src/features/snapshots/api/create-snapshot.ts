@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { SynthesisRequest } from '../../../../shared/schemas/synthesis';
 import { api } from '../../../lib/api-client';
-import { snapshotsKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface CreatedSnapshot {
   id: string;
@@ -14,5 +14,5 @@ export const createSnapshot = (body: SynthesisRequest & { title?: string }) => a
 
 export function useCreateSnapshot() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: createSnapshot, onSuccess: () => qc.invalidateQueries({ queryKey: snapshotsKeys.lists() }) });
+  return useMutation({ mutationFn: createSnapshot, onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.snapshots.lists() }) });
 }

@@ -2,7 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { SynthesisOutput } from '../../../../shared/synthesis/types';
 import type { PrismaCounts } from '../../../../shared/synthesis/methods';
 import { api } from '../../../lib/api-client';
-import { snapshotsKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export type Snapshot = SynthesisOutput & {
   id: string;
@@ -21,7 +21,7 @@ export type Snapshot = SynthesisOutput & {
 export const getSnapshot = (id: string) => api<Snapshot>(`/api/snapshots/${encodeURIComponent(id)}`);
 
 // Snapshots never change: cache forever.
-export const snapshotQueryOptions = (id: string) => queryOptions({ queryKey: snapshotsKeys.detail(id), queryFn: () => getSnapshot(id), staleTime: Infinity, retry: false });
+export const snapshotQueryOptions = (id: string) => queryOptions({ queryKey: queryKeys.snapshots.detail(id), queryFn: () => getSnapshot(id), staleTime: Infinity, retry: false });
 
 export function useSnapshot(id: string) {
   return useQuery(snapshotQueryOptions(id));

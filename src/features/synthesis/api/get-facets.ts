@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import { synthesisKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface Facet {
   value: string;
@@ -22,7 +22,7 @@ export interface SynthesisFacets {
 
 export const getFacets = () => api<SynthesisFacets>('/api/syntheses/facets');
 
-export const facetsQueryOptions = () => queryOptions({ queryKey: synthesisKeys.facets(), queryFn: getFacets, staleTime: 60_000 });
+export const facetsQueryOptions = () => queryOptions({ queryKey: queryKeys.synthesis.facets(), queryFn: getFacets, staleTime: 60_000 });
 
 export function useFacets() {
   return useQuery(facetsQueryOptions());

@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { SynthesisRequest } from '../../../../shared/schemas/synthesis';
 import { api } from '../../../lib/api-client';
-import { synthesisKeys } from './keys';
+import { queryKeys } from '../../../lib/query/keys';
 import type { SynthesisResponse } from './types';
 
 export const runSynthesis = (request: SynthesisRequest, signal?: AbortSignal) =>
@@ -9,7 +9,7 @@ export const runSynthesis = (request: SynthesisRequest, signal?: AbortSignal) =>
 
 export const synthesisQueryOptions = (request: SynthesisRequest) =>
   queryOptions({
-    queryKey: synthesisKeys.run(request),
+    queryKey: queryKeys.synthesis.run(request),
     queryFn: ({ signal }) => runSynthesis(request, signal),
     placeholderData: keepPreviousData,
     retry: false,

@@ -1,5 +1,6 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query/keys';
 
 export interface ApiToken {
   id: number;
@@ -10,24 +11,25 @@ export interface ApiToken {
   revokedAt: string | null;
 }
 
-export const tokensKeys = { all: ['tokens'] as const, list: () => [...tokensKeys.all, 'list'] as const };
+export const getTokens = () => api<{ items: ApiToken[] }>('/api/tokens');
+
+export const tokensQueryOptions = () => queryOptions({ queryKey: queryKeys.tokens.lists(), queryFn: getTokens });
 
 export function useTokens() {
-  return useQuery({ queryKey: tokensKeys.list(), queryFn: () => api<{ items: ApiToken[] }>('/api/tokens') });
+  return useQuery(tokensQueryOptions());
 }
+
+export const createToken = (body: { name: string }) => api<ApiToken & { token: string }>('/api/tokens', { body });
 
 export function useCreateToken() {
   const qc = useQueryClient();
-  return useMutation({
-    mutationFn: (name: string) => api<ApiToken & { token: string }>('/api/tokens', { body: { name } }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: tokensKeys.all }),
-  });
+  return useMutation({ mutationFn: createToken, onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.tokens.all }) });
 }
 
 export function useRevokeToken() {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (id: number) => api<void>(`/api/tokens/${id}`, { method: 'DELETE' }),
-    onSuccess: () => qc.invalidateQueries({ queryKey: tokensKeys.all }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.tokens.all }),
   });
 }

@@ -14,7 +14,7 @@ export function TokensPanel() {
         className="mb-3 flex items-end gap-2"
         onSubmit={(e) => {
           e.preventDefault();
-          create.mutate(name, { onSuccess: () => setName('') });
+          create.mutate({ name }, { onSuccess: () => setName('') });
         }}
       >
         <label className="text-sm">
