@@ -4,10 +4,10 @@ import { Pager } from '../../components/ui/Pager';
 import { SortHeader } from '../../components/ui/SortHeader';
 import { useAgreement, useReferenceAgreement, type AgreementSummary, type ReferenceAgreementQuery } from '../../features/agreement/api/get-agreement';
 import { useHasRole } from '../../features/auth/api/get-me';
+import { fixed, percent as pct } from '../../lib/format';
 import { RequireRole } from './RequireRole';
 
-const f = (x: number | null | undefined, d = 2) => (x == null ? '—' : x.toFixed(d));
-const pct = (x: number | null | undefined) => (x == null ? '—' : `${(x * 100).toFixed(1)}%`);
+const f = (x: number | null | undefined) => fixed(x, 2);
 
 function SummaryTables({ s }: { s: AgreementSummary }) {
   return (

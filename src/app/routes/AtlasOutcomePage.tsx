@@ -5,8 +5,7 @@ import { useAtlasOutcome } from '../../features/atlas/api/get-atlas-outcome';
 import { synthesisHref } from '../../features/atlas/components/PooledCellSummary';
 import { ReferencesTable } from '../../features/atlas/components/ReferencesTable';
 import { NOT_CLINICAL } from '../../../shared/synthesis/cautions';
-
-const f = (x: number | null, d: number) => (x == null || !Number.isFinite(x) ? '—' : x.toFixed(d));
+import { digitsFor, fixed, interval } from '../../lib/format';
 
 export function AtlasOutcomePage() {
   const { kind = '' } = useParams();
@@ -56,7 +55,7 @@ export function AtlasOutcomePage() {
           </thead>
           <tbody>
             {data.cells.map((c) => {
-              const d = c.metric === 'raw_mean' || c.metric === 'mean_diff' ? 1 : 3;
+              const d = digitsFor(c.metric);
               return (
                 <tr key={`${c.manipulation}-${c.metric}`}>
                   <td>
@@ -66,13 +65,13 @@ export function AtlasOutcomePage() {
                   <td className="num">{c.counts.studies}</td>
                   <td className="num">{c.counts.effects}</td>
                   <td className="num">
-                    <strong>{f(c.pooled.estimate, d)}</strong>
+                    <strong>{fixed(c.pooled.estimate, d)}</strong>
                   </td>
                   <td className="num">
-                    [{f(c.pooled.ci_lower, d)}, {f(c.pooled.ci_upper, d)}]
+                    {interval(c.pooled.ci_lower, c.pooled.ci_upper, d)}
                   </td>
-                  <td className="num">{c.pooled.pi_lower == null ? '—' : `[${f(c.pooled.pi_lower, d)}, ${f(c.pooled.pi_upper, d)}]`}</td>
-                  <td className="num">{f(c.pooled.I2, 1)}</td>
+                  <td className="num">{interval(c.pooled.pi_lower, c.pooled.pi_upper, d)}</td>
+                  <td className="num">{fixed(c.pooled.I2, 1)}</td>
                   <td className="text-xs">{c.cautions.length ? `⚠ ${c.cautions.map((x) => x.code === 'few_studies_dl' ? 'few studies' : x.code === 'few_studies_tests' ? 'under 10 studies' : x.code === 'high_heterogeneity' ? 'I² > 75%' : 'one study').join('; ')}` : '—'}</td>
                   <td>
                     <Link to={synthesisHref(c.filters)}>Synthesis →</Link>

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { METHOD_LABELS, ONE_PER_STUDY_LABELS } from '../../../shared/schemas/synthesis';
 import { ApiRequestError } from '../../lib/api-client';
+import { fixed } from '../../lib/format';
 import { Button } from '../../components/ui/Button';
 import { ErrorNote, Loading } from '../../components/ui/Notice';
 import { useSnapshot } from '../../features/snapshots/api/get-snapshot';
@@ -73,7 +74,7 @@ export function SnapshotPage() {
         <dd>
           {METHOD_LABELS[q.method]}
           {q.hksj ? ' with HKSJ' : ''}, {Math.round(q.level * 1000) / 10}% intervals;{' '}
-          {q.dependence.mode === 'aggregate' ? `effects within a study combined with r = ${q.dependence.r.toFixed(2)}` : `one effect per study: ${ONE_PER_STUDY_LABELS[q.dependence.rule]}`}
+          {q.dependence.mode === 'aggregate' ? `effects within a study combined with r = ${fixed(q.dependence.r, 2)}` : `one effect per study: ${ONE_PER_STUDY_LABELS[q.dependence.rule]}`}
           {q.subgroup ? `; subgroups by ${q.subgroup}` : ''}
           {q.moderator ? `; meta-regression on ${q.moderator}` : ''}
         </dd>

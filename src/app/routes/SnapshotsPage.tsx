@@ -6,6 +6,7 @@ import { SortHeader } from '../../components/ui/SortHeader';
 import { useMe } from '../../features/auth/api/get-me';
 import { useSnapshots, type SnapshotListQuery } from '../../features/snapshots/api/list-snapshots';
 import { valueLabel } from '../../features/synthesis/labels';
+import { fixed } from '../../lib/format';
 
 export function SnapshotsPage() {
   const { data: me } = useMe();
@@ -51,7 +52,7 @@ export function SnapshotsPage() {
                   </td>
                   <td>{valueLabel('metric', s.metric)}</td>
                   <td className="num">{s.k}</td>
-                  <td className="num">{s.estimate.toFixed(3)}</td>
+                  <td className="num">{fixed(s.estimate, 3)}</td>
                   <td className="num">{s.registryVersion}</td>
                   <td>{s.createdBy ?? '—'}</td>
                   <td className="tabular-nums">{new Date(s.createdAt).toISOString().replace('T', ' ').slice(0, 16)}</td>

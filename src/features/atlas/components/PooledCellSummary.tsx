@@ -1,9 +1,8 @@
 import { Link } from 'react-router-dom';
 import { Caution } from '../../../components/ui/Notice';
+import { digitsFor, fixed as f, interval } from '../../../lib/format';
 import type { PooledCell } from '../api/types';
 
-const digits = (metric: string) => (metric === 'raw_mean' || metric === 'mean_diff' ? 1 : 3);
-const f = (x: number | null, d: number) => (x == null || !Number.isFinite(x) ? '—' : x.toFixed(d));
 
 export function synthesisHref(filters: Record<string, string>) {
   const p = new URLSearchParams(filters);
@@ -15,7 +14,7 @@ export function synthesisHref(filters: Record<string, string>) {
 
 /** The current pooled estimate of one cell, with its cautions and a link to open it as a synthesis. */
 export function PooledCellSummary({ cell, heading }: { cell: PooledCell; heading: string }) {
-  const d = digits(cell.metric);
+  const d = digitsFor(cell.metric);
   const p = cell.pooled;
   const lvl = `${Math.round(p.level * 100)}%`;
   return (
@@ -26,10 +25,10 @@ export function PooledCellSummary({ cell, heading }: { cell: PooledCell; heading
         {cell.counts.references} {cell.counts.references === 1 ? 'reference' : 'references'})
       </p>
       <p className="my-1 text-xl tabular-nums">
-        ◆ <strong>{f(p.estimate, d)}</strong> <span className="text-sm">{lvl} CI [{f(p.ci_lower, d)}, {f(p.ci_upper, d)}]</span>
+        ◆ <strong>{f(p.estimate, d)}</strong> <span className="text-sm">{lvl} CI {interval(p.ci_lower, p.ci_upper, d)}</span>
       </p>
       <p className="text-sm tabular-nums">
-        Prediction interval {p.pi_lower == null ? '—' : `[${f(p.pi_lower, d)}, ${f(p.pi_upper, d)}]`} · τ² {f(p.tau2, 4)} · I² {p.I2 == null ? '—' : `${f(p.I2, 1)}%`}
+        Prediction interval {interval(p.pi_lower, p.pi_upper, d)} · τ² {f(p.tau2, 4)} · I² {p.I2 == null ? '—' : `${f(p.I2, 1)}%`}
       </p>
       {cell.cautions.map((c) => (
         <Caution key={c.code}>{c.text}</Caution>

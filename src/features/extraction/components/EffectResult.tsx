@@ -2,7 +2,7 @@ import { REPORT_FORM_LABELS, type ComputeAttempt } from '../../../../shared/extr
 import type { Warning } from '../../../../shared/extraction/warnings';
 import { METRIC_LABELS } from '../../../../shared/vocabulary/outcomes';
 import type { Metric } from '../../../../shared/stats/metrics';
-import { fmt } from './labels';
+import { fixed } from '../../../lib/format';
 
 /** The live result of one effect: value, variance, SE, the formula and its source, and any plausibility checks. */
 export function EffectResult({ attempt, warnings, form }: { attempt: ComputeAttempt | null; warnings: Warning[]; form?: keyof typeof REPORT_FORM_LABELS }) {
@@ -18,8 +18,8 @@ export function EffectResult({ attempt, warnings, form }: { attempt: ComputeAtte
         <>
           <p className="tabular-nums">
             <strong>✓ {METRIC_LABELS[attempt.result.metric as Metric]}</strong> ={' '}
-            <strong data-testid="computed-effect">{fmt(attempt.result.effect, 3)}</strong>, variance {fmt(attempt.result.variance, 4)}, SE{' '}
-            {fmt(Math.sqrt(attempt.result.variance), 3)}
+            <strong data-testid="computed-effect">{fixed(attempt.result.effect, 3)}</strong>, variance {fixed(attempt.result.variance, 4)}, SE{' '}
+            {fixed(Math.sqrt(attempt.result.variance), 3)}
             {attempt.result.n != null && <> · n = {attempt.result.n}</>}
             {attempt.result.assumedR != null && (
               <span className="ml-1 text-caution-dark">

@@ -18,7 +18,7 @@ import { useSubmitExtraction } from '../api/submit-extraction';
 import type { ExtractionDetail, StoredStudy } from '../api/types';
 import { CsvImport } from './CsvImport';
 import { EffectResult } from './EffectResult';
-import { REPORTED_LABELS } from './labels';
+import { REPORTED_LABELS } from '../../../lib/reported-labels';
 
 export function toFormSheet(studies: StoredStudy[], notes: string): Sheet {
   return sheetDraftSchema.parse({

@@ -2,7 +2,7 @@ import { METRIC_LABELS } from '../../../../shared/vocabulary/outcomes';
 import type { Metric } from '../../../../shared/stats/metrics';
 import { formulas } from '../../../../shared/stats/formulas';
 import type { StoredStudy } from '../api/types';
-import { fmt } from './labels';
+import { fixed } from '../../../lib/format';
 
 /** A read-only, printable view of a sheet (a submitted coding or a settled record). */
 export function SheetView({ studies, compact = false }: { studies: StoredStudy[]; compact?: boolean }) {
@@ -45,8 +45,8 @@ export function SheetView({ studies, compact = false }: { studies: StoredStudy[]
                     <td>{e.outcome ?? '—'}</td>
                     <td>{e.manipulation ?? '—'}</td>
                     <td>{e.computed ? METRIC_LABELS[e.computed.metric as Metric] : '—'}</td>
-                    <td className="num">{fmt(e.computed?.effect, 3)}</td>
-                    <td className="num">{fmt(e.computed?.variance, 4)}</td>
+                    <td className="num">{fixed(e.computed?.effect, 3)}</td>
+                    <td className="num">{fixed(e.computed?.variance, 4)}</td>
                     {!compact && (
                       <td className="text-xs">
                         {e.computed ? formulas[e.computed.formula]?.label ?? e.computed.formula : '—'}

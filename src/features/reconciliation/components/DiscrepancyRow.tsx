@@ -8,7 +8,8 @@ import { TASKS } from '../../../../shared/vocabulary/tasks';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNote } from '../../../components/ui/Notice';
 import { ApiRequestError } from '../../../lib/api-client';
-import { REPORTED_LABELS, fmt } from '../../extraction/components/labels';
+import { fixed } from '../../../lib/format';
+import { REPORTED_LABELS } from '../../../lib/reported-labels';
 import { StateBadge } from '../../extraction/components/StateBadge';
 import { useManipulations } from '../../manipulations/api/get-manipulations';
 import type { DiscrepancyRow as Row } from '../api/get-pair';
@@ -22,7 +23,7 @@ export function showValue(field: string, v: unknown): string {
   if (field === 'effect' && typeof v === 'object') {
     const e = v as { form?: string; reported?: Record<string, number>; effect?: number; variance?: number; metric?: string; assumedR?: number | null };
     const rep = Object.entries(e.reported ?? {}).map(([k, x]) => `${k} ${x}`).join(', ');
-    return `${e.metric ?? '?'} ${fmt(e.effect, 3)} (variance ${fmt(e.variance, 4)}) from ${e.form ?? '?'}: ${rep}${e.assumedR != null ? `; r assumed ${e.assumedR}` : ''}`;
+    return `${e.metric ?? '?'} ${fixed(e.effect, 3)} (variance ${fixed(e.variance, 4)}) from ${e.form ?? '?'}: ${rep}${e.assumedR != null ? `; r assumed ${e.assumedR}` : ''}`;
   }
   if (field === 'studies') return `${v} stud${v === 1 ? 'y' : 'ies'}`;
   if (field === 'effects') return `${v} effect${v === 1 ? '' : 's'}`;
@@ -79,7 +80,7 @@ function OwnValue({ row, value, onChange }: { row: Row; value: unknown; onChange
             </label>
           ))}
         </div>
-        <p className="mt-1 text-xs tabular-nums">{attempt ? (attempt.ok ? `✓ ${attempt.result!.metric} ${fmt(attempt.result!.effect, 3)}, variance ${fmt(attempt.result!.variance, 4)}` : `… ${attempt.error}`) : ''}</p>
+        <p className="mt-1 text-xs tabular-nums">{attempt ? (attempt.ok ? `✓ ${attempt.result!.metric} ${fixed(attempt.result!.effect, 3)}, variance ${fixed(attempt.result!.variance, 4)}` : `… ${attempt.error}`) : ''}</p>
       </div>
     );
   }

@@ -3,7 +3,8 @@ import { METHOD_LABELS, MODERATOR_LABELS } from '../../../../shared/schemas/synt
 import { dependenceSentence } from '../../../../shared/synthesis/methods';
 import type { PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
 import { Caution } from '../../../components/ui/Notice';
-import { digitsFor, fp, fx, pEq, valueLabel } from '../labels';
+import { digitsFor, fixed, interval as span, pEquals, pValue } from '../../../lib/format';
+import { valueLabel } from '../labels';
 import { ResultTable, type Column } from './ResultTable';
 
 export type FigureComponent = ComponentType<{ figure: PlotFigure; name: string; label: string; show?: Record<string, boolean> }>;
@@ -26,29 +27,29 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
   const d = digitsFor(data.metric);
   const lvl = `${Math.round(r.level * 1000) / 10}%`;
   const metricName = valueLabel('metric', data.metric);
-  const interval = (lo: number | null, hi: number | null) => (lo == null || hi == null ? '—' : `[${fx(lo, d)}, ${fx(hi, d)}]`);
-  const stat = r.statistic_df == null ? `z = ${fx(r.statistic, 2)}` : `t(${r.statistic_df}) = ${fx(r.statistic, 2)}`;
+  const interval = (lo: number | null, hi: number | null) => span(lo, hi, d);
+  const stat = r.statistic_df == null ? `z = ${fixed(r.statistic, 2)}` : `t(${r.statistic_df}) = ${fixed(r.statistic, 2)}`;
 
   const studyCols: Column<PooledRow>[] = [
     { key: 'label', label: 'Study', value: (x) => x.label },
     { key: 'year', label: 'Year', numeric: true, value: (x) => x.year },
     { key: 'n', label: 'n', numeric: true, value: (x) => x.n },
-    { key: 'effect', label: `${metricName} (${d} dp)`, numeric: true, value: (x) => x.effect, render: (x) => fx(x.effect, d) },
-    { key: 'se', label: 'SE', numeric: true, value: (x) => Math.sqrt(x.variance), render: (x) => fx(Math.sqrt(x.variance), d) },
-    { key: 'weight', label: 'Weight %', numeric: true, value: (x) => x.weight, render: (x) => fx(x.weight, 1) },
+    { key: 'effect', label: `${metricName} (${d} dp)`, numeric: true, value: (x) => x.effect, render: (x) => fixed(x.effect, d) },
+    { key: 'se', label: 'SE', numeric: true, value: (x) => Math.sqrt(x.variance), render: (x) => fixed(Math.sqrt(x.variance), d) },
+    { key: 'weight', label: 'Weight %', numeric: true, value: (x) => x.weight, render: (x) => fixed(x.weight, 1) },
     { key: 'effects', label: 'Effects', numeric: true, value: (x) => x.effectIds.length },
     ...(data.request.subgroup ? [{ key: 'subgroup', label: 'Subgroup', value: (x: PooledRow) => x.subgroup ?? '' }] : []),
-    ...(data.request.moderator ? [{ key: 'moderator', label: MODERATOR_LABELS[data.request.moderator], numeric: true, value: (x: PooledRow) => x.moderator ?? null, render: (x: PooledRow) => fx(x.moderator, 0) }] : []),
+    ...(data.request.moderator ? [{ key: 'moderator', label: MODERATOR_LABELS[data.request.moderator], numeric: true, value: (x: PooledRow) => x.moderator ?? null, render: (x: PooledRow) => fixed(x.moderator, 0) }] : []),
   ];
   const sensCols = (first: string): Column<SensitivityRow>[] => [
     { key: 'label', label: first, value: (x) => x.label },
     { key: 'year', label: 'Year', numeric: true, value: (x) => x.year },
     { key: 'k', label: 'k', numeric: true, value: (x) => x.k },
-    { key: 'estimate', label: 'Estimate', numeric: true, value: (x) => x.estimate, render: (x) => fx(x.estimate, d) },
+    { key: 'estimate', label: 'Estimate', numeric: true, value: (x) => x.estimate, render: (x) => fixed(x.estimate, d) },
     { key: 'ci', label: `${lvl} CI`, numeric: true, value: (x) => x.ci_lower, render: (x) => interval(x.ci_lower, x.ci_upper) },
-    { key: 'p', label: 'p', numeric: true, value: (x) => x.p, render: (x) => fp(x.p) },
-    { key: 'tau2', label: 'τ²', numeric: true, value: (x) => x.tau2, render: (x) => fx(x.tau2, 4) },
-    { key: 'I2', label: 'I² %', numeric: true, value: (x) => x.I2, render: (x) => fx(x.I2, 1) },
+    { key: 'p', label: 'p', numeric: true, value: (x) => x.p, render: (x) => pValue(x.p) },
+    { key: 'tau2', label: 'τ²', numeric: true, value: (x) => x.tau2, render: (x) => fixed(x.tau2, 4) },
+    { key: 'I2', label: 'I² %', numeric: true, value: (x) => x.I2, render: (x) => fixed(x.I2, 1) },
   ];
 
   return (
@@ -61,23 +62,23 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
             {r.hksj ? ' with HKSJ' : ''} · {data.counts.studies} studies ({data.counts.effects} effects, {data.counts.references} references)
           </p>
           <p className="mb-2 text-2xl tabular-nums" data-testid="pooled-estimate">
-            <strong>{fx(r.estimate, d)}</strong> <span className="text-base">{lvl} CI {interval(r.ci_lower, r.ci_upper)}</span>
+            <strong>{fixed(r.estimate, d)}</strong> <span className="text-base">{lvl} CI {interval(r.ci_lower, r.ci_upper)}</span>
           </p>
           <table className="text-sm">
             <caption className="sr-only">Pooled estimate and heterogeneity</caption>
             <tbody>
               <Stat label="Prediction interval">{interval(r.pi_lower, r.pi_upper)}</Stat>
               <Stat label="Test of the pooled effect">
-                {stat}, {pEq(r.p)}
+                {stat}, {pEquals(r.p)}
               </Stat>
               <Stat label="τ² (Q-profile CI)">
-                {fx(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fx(r.tau2_ci_lower, 4)}, ${fx(r.tau2_ci_upper, 4)}]` : ''}
+                {fixed(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fixed(r.tau2_ci_lower, 4)}, ${fixed(r.tau2_ci_upper, 4)}]` : ''}
               </Stat>
-              <Stat label="τ">{fx(r.tau, 4)}</Stat>
-              <Stat label="I²">{r.I2 == null ? '—' : `${fx(r.I2, 1)}%`}</Stat>
-              <Stat label="H²">{fx(r.H2, 2)}</Stat>
+              <Stat label="τ">{fixed(r.tau, 4)}</Stat>
+              <Stat label="I²">{r.I2 == null ? '—' : `${fixed(r.I2, 1)}%`}</Stat>
+              <Stat label="H²">{fixed(r.H2, 2)}</Stat>
               <Stat label="Q (df), p">
-                {r.Q == null ? '—' : `${fx(r.Q, 2)} (${r.Q_df}), ${pEq(r.Q_p)}`}
+                {r.Q == null ? '—' : `${fixed(r.Q, 2)} (${r.Q_df}), ${pEquals(r.Q_p)}`}
               </Stat>
             </tbody>
           </table>
@@ -120,19 +121,19 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
         <tbody>
           <tr>
             <td>Egger's regression</td>
-            <td className="num">{r.egger ? `intercept ${fx(r.egger.intercept, 3)} (SE ${fx(r.egger.se, 3)}), t = ${fx(r.egger.t, 2)}` : '—'}</td>
-            <td className="num">{fp(r.egger?.p)}</td>
+            <td className="num">{r.egger ? `intercept ${fixed(r.egger.intercept, 3)} (SE ${fixed(r.egger.se, 3)}), t = ${fixed(r.egger.t, 2)}` : '—'}</td>
+            <td className="num">{pValue(r.egger?.p)}</td>
             <td>{r.egger ? (r.egger.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : 'needs at least 3 studies'}</td>
           </tr>
           <tr>
             <td>Begg's rank correlation</td>
-            <td className="num">{data.begg ? `Kendall's τ ${fx(data.begg.tau, 3)}, z = ${fx(data.begg.z, 2)}` : '—'}</td>
-            <td className="num">{fp(data.begg?.p)}</td>
+            <td className="num">{data.begg ? `Kendall's τ ${fixed(data.begg.tau, 3)}, z = ${fixed(data.begg.z, 2)}` : '—'}</td>
+            <td className="num">{pValue(data.begg?.p)}</td>
             <td>{data.begg ? (data.begg.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : (data.unavailable.find((u) => u.analysis === "Begg's test")?.reason ?? '—')}</td>
           </tr>
           <tr>
             <td>Trim-and-fill</td>
-            <td className="num">{data.trimFill ? `${data.trimFill.k0} imputed (${data.trimFill.side}); adjusted ${fx(data.trimFill.estimate, d)} ${interval(data.trimFill.ci_lower, data.trimFill.ci_upper)}` : '—'}</td>
+            <td className="num">{data.trimFill ? `${data.trimFill.k0} imputed (${data.trimFill.side}); adjusted ${fixed(data.trimFill.estimate, d)} ${interval(data.trimFill.ci_lower, data.trimFill.ci_upper)}` : '—'}</td>
             <td className="num">—</td>
             <td>{data.trimFill ? (data.trimFill.k0 ? 'the adjusted value assumes the gap is publication bias' : 'no studies imputed') : (data.unavailable.find((u) => u.analysis === 'trim-and-fill')?.reason ?? '—')}</td>
           </tr>
@@ -144,7 +145,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
           <h2>Subgroups by {data.subgroups.variable}</h2>
           <table className="max-w-3xl">
             <caption className="caption-top pb-1 text-left text-sm text-ink-soft">
-              Q between subgroups = {fx(data.subgroups.Q_between, 2)} on {data.subgroups.df ?? '—'} df, {pEq(data.subgroups.p)} (separate τ² in each)
+              Q between subgroups = {fixed(data.subgroups.Q_between, 2)} on {data.subgroups.df ?? '—'} df, {pEquals(data.subgroups.p)} (separate τ² in each)
             </caption>
             <thead>
               <tr>
@@ -161,10 +162,10 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
                 <tr key={g.value}>
                   <td>{g.label}</td>
                   <td className="num">{g.k}</td>
-                  <td className="num">{fx(g.estimate, d)}</td>
+                  <td className="num">{fixed(g.estimate, d)}</td>
                   <td className="num">{interval(g.ci_lower, g.ci_upper)}</td>
-                  <td className="num">{fx(g.tau2, 4)}</td>
-                  <td className="num">{fx(g.I2, 1)}</td>
+                  <td className="num">{fixed(g.tau2, 4)}</td>
+                  <td className="num">{fixed(g.I2, 1)}</td>
                 </tr>
               ))}
             </tbody>
@@ -176,7 +177,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
         <>
           <h2>Meta-regression on {MODERATOR_LABELS[data.metaRegression.moderator].toLowerCase()}</h2>
           <p className="text-sm tabular-nums">
-            Slope {data.metaRegression.slope.toPrecision(3)} per unit [{data.metaRegression.slope_ci_lower.toPrecision(3)}, {data.metaRegression.slope_ci_upper.toPrecision(3)}], {pEq(data.metaRegression.slope_p)}; residual τ² {fx(data.metaRegression.tau2, 4)}; R² {data.metaRegression.R2 == null ? '—' : `${fx(data.metaRegression.R2 * 100, 1)}%`}; k = {data.metaRegression.k}
+            Slope {data.metaRegression.slope.toPrecision(3)} per unit [{data.metaRegression.slope_ci_lower.toPrecision(3)}, {data.metaRegression.slope_ci_upper.toPrecision(3)}], {pEquals(data.metaRegression.slope_p)}; residual τ² {fixed(data.metaRegression.tau2, 4)}; R² {data.metaRegression.R2 == null ? '—' : `${fixed(data.metaRegression.R2 * 100, 1)}%`}; k = {data.metaRegression.k}
             {data.metaRegression.missing ? ` (${data.metaRegression.missing} studies without a value left out)` : ''}.
           </p>
           {data.figures.bubble && <Figure figure={data.figures.bubble} name={`${fileStem}-bubble`} label="Bubble plot" />}

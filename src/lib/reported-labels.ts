@@ -1,4 +1,4 @@
-import type { ReportedKey } from '../../../../shared/extraction/compute';
+import type { ReportedKey } from '../../shared/extraction/compute';
 
 /** Field labels of the sheet's reported statistics. */
 export const REPORTED_LABELS: Record<ReportedKey, string> = {
@@ -25,5 +25,3 @@ export const REPORTED_LABELS: Record<ReportedKey, string> = {
   percent: 'Percent change',
   se: 'SE of the percent change',
 };
-
-export const fmt = (x: number | null | undefined, digits = 3) => (x == null || !Number.isFinite(x) ? '—' : x.toFixed(digits));

@@ -1,0 +1,30 @@
+/** Numbers as the tables show them: a fixed, stated precision, and a dash for a missing value. */
+export const MISSING = '—';
+
+const isNumber = (x: number | null | undefined): x is number => typeof x === 'number' && Number.isFinite(x);
+
+/** `x` to `digits` decimals; never "-0.000" (a value that rounds to zero carries no sign). */
+export function fixed(x: number | null | undefined, digits: number): string {
+  if (!isNumber(x)) return MISSING;
+  const s = x.toFixed(digits);
+  return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
+}
+
+/** A p-value to 3 decimals, or "< 0.001". */
+export function pValue(p: number | null | undefined): string {
+  if (!isNumber(p)) return MISSING;
+  return p < 0.001 ? '< 0.001' : fixed(p, 3);
+}
+
+/** "p = 0.042" or "p < 0.001". */
+export const pEquals = (p: number | null | undefined) => (isNumber(p) && p < 0.001 ? 'p < 0.001' : `p = ${pValue(p)}`);
+
+/** A proportion (0–1) as a percentage: 0.8765 → "87.7%". */
+export const percent = (fraction: number | null | undefined, digits = 1) => (isNumber(fraction) ? `${fixed(fraction * 100, digits)}%` : MISSING);
+
+/** "[lower, upper]", or a dash when either end is missing. */
+export const interval = (lower: number | null | undefined, upper: number | null | undefined, digits: number) =>
+  isNumber(lower) && isNumber(upper) ? `[${fixed(lower, digits)}, ${fixed(upper, digits)}]` : MISSING;
+
+/** Precision by metric: milliseconds (raw means, mean differences) to 1 decimal, standardized metrics to 3. */
+export const digitsFor = (metric: string) => (metric === 'raw_mean' || metric === 'mean_diff' ? 1 : 3);
