@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { Pager } from '../../components/ui/Pager';
-import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { StateBadge } from '../../components/ui/StateBadge';
 import { useMailLog } from '../../features/mailbox/api/get-mail-log';
 import { useMailbox } from '../../features/mailbox/api/get-mailbox';
 import { RequireRole } from './RequireRole';

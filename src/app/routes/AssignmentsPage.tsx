@@ -4,7 +4,7 @@ import { Button } from '../../components/ui/Button';
 import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { Pager } from '../../components/ui/Pager';
 import { SortHeader } from '../../components/ui/SortHeader';
-import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { StateBadge } from '../../components/ui/StateBadge';
 import { useCreateAssignment } from '../../features/reconciliation/api/create-assignment';
 import { useAssignments, type AssignmentsQuery } from '../../features/reconciliation/api/get-assignments';
 import { useCandidates, type CandidatesQuery, type Candidate } from '../../features/reconciliation/api/get-candidates';

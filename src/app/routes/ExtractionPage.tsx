@@ -2,10 +2,10 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { Caution, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useExtraction } from '../../features/extraction/api/get-extraction';
-import { useManipulations } from '../../features/manipulations/api/get-manipulations';
+import { useManipulations, WHOLE_VOCABULARY } from '../../features/manipulations/api/get-manipulations';
 import { SheetForm } from '../../features/extraction/components/SheetForm';
 import { SheetView } from '../../features/extraction/components/SheetView';
-import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { StateBadge } from '../../components/ui/StateBadge';
 import { RequireRole } from './RequireRole';
 
 export function ExtractionPage() {
@@ -13,7 +13,7 @@ export function ExtractionPage() {
   const { data, error, isLoading, refetch } = useExtraction(id);
   const [done, setDone] = useState<{ state: string; discrepancies: number } | null>(null);
   // The sheet's manipulation lists need the vocabulary before the form sets its values.
-  const vocabulary = useManipulations({ includeRetired: true, pageSize: 200, sort: 'label' });
+  const vocabulary = useManipulations(WHOLE_VOCABULARY);
   return (
     <RequireRole role="contributor">
       {isLoading && <Loading what="Opening the sheet" />}
@@ -40,7 +40,7 @@ export function ExtractionPage() {
           <ErrorNote error={vocabulary.error} />
           {data.extraction.editable && !done ? (
             vocabulary.data && (
-              <SheetForm key={data.extraction.version} detail={data} onSubmitted={(r) => (setDone(r), void refetch())} onReload={() => void refetch()} />
+              <SheetForm key={data.extraction.version} detail={data} terms={vocabulary.data.items} onSubmitted={(r) => (setDone(r), void refetch())} onReload={() => void refetch()} />
             )
           ) : (
             <SheetView studies={data.studies} />

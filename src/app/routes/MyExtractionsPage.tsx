@@ -5,7 +5,7 @@ import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { Pager } from '../../components/ui/Pager';
 import { SortHeader } from '../../components/ui/SortHeader';
 import { useMyExtractions, type MyExtractionsQuery } from '../../features/extraction/api/get-my-extractions';
-import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { StateBadge } from '../../components/ui/StateBadge';
 import { useClaimReference } from '../../features/extraction/api/claim-reference';
 import { useClaimable, type ClaimableQuery } from '../../features/extraction/api/get-claimable';
 import { RequireRole } from './RequireRole';

@@ -4,7 +4,8 @@ import { TOLERANCE_TEXT } from '../../../shared/schemas/extraction';
 import { Button } from '../../components/ui/Button';
 import { ErrorNote, Loading } from '../../components/ui/Notice';
 import { SheetView } from '../../features/extraction/components/SheetView';
-import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { StateBadge } from '../../components/ui/StateBadge';
+import { CURRENT_VOCABULARY, useManipulations } from '../../features/manipulations/api/get-manipulations';
 import { usePair } from '../../features/reconciliation/api/get-pair';
 import { useSettlePair } from '../../features/reconciliation/api/settle-pair';
 import { DiscrepancyRow } from '../../features/reconciliation/components/DiscrepancyRow';
@@ -14,6 +15,7 @@ export function ReconcilePairPage() {
   const id = Number(useParams().id);
   const { data, error, isLoading } = usePair(id);
   const settle = useSettlePair();
+  const vocabulary = useManipulations(CURRENT_VOCABULARY);
   const [rationale, setRationale] = useState('');
   const open = data?.discrepancies.filter((d) => d.status === 'open').length ?? 0;
   const editable = data?.assignment.state === 'disputed';
@@ -43,7 +45,7 @@ export function ReconcilePairPage() {
             </thead>
             <tbody>
               {data.discrepancies.map((d) => (
-                <DiscrepancyRow key={d.id} row={d} assignmentId={id} coders={[data.assignment.coder1, data.assignment.coder2]} editable={!!editable} />
+                <DiscrepancyRow key={d.id} row={d} assignmentId={id} coders={[data.assignment.coder1, data.assignment.coder2]} editable={!!editable} terms={vocabulary.data?.items ?? []} />
               ))}
             </tbody>
           </table>

@@ -4,7 +4,7 @@ import { Button } from '../../components/ui/Button';
 import { Caution, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useHasRole } from '../../features/auth/api/get-me';
 import { SheetView } from '../../features/extraction/components/SheetView';
-import { StateBadge } from '../../features/extraction/components/StateBadge';
+import { StateBadge } from '../../components/ui/StateBadge';
 import { useRecord } from '../../features/extraction/api/get-record';
 import { useRecords } from '../../features/reconciliation/api/get-records';
 import { useReopenRecord } from '../../features/reconciliation/api/reopen-record';

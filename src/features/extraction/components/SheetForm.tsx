@@ -12,7 +12,6 @@ import { TASKS, TASK_LABELS } from '../../../../shared/vocabulary/tasks';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNote } from '../../../components/ui/Notice';
 import { ApiRequestError } from '../../../lib/api-client';
-import { useManipulations } from '../../manipulations/api/get-manipulations';
 import { useSaveExtraction } from '../api/save-extraction';
 import { useSubmitExtraction } from '../api/submit-extraction';
 import type { ExtractionDetail, StoredStudy } from '../api/types';
@@ -64,13 +63,15 @@ function Field({ label, error, children, hint }: { label: string; error?: string
 const num = { setValueAs: (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v)) };
 const txt = { setValueAs: (v: unknown) => (v === '' ? undefined : v) };
 
+type VocabularyTerm = { term: string; label: string; retired: boolean };
+
 interface Ctx {
   control: Control<Sheet>;
   register: UseFormRegister<Sheet>;
   errors: FieldErrors<Sheet>;
 }
 
-function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: number; onRemove: () => void; terms: { term: string; label: string; retired: boolean }[] }) {
+function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: number; onRemove: () => void; terms: VocabularyTerm[] }) {
   const { register, control, errors } = ctx;
   const p = `studies.${i}.effects.${j}` as const;
   const effect = useWatch({ control, name: p });
@@ -164,7 +165,7 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
   );
 }
 
-function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemove: () => void; terms: { term: string; label: string; retired: boolean }[] }) {
+function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemove: () => void; terms: VocabularyTerm[] }) {
   const { register, control, errors } = ctx;
   const effects = useFieldArray({ control, name: `studies.${i}.effects` });
   const p = `studies.${i}` as const;
@@ -255,7 +256,18 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
 type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved'; at: string } | { kind: 'invalid' } | { kind: 'conflict'; message: string } | { kind: 'error'; message: string };
 
 /** The extraction sheet: studies, effects, live effect sizes, autosave every couple of seconds, submit. */
-export function SheetForm({ detail, onSubmitted, onReload }: { detail: ExtractionDetail; onSubmitted: (r: { state: string; discrepancies: number }) => void; onReload: () => void }) {
+export function SheetForm({
+  detail,
+  terms,
+  onSubmitted,
+  onReload,
+}: {
+  detail: ExtractionDetail;
+  /** The manipulation vocabulary, retired terms included. */
+  terms: VocabularyTerm[];
+  onSubmitted: (r: { state: string; discrepancies: number }) => void;
+  onReload: () => void;
+}) {
   const x = detail.extraction;
   const form = useForm<Sheet>({
     resolver: zodResolver(sheetDraftSchema) as unknown as Resolver<Sheet>,
@@ -269,8 +281,6 @@ export function SheetForm({ detail, onSubmitted, onReload }: { detail: Extractio
   const [save, setSave] = useState<SaveState>({ kind: 'idle' });
   const saver = useSaveExtraction();
   const submitter = useSubmitExtraction();
-  const { data: manipulations } = useManipulations({ includeRetired: true, pageSize: 200, sort: 'label' });
-  const terms = manipulations?.items ?? [];
   const values = useWatch({ control });
 
   const flush = useCallback(async (): Promise<boolean> => {

@@ -20,6 +20,11 @@ export interface ManipulationsQuery {
   pageSize?: number;
 }
 
+/** Every term, retired ones too (a sheet may still name one), for the pickers. */
+export const WHOLE_VOCABULARY: ManipulationsQuery = { includeRetired: true, pageSize: 200, sort: 'label' };
+/** The terms in use, for choosing a new value. */
+export const CURRENT_VOCABULARY: ManipulationsQuery = { pageSize: 200, sort: 'label' };
+
 export const getManipulations = (q: ManipulationsQuery) => api<{ items: Manipulation[]; total: number }>(`/api/manipulations${queryString({ ...q })}`);
 
 export const manipulationsQueryOptions = (q: ManipulationsQuery = {}) =>

@@ -10,8 +10,7 @@ import { ErrorNote } from '../../../components/ui/Notice';
 import { ApiRequestError } from '../../../lib/api-client';
 import { fixed } from '../../../lib/format';
 import { REPORTED_LABELS } from '../../../lib/reported-labels';
-import { StateBadge } from '../../extraction/components/StateBadge';
-import { useManipulations } from '../../manipulations/api/get-manipulations';
+import { StateBadge } from '../../../components/ui/StateBadge';
 import type { DiscrepancyRow as Row } from '../api/get-pair';
 import { useResolveDiscrepancy } from '../api/resolve-discrepancy';
 
@@ -30,14 +29,15 @@ export function showValue(field: string, v: unknown): string {
   return String(v);
 }
 
-function OwnValue({ row, value, onChange }: { row: Row; value: unknown; onChange: (v: unknown) => void }) {
-  const { data: manipulations } = useManipulations({ pageSize: 200, sort: 'label' });
+type VocabularyTerm = { term: string; label: string };
+
+function OwnValue({ row, value, onChange, terms }: { row: Row; value: unknown; onChange: (v: unknown) => void; terms: VocabularyTerm[] }) {
   const cls = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
   if (row.field === 'manipulation')
     return (
       <select aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)}>
         <option value="">— choose —</option>
-        {manipulations?.items.map((m) => (
+        {terms.map((m) => (
           <option key={m.term} value={m.term}>
             {m.label}
           </option>
@@ -88,7 +88,7 @@ function OwnValue({ row, value, onChange }: { row: Row; value: unknown; onChange
 }
 
 /** One discrepancy: both coders' values and the curator's decision with a rationale. */
-export function DiscrepancyRow({ row, assignmentId, coders, editable }: { row: Row; assignmentId: number; coders: [string, string]; editable: boolean }) {
+export function DiscrepancyRow({ row, assignmentId, coders, editable, terms }: { row: Row; assignmentId: number; coders: [string, string]; editable: boolean; terms: VocabularyTerm[] }) {
   const resolve = useResolveDiscrepancy(assignmentId);
   const [choice, setChoice] = useState<'a' | 'b' | 'value'>(row.resolution ?? 'a');
   const [value, setValue] = useState<unknown>(row.field === 'effect' ? row.valueA : row.valueA ?? undefined);
@@ -136,7 +136,7 @@ export function DiscrepancyRow({ row, assignmentId, coders, editable }: { row: R
                 </label>
               )}
             </fieldset>
-            {choice === 'value' && <OwnValue row={row} value={value} onChange={setValue} />}
+            {choice === 'value' && <OwnValue row={row} value={value} onChange={setValue} terms={terms} />}
             <label className="mt-1 block text-xs font-semibold text-ink-soft">
               Rationale
               <textarea className="block w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm font-normal" rows={2} value={rationale} onChange={(e) => setRationale(e.target.value)} aria-invalid={!!fieldError} />
