@@ -5,6 +5,7 @@ import { useAtlasManipulation } from '../../features/atlas/api/get-atlas-manipul
 import { PooledCellSummary } from '../../features/atlas/components/PooledCellSummary';
 import { ReferencesTable } from '../../features/atlas/components/ReferencesTable';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
+import { filtersHref } from '../../features/synthesis/codec';
 import { NOT_CLINICAL } from '../../../shared/synthesis/cautions';
 import { Caution } from '../../components/ui/Notice';
 
@@ -38,7 +39,7 @@ export function AtlasManipulationPage() {
           <h2>
             {c.outcomeLabel} <span className="font-normal text-ink-soft">· {c.metricLabel}</span>
           </h2>
-          <PooledCellSummary cell={c} heading="Current pooled estimate" />
+          <PooledCellSummary cell={c} heading="Current pooled estimate" openHref={filtersHref(c.filters)} />
           {c.forest && <PlotFigure figure={c.forest} name={`chronometa-atlas-${term}-${c.outcome}-${c.metric}-forest`} label="Forest plot" />}
         </section>
       ))}

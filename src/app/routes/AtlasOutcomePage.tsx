@@ -2,7 +2,7 @@ import { Link, useParams } from 'react-router-dom';
 import { ApiRequestError } from '../../lib/api-client';
 import { Caution, EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useAtlasOutcome } from '../../features/atlas/api/get-atlas-outcome';
-import { synthesisHref } from '../../features/atlas/components/PooledCellSummary';
+import { filtersHref } from '../../features/synthesis/codec';
 import { ReferencesTable } from '../../features/atlas/components/ReferencesTable';
 import { NOT_CLINICAL } from '../../../shared/synthesis/cautions';
 import { digitsFor, fixed, interval } from '../../lib/format';
@@ -74,7 +74,7 @@ export function AtlasOutcomePage() {
                   <td className="num">{fixed(c.pooled.I2, 1)}</td>
                   <td className="text-xs">{c.cautions.length ? `⚠ ${c.cautions.map((x) => x.code === 'few_studies_dl' ? 'few studies' : x.code === 'few_studies_tests' ? 'under 10 studies' : x.code === 'high_heterogeneity' ? 'I² > 75%' : 'one study').join('; ')}` : '—'}</td>
                   <td>
-                    <Link to={synthesisHref(c.filters)}>Synthesis →</Link>
+                    <Link to={filtersHref(c.filters)}>Synthesis →</Link>
                   </td>
                 </tr>
               );

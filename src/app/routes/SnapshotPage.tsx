@@ -7,30 +7,13 @@ import { Button } from '../../components/ui/Button';
 import { ErrorNote, Loading } from '../../components/ui/Notice';
 import { useSnapshot } from '../../features/snapshots/api/get-snapshot';
 import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
-import { paramsFromForm, formFromParams } from '../../features/synthesis/url-state';
+import { synthesisHref } from '../../features/synthesis/codec';
 import { valueLabel } from '../../features/synthesis/labels';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 
 function filterText(filters: Record<string, unknown>): string {
   const parts = Object.entries(filters).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
   return parts.length ? parts.join('; ') : 'all settled effects';
-}
-
-/** Re-open the frozen request as a live synthesis (today's registry). */
-function liveLink(request: Record<string, any>): string {
-  const p = new URLSearchParams();
-  const f = request.filters ?? {};
-  for (const m of ([] as string[]).concat(f.manipulation ?? [])) p.append('manipulation', m);
-  for (const k of ['outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo']) if (f[k] !== undefined) p.set(k, String(f[k]));
-  p.set('method', request.method);
-  if (request.hksj) p.set('hksj', '1');
-  p.set('level', String(request.level));
-  p.set('dependence', request.dependence.mode);
-  if (request.dependence.mode === 'aggregate') p.set('r', String(request.dependence.r));
-  else p.set('rule', request.dependence.rule);
-  if (request.subgroup) p.set('subgroup', request.subgroup);
-  if (request.moderator) p.set('moderator', request.moderator);
-  return `/synthesis?${paramsFromForm(formFromParams(p)).toString()}`;
 }
 
 export function SnapshotPage() {
@@ -110,7 +93,7 @@ export function SnapshotPage() {
           </a>
         </li>
         <li>
-          <Link to={liveLink(q)}>Re-run on today’s registry →</Link>
+          <Link to={synthesisHref(q)}>Re-run on today’s registry →</Link>
         </li>
       </ul>
       <p className="mt-1 text-xs text-ink-faint">

@@ -1,52 +1,66 @@
-import { useMemo, useState } from 'react';
-import { Link, useSearchParams } from 'react-router-dom';
+import { useEffect, useMemo } from 'react';
+import { useForm } from 'react-hook-form';
+import { Link, useNavigation, useSearchParams } from 'react-router-dom';
+import type { SynthesisRequest } from '../../../shared/schemas/synthesis';
 import { ApiRequestError } from '../../lib/api-client';
+import { formResolver } from '../../lib/forms/resolver';
+import { showServerErrors } from '../../lib/forms/server-errors';
 import { signInHref } from '../../lib/sign-in';
 import { Button } from '../../components/ui/Button';
 import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useHasRole, useMe } from '../../features/auth/api/get-me';
 import { useFacets } from '../../features/synthesis/api/get-facets';
 import { useSynthesis } from '../../features/synthesis/api/run-synthesis';
+import { DEFAULT_REQUEST, decodeRequest, encodeRequest, requestToFormValues, synthesisFormSchema, type SynthesisFormValues } from '../../features/synthesis/codec';
 import { SynthesisFormPanel } from '../../features/synthesis/components/SynthesisFormPanel';
 import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
-import { formFromParams, paramsFromForm, requestFromForm, type SynthesisForm } from '../../features/synthesis/url-state';
 import { valueLabel } from '../../features/synthesis/labels';
-import { useCreateSnapshot } from '../../features/snapshots/api/create-snapshot';
+import { SaveSnapshotForm } from '../../features/snapshots/components/SaveSnapshotForm';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 
-/** Server field paths ("filters.yearTo", "dependence.r") to the form's field names. */
-function serverFieldErrors(err: unknown): Record<string, string> {
-  if (!(err instanceof ApiRequestError) || err.status !== 400) return {};
-  const out: Record<string, string> = {};
-  for (const [path, message] of Object.entries(err.fieldErrors())) {
-    const parts = path.split('.');
-    const key = parts[0] === 'filters' ? parts[1] : parts[0] === 'dependence' ? (parts[1] === 'r' ? 'r' : 'rule') : parts[0];
-    out[key] ??= message;
-  }
-  return out;
-}
+const FORM_FIELDS = [
+  'filters.manipulation',
+  'filters.outcome',
+  'filters.metric',
+  'filters.population',
+  'filters.modality',
+  'filters.task',
+  'filters.design',
+  'filters.yearFrom',
+  'filters.yearTo',
+  'method',
+  'hksj',
+  'level',
+  'dependence.mode',
+  'dependence.r',
+  'dependence.rule',
+  'subgroup',
+  'moderator',
+] as const;
 
 export function SynthesisPage() {
   const [params, setParams] = useSearchParams();
-  const [form, setForm] = useState<SynthesisForm>(() => formFromParams(params));
-  const [clientErrors, setClientErrors] = useState<Record<string, string>>({});
-  const [title, setTitle] = useState('');
+  // The address is the submitted request: a link from the atlas or a colleague reruns the same synthesis.
+  const submitted = useMemo(() => decodeRequest(params), [params]);
+  const form = useForm<SynthesisFormValues, unknown, SynthesisRequest>({
+    resolver: formResolver(synthesisFormSchema),
+    defaultValues: requestToFormValues(submitted ?? DEFAULT_REQUEST),
+  });
+  const { reset, setError } = form;
+  // Back, forward or a new link: the form shows what the address asks for.
+  useEffect(() => reset(requestToFormValues(submitted ?? DEFAULT_REQUEST)), [submitted, reset]);
   const facets = useFacets();
   const { data: me } = useMe();
   const isReviewer = useHasRole('reviewer');
-  // The URL is the submitted request: a link from the atlas or a colleague reruns the same synthesis.
-  const submitted = useMemo(() => (params.size ? requestFromForm(formFromParams(params)).request : null), [params]);
   const synthesis = useSynthesis(submitted);
-  const save = useCreateSnapshot();
+  const navigation = useNavigation();
+  const pooling = synthesis.isFetching || (navigation.state === 'loading' && navigation.location.pathname === '/synthesis');
+  const refusedInput = synthesis.error instanceof ApiRequestError && synthesis.error.status === 400;
+  useEffect(() => {
+    if (synthesis.error) showServerErrors(synthesis.error, setError, FORM_FIELDS);
+  }, [synthesis.error, setError]);
 
-  const run = (next: SynthesisForm) => {
-    const { request, errors } = requestFromForm(next);
-    setClientErrors(errors);
-    if (!request) return;
-    save.reset();
-    setParams(paramsFromForm(next));
-  };
-  const errors = { ...serverFieldErrors(synthesis.error), ...clientErrors };
+  const run = (request: SynthesisRequest) => setParams(encodeRequest(request));
   const mixed = synthesis.error instanceof ApiRequestError && synthesis.error.status === 422 ? (synthesis.error.details as { metrics?: Array<{ metric: string; count: number }> } | undefined)?.metrics : undefined;
   const data = synthesis.error ? undefined : synthesis.data;
 
@@ -57,18 +71,24 @@ export function SynthesisPage() {
         Pool settled effects from the registry with a random-effects (or fixed-effect) model. Anyone may run a synthesis; reviewers can freeze one as a
         citable snapshot. Start from the <Link to="/atlas">atlas</Link> to see what has been coded.
       </p>
-      <SynthesisFormPanel form={form} onChange={setForm} onSubmit={() => run(form)} facets={facets.data} errors={errors} running={synthesis.isFetching} />
+      <SynthesisFormPanel form={form} onRun={run} facets={facets.data} running={pooling} />
       {facets.error && <ErrorNote error={facets.error} title="Filter values could not be loaded" />}
 
-      {synthesis.isFetching && <Loading what="Pooling the settled effects" />}
-      {synthesis.error && !(synthesis.error instanceof ApiRequestError && synthesis.error.status === 400) && (
+      {pooling && <Loading what="Pooling the settled effects" />}
+      {synthesis.error && !refusedInput && (
         <div className="mt-3">
           <ErrorNote error={synthesis.error} title={mixed ? 'Not pooled' : 'Refused'} />
           {mixed && (
             <div className="flex flex-wrap items-center gap-2 text-sm">
               <span>Pool only one metric:</span>
               {mixed.map((m) => (
-                <Button key={m.metric} onClick={() => { const next = { ...form, metric: m.metric }; setForm(next); run(next); }}>
+                <Button
+                  key={m.metric}
+                  onClick={() => {
+                    form.setValue('filters.metric', m.metric);
+                    void form.handleSubmit(run)();
+                  }}
+                >
                   {valueLabel('metric', m.metric)} ({m.count})
                 </Button>
               ))}
@@ -76,7 +96,7 @@ export function SynthesisPage() {
           )}
         </div>
       )}
-      {!submitted && !synthesis.isFetching && (
+      {!submitted && !pooling && (
         <EmptyState>Choose a manipulation (and a metric if it was coded in several), then press “Run synthesis”. Leave a field on “Any” to include everything.</EmptyState>
       )}
 
@@ -84,23 +104,7 @@ export function SynthesisPage() {
         <>
           <section aria-label="Save as snapshot" className="mt-4 flex flex-wrap items-end gap-3 rounded border border-paper-edge p-3">
             {isReviewer ? (
-              <>
-                <div className="flex flex-col text-sm">
-                  <label htmlFor="snap-title" className="font-semibold">
-                    Snapshot title (optional)
-                  </label>
-                  <input id="snap-title" value={title} maxLength={200} onChange={(e) => setTitle(e.target.value)} className="w-96 rounded border border-paper-edge bg-white/70 px-2 py-1" placeholder="Named from the filters when left empty" />
-                </div>
-                <Button variant="primary" disabled={save.isPending} onClick={() => save.mutate({ ...submitted, ...(title.trim() ? { title: title.trim() } : {}) })}>
-                  {save.isPending ? 'Saving…' : 'Save snapshot'}
-                </Button>
-                {save.data && (
-                  <p role="status" className="text-sm">
-                    ✓ Saved, frozen at registry version {save.data.registryVersion}: <Link to={`/snapshots/${save.data.id}`}>{save.data.url}</Link>
-                  </p>
-                )}
-                <ErrorNote error={save.error} title="Not saved" />
-              </>
+              <SaveSnapshotForm key={encodeRequest(submitted).toString()} request={submitted} />
             ) : (
               <p className="text-sm text-ink-soft">
                 {me ? 'Saving a snapshot needs the Reviewer role.' : <><a href={signInHref()}>Sign in</a> as a reviewer to freeze this synthesis as a citable snapshot.</>}

@@ -4,16 +4,8 @@ import { digitsFor, fixed as f, interval } from '../../../lib/format';
 import type { PooledCell } from '../api/types';
 
 
-export function synthesisHref(filters: Record<string, string>) {
-  const p = new URLSearchParams(filters);
-  p.set('method', 'DL');
-  p.set('dependence', 'aggregate');
-  p.set('r', '0.5');
-  return `/synthesis?${p.toString()}`;
-}
-
-/** The current pooled estimate of one cell, with its cautions and a link to open it as a synthesis. */
-export function PooledCellSummary({ cell, heading }: { cell: PooledCell; heading: string }) {
+/** The current pooled estimate of one cell, with its cautions and a link to open it as a synthesis (`openHref`). */
+export function PooledCellSummary({ cell, heading, openHref }: { cell: PooledCell; heading: string; openHref: string }) {
   const d = digitsFor(cell.metric);
   const p = cell.pooled;
   const lvl = `${Math.round(p.level * 100)}%`;
@@ -33,7 +25,7 @@ export function PooledCellSummary({ cell, heading }: { cell: PooledCell; heading
       {cell.cautions.map((c) => (
         <Caution key={c.code}>{c.text}</Caution>
       ))}
-      <Link to={synthesisHref(cell.filters)} className="text-sm">
+      <Link to={openHref} className="text-sm">
         Open as a synthesis →
       </Link>
     </div>

@@ -1,152 +1,157 @@
-import type { FormEvent, ReactNode } from 'react';
-import { METHOD_LABELS, MODERATOR_LABELS, ONE_PER_STUDY_LABELS, ONE_PER_STUDY_RULES, SUBGROUP_VARIABLES } from '../../../../shared/schemas/synthesis';
+import type { ReactElement } from 'react';
+import { Controller, useWatch, type Control, type UseFormReturn } from 'react-hook-form';
+import { METHOD_LABELS, MODERATOR_LABELS, ONE_PER_STUDY_LABELS, ONE_PER_STUDY_RULES, SUBGROUP_VARIABLES, type SynthesisRequest } from '../../../../shared/schemas/synthesis';
 import { Button } from '../../../components/ui/Button';
-import type { SynthesisFacets, Facet } from '../api/get-facets';
+import { Field, FieldError, messageAt } from '../../../components/ui/Field';
+import type { Facet, SynthesisFacets } from '../api/get-facets';
+import type { SynthesisFormValues } from '../codec';
 import { valueLabel } from '../labels';
-import type { SynthesisForm } from '../url-state';
 
-function Field({ id, label, error, hint, children }: { id: string; label: string; error?: string; hint?: string; children: ReactNode }) {
+export type SynthesisForm = UseFormReturn<SynthesisFormValues, unknown, SynthesisRequest>;
+type FacetPath = 'filters.outcome' | 'filters.metric' | 'filters.population' | 'filters.modality' | 'filters.task' | 'filters.design';
+
+const inputClass = 'rounded border bg-white/70 px-2 py-1 border-paper-edge aria-[invalid=true]:border-refusal';
+
+function SynthesisField({ label, error, hint, children }: { label: string; error?: string; hint?: string; children: ReactElement<Record<string, unknown>> }) {
   return (
-    <div className="flex min-w-40 flex-col gap-0.5 text-sm">
-      <label htmlFor={id} className="font-semibold">
-        {label}
-      </label>
+    <Field label={label} error={error} hint={hint} className="flex min-w-40 flex-col gap-0.5 text-sm" labelClassName="font-semibold">
       {children}
-      {hint && !error && <span className="text-xs text-ink-faint">{hint}</span>}
-      {error && (
-        <span id={`${id}-error`} className="text-xs text-refusal">
-          ✕ {error}
-        </span>
-      )}
-    </div>
+    </Field>
   );
 }
 
-const inputClass = (error?: string) => `rounded border bg-white/70 px-2 py-1 ${error ? 'border-refusal' : 'border-paper-edge'}`;
-
-function FacetSelect({ id, value, facets, onChange, kind, error }: { id: string; value: string; facets: Facet[]; onChange: (v: string) => void; kind: string; error?: string }) {
+/** A filter over the values coded so far (their counts beside them); controlled, as the options arrive from the server. */
+function FacetSelect({ control, name, facets, kind, ...rest }: { control: Control<SynthesisFormValues, unknown, SynthesisRequest>; name: FacetPath; facets: Facet[]; kind: string }) {
   return (
-    <select id={id} value={value} onChange={(e) => onChange(e.target.value)} className={inputClass(error)} aria-invalid={!!error} aria-describedby={error ? `${id}-error` : undefined}>
-      <option value="">Any</option>
-      {facets.map((f) => (
-        <option key={f.value} value={f.value}>
-          {f.label ?? valueLabel(kind, f.value)} ({f.count})
-        </option>
-      ))}
-    </select>
+    <Controller
+      control={control}
+      name={name}
+      render={({ field }) => (
+        <select {...rest} {...field} className={inputClass}>
+          <option value="">Any</option>
+          {facets.map((f) => (
+            <option key={f.value} value={f.value}>
+              {f.label ?? valueLabel(kind, f.value)} ({f.count})
+            </option>
+          ))}
+        </select>
+      )}
+    />
+  );
+}
+
+/** Several manipulations may be chosen; controlled, as the options arrive from the server. */
+function ManipulationSelect({ control, facets, ...rest }: { control: Control<SynthesisFormValues, unknown, SynthesisRequest>; facets: Facet[] }) {
+  return (
+    <Controller
+      control={control}
+      name="filters.manipulation"
+      render={({ field }) => (
+        <select
+          {...rest}
+          multiple
+          size={4}
+          name={field.name}
+          ref={field.ref}
+          onBlur={field.onBlur}
+          value={field.value}
+          onChange={(e) => field.onChange([...e.target.selectedOptions].map((o) => o.value))}
+          className={inputClass}
+        >
+          {facets.map((m) => (
+            <option key={m.value} value={m.value}>
+              {m.label} ({m.count})
+            </option>
+          ))}
+        </select>
+      )}
+    />
   );
 }
 
 /** Filters over settled effects and the analysis options, checked with the server's own schema. */
-export function SynthesisFormPanel({
-  form,
-  onChange,
-  onSubmit,
-  facets,
-  errors,
-  running,
-}: {
-  form: SynthesisForm;
-  onChange: (f: SynthesisForm) => void;
-  onSubmit: () => void;
-  facets: SynthesisFacets | undefined;
-  errors: Record<string, string>;
-  running: boolean;
-}) {
-  const set = <K extends keyof SynthesisForm>(k: K, v: SynthesisForm[K]) => onChange({ ...form, [k]: v });
-  const submit = (e: FormEvent) => {
-    e.preventDefault();
-    onSubmit();
-  };
+export function SynthesisFormPanel({ form, onRun, facets, running }: { form: SynthesisForm; onRun: (request: SynthesisRequest) => void; facets: SynthesisFacets | undefined; running: boolean }) {
+  const { control, register, formState } = form;
+  const err = (path: string) => messageAt(formState.errors, path);
+  const method = useWatch({ control, name: 'method' });
+  const mode = useWatch({ control, name: 'dependence.mode' });
   const f = facets;
   return (
-    <form onSubmit={submit} noValidate aria-label="Synthesis filters and options" className="rounded border border-paper-edge bg-paper-deep/50 p-3">
+    <form onSubmit={form.handleSubmit(onRun)} noValidate aria-label="Synthesis filters and options" className="rounded border border-paper-edge bg-paper-deep/50 p-3">
       <fieldset className="flex flex-wrap gap-3">
         <legend className="mb-1 font-reading font-bold">Which settled effects</legend>
-        <Field id="f-manipulation" label="Manipulation" error={errors.manipulation} hint="Ctrl/⌘-click for several">
-          <select
-            id="f-manipulation"
-            multiple
-            size={4}
-            value={form.manipulation}
-            onChange={(e) => set('manipulation', [...e.target.selectedOptions].map((o) => o.value))}
-            className={inputClass(errors.manipulation)}
-          >
-            {(f?.manipulations ?? []).map((m) => (
-              <option key={m.value} value={m.value}>
-                {m.label} ({m.count})
-              </option>
-            ))}
-          </select>
-        </Field>
-        <Field id="f-outcome" label="Outcome kind" error={errors.outcome}>
-          <FacetSelect id="f-outcome" kind="outcome" value={form.outcome} facets={f?.outcomes ?? []} onChange={(v) => set('outcome', v)} error={errors.outcome} />
-        </Field>
-        <Field id="f-metric" label="Metric" error={errors.metric} hint="Different metrics are never pooled together">
-          <FacetSelect id="f-metric" kind="metric" value={form.metric} facets={f?.metrics ?? []} onChange={(v) => set('metric', v)} error={errors.metric} />
-        </Field>
-        <Field id="f-population" label="Population" error={errors.population}>
-          <FacetSelect id="f-population" kind="population" value={form.population} facets={f?.populations ?? []} onChange={(v) => set('population', v)} />
-        </Field>
-        <Field id="f-modality" label="Modality" error={errors.modality}>
-          <FacetSelect id="f-modality" kind="modality" value={form.modality} facets={f?.modalities ?? []} onChange={(v) => set('modality', v)} />
-        </Field>
-        <Field id="f-task" label="Task" error={errors.task}>
-          <FacetSelect id="f-task" kind="task" value={form.task} facets={f?.tasks ?? []} onChange={(v) => set('task', v)} />
-        </Field>
-        <Field id="f-design" label="Design" error={errors.design}>
-          <FacetSelect id="f-design" kind="design" value={form.design} facets={f?.designs ?? []} onChange={(v) => set('design', v)} />
-        </Field>
-        <Field id="f-yearFrom" label="From year" error={errors.yearFrom} hint={f?.years ? `earliest ${f.years.min}` : undefined}>
-          <input id="f-yearFrom" inputMode="numeric" value={form.yearFrom} onChange={(e) => set('yearFrom', e.target.value)} className={`${inputClass(errors.yearFrom)} w-24`} aria-invalid={!!errors.yearFrom} aria-describedby={errors.yearFrom ? 'f-yearFrom-error' : undefined} />
-        </Field>
-        <Field id="f-yearTo" label="To year" error={errors.yearTo} hint={f?.years ? `latest ${f.years.max}` : undefined}>
-          <input id="f-yearTo" inputMode="numeric" value={form.yearTo} onChange={(e) => set('yearTo', e.target.value)} className={`${inputClass(errors.yearTo)} w-24`} aria-invalid={!!errors.yearTo} aria-describedby={errors.yearTo ? 'f-yearTo-error' : undefined} />
-        </Field>
+        <SynthesisField label="Manipulation" error={err('filters.manipulation')} hint="Ctrl/⌘-click for several">
+          <ManipulationSelect control={control} facets={f?.manipulations ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Outcome kind" error={err('filters.outcome')}>
+          <FacetSelect control={control} name="filters.outcome" kind="outcome" facets={f?.outcomes ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Metric" error={err('filters.metric')} hint="Different metrics are never pooled together">
+          <FacetSelect control={control} name="filters.metric" kind="metric" facets={f?.metrics ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Population" error={err('filters.population')}>
+          <FacetSelect control={control} name="filters.population" kind="population" facets={f?.populations ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Modality" error={err('filters.modality')}>
+          <FacetSelect control={control} name="filters.modality" kind="modality" facets={f?.modalities ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Task" error={err('filters.task')}>
+          <FacetSelect control={control} name="filters.task" kind="task" facets={f?.tasks ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Design" error={err('filters.design')}>
+          <FacetSelect control={control} name="filters.design" kind="design" facets={f?.designs ?? []} />
+        </SynthesisField>
+        <SynthesisField label="From year" error={err('filters.yearFrom')} hint={f?.years ? `earliest ${f.years.min}` : undefined}>
+          <input inputMode="numeric" {...register('filters.yearFrom')} className={`${inputClass} w-24`} />
+        </SynthesisField>
+        <SynthesisField label="To year" error={err('filters.yearTo')} hint={f?.years ? `latest ${f.years.max}` : undefined}>
+          <input inputMode="numeric" {...register('filters.yearTo')} className={`${inputClass} w-24`} />
+        </SynthesisField>
       </fieldset>
       <fieldset className="mt-3 flex flex-wrap items-start gap-3">
         <legend className="mb-1 font-reading font-bold">How to pool</legend>
-        <Field id="f-method" label="Estimator" error={errors.method}>
-          <select id="f-method" value={form.method} onChange={(e) => set('method', e.target.value)} className={inputClass(errors.method)}>
+        <SynthesisField label="Estimator" error={err('method')}>
+          <select {...register('method')} className={inputClass}>
             {(['DL', 'REML', 'PM', 'FE'] as const).map((m) => (
               <option key={m} value={m}>
                 {METHOD_LABELS[m]}
               </option>
             ))}
           </select>
-        </Field>
+        </SynthesisField>
         <div className="flex flex-col gap-0.5 pt-5 text-sm">
           <label className="flex items-center gap-1.5">
-            <input type="checkbox" checked={form.hksj} onChange={(e) => set('hksj', e.target.checked)} disabled={form.method === 'FE'} />
+            <input type="checkbox" {...register('hksj')} disabled={method === 'FE'} />
             Hartung–Knapp–Sidik–Jonkman
           </label>
+          <FieldError message={err('hksj')} />
         </div>
-        <Field id="f-level" label="Confidence level" error={errors.level} hint="e.g. 0.95">
-          <input id="f-level" inputMode="decimal" value={form.level} onChange={(e) => set('level', e.target.value)} className={`${inputClass(errors.level)} w-20`} aria-invalid={!!errors.level} aria-describedby={errors.level ? 'f-level-error' : undefined} />
-        </Field>
-        <Field id="f-dep" label="Several effects in one study" error={errors.rule}>
-          <select id="f-dep" value={form.depMode} onChange={(e) => set('depMode', e.target.value as SynthesisForm['depMode'])} className={inputClass()}>
+        <SynthesisField label="Confidence level" error={err('level')} hint="e.g. 0.95">
+          <input inputMode="decimal" {...register('level')} className={`${inputClass} w-20`} />
+        </SynthesisField>
+        <SynthesisField label="Several effects in one study" error={err('dependence.mode')}>
+          <select {...register('dependence.mode')} className={inputClass}>
             <option value="aggregate">Combine with a stated correlation</option>
             <option value="one">Keep one per study</option>
           </select>
-        </Field>
-        {form.depMode === 'aggregate' ? (
-          <Field id="f-r" label="Assumed correlation r" error={errors.r} hint="between 0 and 1; 0.5 by default">
-            <input id="f-r" inputMode="decimal" value={form.r} onChange={(e) => set('r', e.target.value)} className={`${inputClass(errors.r)} w-20`} aria-invalid={!!errors.r} aria-describedby={errors.r ? 'f-r-error' : undefined} />
-          </Field>
-        ) : (
-          <Field id="f-rule" label="Keep" error={errors.rule}>
-            <select id="f-rule" value={form.rule} onChange={(e) => set('rule', e.target.value)} className={inputClass(errors.rule)}>
+        </SynthesisField>
+        {mode === 'one' ? (
+          <SynthesisField label="Keep" error={err('dependence.rule')}>
+            <select {...register('dependence.rule')} className={inputClass}>
               {ONE_PER_STUDY_RULES.map((r) => (
                 <option key={r} value={r}>
                   {ONE_PER_STUDY_LABELS[r]}
                 </option>
               ))}
             </select>
-          </Field>
+          </SynthesisField>
+        ) : (
+          <SynthesisField label="Assumed correlation r" error={err('dependence.r')} hint="between 0 and 1; 0.5 by default">
+            <input inputMode="decimal" {...register('dependence.r')} className={`${inputClass} w-20`} />
+          </SynthesisField>
         )}
-        <Field id="f-subgroup" label="Subgroups by" error={errors.subgroup}>
-          <select id="f-subgroup" value={form.subgroup} onChange={(e) => set('subgroup', e.target.value)} className={inputClass(errors.subgroup)}>
+        <SynthesisField label="Subgroups by" error={err('subgroup')}>
+          <select {...register('subgroup')} className={inputClass}>
             <option value="">No subgroups</option>
             {SUBGROUP_VARIABLES.map((v) => (
               <option key={v} value={v}>
@@ -154,9 +159,9 @@ export function SynthesisFormPanel({
               </option>
             ))}
           </select>
-        </Field>
-        <Field id="f-moderator" label="Meta-regression on" error={errors.moderator}>
-          <select id="f-moderator" value={form.moderator} onChange={(e) => set('moderator', e.target.value)} className={inputClass(errors.moderator)}>
+        </SynthesisField>
+        <SynthesisField label="Meta-regression on" error={err('moderator')}>
+          <select {...register('moderator')} className={inputClass}>
             <option value="">No moderator</option>
             {(Object.keys(MODERATOR_LABELS) as Array<keyof typeof MODERATOR_LABELS>).map((m) => (
               <option key={m} value={m}>
@@ -164,13 +169,13 @@ export function SynthesisFormPanel({
               </option>
             ))}
           </select>
-        </Field>
+        </SynthesisField>
       </fieldset>
       <div className="mt-3 flex items-center gap-3">
         <Button type="submit" variant="primary" disabled={running}>
           {running ? 'Pooling…' : 'Run synthesis'}
         </Button>
-        {errors.form && <span className="text-sm text-refusal">✕ {errors.form}</span>}
+        <FieldError message={formState.errors.root?.server?.message} className="text-sm text-refusal" />
       </div>
     </form>
   );

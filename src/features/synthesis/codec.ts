@@ -1,0 +1,228 @@
+import { z } from 'zod';
+import { synthesisFiltersSchema, synthesisRequestSchema, type SynthesisRequest } from '../../../shared/schemas/synthesis';
+
+/**
+ * The one translation of a synthesis request between its three forms: the request the server takes, the address
+ * (URL search parameters, so a synthesis can be linked and rerun) and the form's values (text until parsed).
+ */
+export const DEFAULT_REQUEST: SynthesisRequest = synthesisRequestSchema.parse({});
+
+const TEXT_FILTERS = ['outcome', 'metric', 'population', 'modality', 'task', 'design'] as const;
+const YEAR_FILTERS = ['yearFrom', 'yearTo'] as const;
+const MAX_MANIPULATIONS = 50;
+/** The address of a synthesis with every option at its default and no filter. */
+export const ALL_PARAM = 'all';
+
+const KNOWN_PARAMS = new Set<string>([
+  ALL_PARAM,
+  'manipulation',
+  ...TEXT_FILTERS,
+  ...YEAR_FILTERS,
+  'method',
+  'hksj',
+  'level',
+  'dependence',
+  'r',
+  'rule',
+  'subgroup',
+  'moderator',
+]);
+
+/** What the form's inputs hold: the request's shape, with text where the user types numbers. */
+export interface SynthesisFormValues {
+  filters: {
+    manipulation: string[];
+    outcome: string;
+    metric: string;
+    population: string;
+    modality: string;
+    task: string;
+    design: string;
+    yearFrom: string;
+    yearTo: string;
+  };
+  method: string;
+  hksj: boolean;
+  level: string;
+  dependence: { mode: 'aggregate' | 'one'; r: string; rule: string };
+  subgroup: string;
+  moderator: string;
+}
+
+// ---- request → address -------------------------------------------------------------------------------------
+
+/** The request as search parameters, leaving out every default (an all-default request becomes `?all=1`). */
+export function encodeRequest(request: SynthesisRequest): URLSearchParams {
+  const p = new URLSearchParams();
+  const f = request.filters;
+  for (const m of ([] as string[]).concat(f.manipulation ?? [])) p.append('manipulation', m);
+  for (const k of TEXT_FILTERS) if (f[k] !== undefined) p.set(k, f[k]);
+  for (const k of YEAR_FILTERS) if (f[k] !== undefined) p.set(k, String(f[k]));
+  if (request.method !== DEFAULT_REQUEST.method) p.set('method', request.method);
+  if (request.hksj) p.set('hksj', '1');
+  if (request.level !== DEFAULT_REQUEST.level) p.set('level', String(request.level));
+  if (request.dependence.mode === 'one') {
+    p.set('dependence', 'one');
+    if (request.dependence.rule !== 'largest_n') p.set('rule', request.dependence.rule);
+  } else if (request.dependence.r !== 0.5) p.set('r', String(request.dependence.r));
+  if (request.subgroup) p.set('subgroup', request.subgroup);
+  if (request.moderator) p.set('moderator', request.moderator);
+  if (p.size === 0) p.set(ALL_PARAM, '1');
+  return p;
+}
+
+/** The synthesis screen's address for a request. */
+export const synthesisHref = (request: SynthesisRequest) => `/synthesis?${encodeRequest(request).toString()}`;
+
+/** The address of a synthesis over the given filters (as an atlas cell states them), other options at their defaults. */
+export const filtersHref = (filters: Record<string, string>) => synthesisHref(decodeRequest(new URLSearchParams(filters)) ?? DEFAULT_REQUEST);
+
+// ---- address → request -------------------------------------------------------------------------------------
+
+/** The form's values as the address holds them (a parameter that is not there keeps its default). */
+function valuesFromParams(p: URLSearchParams): SynthesisFormValues {
+  const d = requestToFormValues(DEFAULT_REQUEST);
+  const get = (k: string, fallback: string) => p.get(k) ?? fallback;
+  return {
+    filters: {
+      manipulation: p.getAll('manipulation'),
+      outcome: get('outcome', ''),
+      metric: get('metric', ''),
+      population: get('population', ''),
+      modality: get('modality', ''),
+      task: get('task', ''),
+      design: get('design', ''),
+      yearFrom: get('yearFrom', ''),
+      yearTo: get('yearTo', ''),
+    },
+    method: get('method', d.method),
+    hksj: p.get('hksj') === '1' || p.get('hksj') === 'true',
+    level: get('level', d.level),
+    dependence: { mode: p.get('dependence') === 'one' ? 'one' : 'aggregate', r: get('r', d.dependence.r), rule: get('rule', d.dependence.rule) },
+    subgroup: get('subgroup', ''),
+    moderator: get('moderator', ''),
+  };
+}
+
+const manipulationFilter = synthesisFiltersSchema.shape.manipulation;
+
+/** Removes the value at `path` so the schema's default (or "any") takes its place. */
+function dropAt(candidate: Record<string, unknown>, path: PropertyKey[]): boolean {
+  if (path.length === 0) return false;
+  let parent: unknown = candidate;
+  for (const key of path.slice(0, -1)) {
+    parent = (parent as Record<PropertyKey, unknown> | undefined)?.[key];
+    if (parent === null || typeof parent !== 'object') return false;
+  }
+  const last = path[path.length - 1];
+  if (Array.isArray(parent) && typeof last === 'number') parent.splice(last, 1);
+  else delete (parent as Record<PropertyKey, unknown>)[last];
+  return true;
+}
+
+/** Parses what may be wrong, dropping one refused part at a time until the rest parses; never throws. */
+function parseLeniently(candidate: Record<string, unknown>): SynthesisRequest {
+  for (let attempt = 0; attempt < 50; attempt++) {
+    const parsed = synthesisRequestSchema.safeParse(candidate);
+    if (parsed.success) return parsed.data;
+    if (!dropAt(candidate, parsed.error.issues[0].path)) break;
+  }
+  return DEFAULT_REQUEST;
+}
+
+/**
+ * The request an address asks for, or null when it asks for none (the screen then waits for the form). A value
+ * the schema refuses falls back to its default, so a hand-edited or old link still opens.
+ */
+export function decodeRequest(params: URLSearchParams): SynthesisRequest | null {
+  if (![...params.keys()].some((k) => KNOWN_PARAMS.has(k))) return null;
+  const values = valuesFromParams(params);
+  values.filters.manipulation = values.filters.manipulation.filter((m) => manipulationFilter.safeParse(m).success).slice(0, MAX_MANIPULATIONS);
+  return parseLeniently(candidateFromValues(values));
+}
+
+// ---- request ↔ form values ---------------------------------------------------------------------------------
+
+export function requestToFormValues(request: SynthesisRequest): SynthesisFormValues {
+  const f = request.filters;
+  const dep = request.dependence;
+  return {
+    filters: {
+      manipulation: ([] as string[]).concat(f.manipulation ?? []),
+      outcome: f.outcome ?? '',
+      metric: f.metric ?? '',
+      population: f.population ?? '',
+      modality: f.modality ?? '',
+      task: f.task ?? '',
+      design: f.design ?? '',
+      yearFrom: f.yearFrom === undefined ? '' : String(f.yearFrom),
+      yearTo: f.yearTo === undefined ? '' : String(f.yearTo),
+    },
+    method: request.method,
+    hksj: request.hksj,
+    level: String(request.level),
+    dependence: {
+      mode: dep.mode,
+      r: String(dep.mode === 'aggregate' ? dep.r : 0.5),
+      rule: dep.mode === 'one' ? dep.rule : 'largest_n',
+    },
+    subgroup: request.subgroup ?? '',
+    moderator: request.moderator ?? '',
+  };
+}
+
+/** Text that should be a number: empty means "not given"; anything else is converted (NaN is refused later). */
+const numberOrNothing = (s: string) => (s.trim() === '' ? undefined : Number(s.trim()));
+
+/** The form's values as the request the schema checks: empty fields left out, numbers converted. */
+function candidateFromValues(v: SynthesisFormValues): Record<string, unknown> {
+  const filters: Record<string, unknown> = {};
+  const manipulation = v.filters.manipulation.filter(Boolean);
+  if (manipulation.length) filters.manipulation = manipulation.length === 1 ? manipulation[0] : manipulation;
+  for (const k of TEXT_FILTERS) if (v.filters[k]) filters[k] = v.filters[k];
+  for (const k of YEAR_FILTERS) if (v.filters[k].trim()) filters[k] = numberOrNothing(v.filters[k]);
+  const level = numberOrNothing(v.level);
+  const r = numberOrNothing(v.dependence.r);
+  return {
+    filters,
+    method: v.method || undefined,
+    hksj: v.hksj,
+    ...(level === undefined ? {} : { level }),
+    dependence: v.dependence.mode === 'one' ? { mode: 'one', rule: v.dependence.rule || undefined } : { mode: 'aggregate', ...(r === undefined ? {} : { r }) },
+    ...(v.subgroup ? { subgroup: v.subgroup } : {}),
+    ...(v.moderator ? { moderator: v.moderator } : {}),
+  };
+}
+
+const year = z.string().trim().regex(/^(\d{4})?$/, 'a year has four digits');
+const numberText = z.string().trim().regex(/^(-?\d*\.?\d+)?$/, 'enter a number, such as 0.95');
+
+const formValuesSchema = z.object({
+  filters: z.object({
+    manipulation: z.array(z.string()),
+    outcome: z.string(),
+    metric: z.string(),
+    population: z.string(),
+    modality: z.string(),
+    task: z.string(),
+    design: z.string(),
+    yearFrom: year,
+    yearTo: year,
+  }),
+  method: z.string(),
+  hksj: z.boolean(),
+  level: numberText,
+  dependence: z.object({
+    mode: z.enum(['aggregate', 'one']),
+    r: numberText,
+    rule: z.string(),
+  }),
+  subgroup: z.string(),
+  moderator: z.string(),
+});
+
+/**
+ * The synthesis form's schema: the text the inputs hold, turned into a request and checked by the server's own
+ * schema. Its messages sit at the form's field paths (filters.yearTo, dependence.r, level …).
+ */
+export const synthesisFormSchema = formValuesSchema.transform(candidateFromValues).pipe(synthesisRequestSchema);
