@@ -1,6 +1,12 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { createAssignmentSchema } from '../../../shared/schemas/extraction';
 import { Link } from 'react-router-dom';
 import { Button } from '../../components/ui/Button';
+import { FieldError } from '../../components/ui/Field';
+import { formResolver, taking } from '../../lib/forms/resolver';
+import { showServerErrors } from '../../lib/forms/server-errors';
 import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { Pager } from '../../components/ui/Pager';
 import { SortHeader } from '../../components/ui/SortHeader';
@@ -11,13 +17,37 @@ import { useCandidates, type CandidatesQuery, type Candidate } from '../../featu
 import { useCoders } from '../../features/reconciliation/api/get-coders';
 import { RequireRole } from './RequireRole';
 
+/** Two coders for one reference, checked with the server's schema (two different people). */
+const assignmentSchema = (referenceId: number) =>
+  z
+    .object({ coder1Id: z.string().min(1, 'choose the first coder'), coder2Id: z.string().min(1, 'choose the second coder') })
+    .transform((v) => ({ referenceId, coder1Id: Number(v.coder1Id), coder2Id: Number(v.coder2Id) }))
+    .pipe(taking<{ referenceId: number; coder1Id: number; coder2Id: number }>()(createAssignmentSchema));
+
 function AssignRow({ c }: { c: Candidate }) {
   const { data: coders } = useCoders();
   const create = useCreateAssignment();
-  const [a, setA] = useState('');
-  const [b, setB] = useState('');
-  const [done, setDone] = useState(false);
-  const same = a !== '' && a === b;
+  const schema = useMemo(() => assignmentSchema(c.id), [c.id]);
+  const form = useForm({ resolver: formResolver(schema), defaultValues: { coder1Id: '', coder2Id: '' }, mode: 'onChange' });
+  const { errors } = form.formState;
+  const done = create.isSuccess;
+  const coderSelect = (name: 'coder1Id' | 'coder2Id', label: string, placeholder: string) => (
+    <select
+      aria-label={`${label} for ${c.referenceLabel}`}
+      className="rounded border border-paper-edge bg-white px-1 py-0.5"
+      {...form.register(name, { deps: name === 'coder1Id' ? ['coder2Id'] : undefined })}
+      aria-invalid={!!errors[name]}
+      aria-describedby={`assign-${c.id}-error`}
+    >
+      <option value="">{placeholder}</option>
+      {coders?.items.map((u) => (
+        <option key={u.id} value={u.id}>
+          @{u.login}
+        </option>
+      ))}
+    </select>
+  );
+  const message = errors.coder1Id?.message ?? errors.coder2Id?.message ?? errors.root?.server?.message;
   return (
     <tr>
       <td>
@@ -26,34 +56,20 @@ function AssignRow({ c }: { c: Candidate }) {
       <td className="reading text-xs">{c.title}</td>
       <td>{c.settled ? <StateBadge state="settled" /> : c.assignmentState ? <StateBadge state={c.assignmentState} /> : <span className="text-xs text-ink-faint">not coded</span>}</td>
       <td>
-        <div className="flex flex-wrap items-center gap-1 text-sm">
-          <select aria-label={`First coder for ${c.referenceLabel}`} className="rounded border border-paper-edge bg-white px-1 py-0.5" value={a} onChange={(e) => setA(e.target.value)}>
-            <option value="">first coder</option>
-            {coders?.items.map((u) => (
-              <option key={u.id} value={u.id}>
-                @{u.login}
-              </option>
-            ))}
-          </select>
-          <select aria-label={`Second coder for ${c.referenceLabel}`} className="rounded border border-paper-edge bg-white px-1 py-0.5" value={b} onChange={(e) => setB(e.target.value)}>
-            <option value="">second coder</option>
-            {coders?.items.map((u) => (
-              <option key={u.id} value={u.id}>
-                @{u.login}
-              </option>
-            ))}
-          </select>
-          <Button
-            variant="primary"
-            disabled={!a || !b || same || create.isPending || done}
-            onClick={() => create.mutate({ referenceId: c.id, coder1Id: Number(a), coder2Id: Number(b) }, { onSuccess: () => setDone(true) })}
-          >
+        <form
+          className="flex flex-wrap items-center gap-1 text-sm"
+          noValidate
+          onSubmit={form.handleSubmit((body) => create.mutate(body, { onError: (err) => showServerErrors(err, form.setError, ['coder1Id', 'coder2Id']) }))}
+        >
+          {coderSelect('coder1Id', 'First coder', 'first coder')}
+          {coderSelect('coder2Id', 'Second coder', 'second coder')}
+          <Button type="submit" variant="primary" disabled={create.isPending || done}>
             Assign
           </Button>
-          {same && <span className="text-xs text-refusal">✕ choose two different coders</span>}
+          <FieldError id={`assign-${c.id}-error`} message={message} className="text-xs text-refusal" />
           {done && <span className="text-xs">✓ Assigned; both coders are e-mailed</span>}
-        </div>
-        {create.error && <ErrorNote error={create.error} />}
+        </form>
+        {create.error && !message && <ErrorNote error={create.error} />}
       </td>
     </tr>
   );

@@ -1,8 +1,9 @@
-import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { useForm, type Resolver } from 'react-hook-form';
-import { manipulationCreateSchema } from '../../../shared/schemas/extraction';
+import { useForm, useWatch } from 'react-hook-form';
+import { z } from 'zod';
+import { manipulationCreateSchema, manipulationUpdateSchema } from '../../../shared/schemas/extraction';
 import { Button } from '../../components/ui/Button';
+import { Field, FieldError } from '../../components/ui/Field';
 import { ErrorNote, Loading } from '../../components/ui/Notice';
 import { SortHeader } from '../../components/ui/SortHeader';
 import { Pager } from '../../components/ui/Pager';
@@ -11,10 +12,17 @@ import { useCreateManipulation } from '../../features/manipulations/api/create-m
 import { useManipulations, type Manipulation, type ManipulationsQuery } from '../../features/manipulations/api/get-manipulations';
 import { useUpdateManipulation } from '../../features/manipulations/api/update-manipulation';
 import { ApiRequestError } from '../../lib/api-client';
+import { formResolver } from '../../lib/forms/resolver';
+import { showServerErrors } from '../../lib/forms/server-errors';
+
+/** A curator renames a term; the label is checked as the server checks it. */
+const renameSchema = z.object({ label: manipulationUpdateSchema.shape.label.unwrap() });
 
 function Row({ m, curator }: { m: Manipulation; curator: boolean }) {
   const update = useUpdateManipulation();
-  const [label, setLabel] = useState(m.label);
+  const form = useForm({ resolver: formResolver(renameSchema), values: { label: m.label } });
+  const label = useWatch({ control: form.control, name: 'label' });
+  const labelError = form.formState.errors.label?.message;
   return (
     <tr>
       <td>
@@ -23,21 +31,26 @@ function Row({ m, curator }: { m: Manipulation; curator: boolean }) {
       <td>
         {curator ? (
           <form
-            className="flex gap-1"
-            onSubmit={(e) => {
-              e.preventDefault();
-              update.mutate({ term: m.term, version: m.version, label });
-            }}
+            className="flex flex-wrap gap-1"
+            noValidate
+            onSubmit={form.handleSubmit((v) => update.mutate({ term: m.term, version: m.version, label: v.label }, { onError: (err) => showServerErrors(err, form.setError, ['label']) }))}
           >
-            <input aria-label={`Label of ${m.term}`} className="rounded border border-paper-edge bg-white px-2 py-0.5" value={label} onChange={(e) => setLabel(e.target.value)} />
+            <input
+              aria-label={`Label of ${m.term}`}
+              className="rounded border border-paper-edge bg-white px-2 py-0.5"
+              {...form.register('label')}
+              aria-invalid={!!labelError}
+              aria-describedby={`label-${m.term}-error`}
+            />
             <Button type="submit" disabled={label === m.label || update.isPending}>
               Rename
             </Button>
+            <FieldError id={`label-${m.term}-error`} message={labelError} />
           </form>
         ) : (
           m.label
         )}
-        {update.error && <ErrorNote error={update.error} />}
+        {update.error && !labelError && <ErrorNote error={update.error} />}
       </td>
       <td className="text-xs">{m.description}</td>
       <td className="num">{m.settledEffects}</td>
@@ -55,41 +68,30 @@ function Row({ m, curator }: { m: Manipulation; curator: boolean }) {
 
 function AddTerm() {
   const create = useCreateManipulation();
-  const form = useForm<{ term: string; label: string; description: string }>({ resolver: zodResolver(manipulationCreateSchema) as unknown as Resolver<{ term: string; label: string; description: string }> });
+  const form = useForm({ resolver: formResolver(manipulationCreateSchema), defaultValues: { term: '', label: '', description: '' } });
   const { errors } = form.formState;
   return (
     <form
       className="mt-4 grid grid-cols-1 gap-2 rounded border border-paper-edge p-3 md:grid-cols-4"
-      onSubmit={form.handleSubmit((v) =>
-        create.mutate(v, {
-          onSuccess: () => form.reset(),
-          onError: (err) => {
-            if (err instanceof ApiRequestError) for (const [k, message] of Object.entries(err.fieldErrors())) form.setError(k as 'term', { message });
-          },
-        }),
-      )}
+      noValidate
+      onSubmit={form.handleSubmit((v) => create.mutate(v, { onSuccess: () => form.reset(), onError: (err) => showServerErrors(err, form.setError, ['term', 'label', 'description']) }))}
     >
-      <label className="text-sm">
-        <span className="block text-xs font-semibold text-ink-soft">Term (stable slug)</span>
+      <Field label="Term (stable slug)" error={errors.term?.message}>
         <input className="w-full rounded border border-paper-edge bg-white px-2 py-1" {...form.register('term')} placeholder="e.g. colour_saturation" />
-        {errors.term && <span className="text-xs text-refusal">✕ {errors.term.message}</span>}
-      </label>
-      <label className="text-sm">
-        <span className="block text-xs font-semibold text-ink-soft">Label</span>
+      </Field>
+      <Field label="Label" error={errors.label?.message}>
         <input className="w-full rounded border border-paper-edge bg-white px-2 py-1" {...form.register('label')} />
-        {errors.label && <span className="text-xs text-refusal">✕ {errors.label.message}</span>}
-      </label>
-      <label className="text-sm md:col-span-2">
-        <span className="block text-xs font-semibold text-ink-soft">What was manipulated</span>
+      </Field>
+      <Field label="What was manipulated" error={errors.description?.message} className="text-sm md:col-span-2">
         <input className="w-full rounded border border-paper-edge bg-white px-2 py-1" {...form.register('description')} />
-      </label>
+      </Field>
       <div>
         <Button type="submit" variant="primary" disabled={create.isPending}>
           Add the term
         </Button>
         {create.isSuccess && <span className="ml-2 text-xs">✓ Added</span>}
       </div>
-      <ErrorNote error={create.error && !(create.error instanceof ApiRequestError && create.error.status === 400) ? create.error : null} />
+      <ErrorNote error={errors.root?.server?.message ?? (create.error && !(create.error instanceof ApiRequestError && create.error.status === 400) ? create.error : null)} />
     </form>
   );
 }

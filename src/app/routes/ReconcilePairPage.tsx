@@ -1,7 +1,9 @@
-import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link, useParams } from 'react-router-dom';
-import { TOLERANCE_TEXT } from '../../../shared/schemas/extraction';
+import { settleSchema, TOLERANCE_TEXT } from '../../../shared/schemas/extraction';
 import { Button } from '../../components/ui/Button';
+import { Field } from '../../components/ui/Field';
+import { formResolver } from '../../lib/forms/resolver';
 import { ErrorNote, Loading } from '../../components/ui/Notice';
 import { SheetView } from '../../features/extraction/components/SheetView';
 import { StateBadge } from '../../components/ui/StateBadge';
@@ -16,7 +18,7 @@ export function ReconcilePairPage() {
   const { data, error, isLoading } = usePair(id);
   const settle = useSettlePair();
   const vocabulary = useManipulations(CURRENT_VOCABULARY);
-  const [rationale, setRationale] = useState('');
+  const settleForm = useForm({ resolver: formResolver(settleSchema), defaultValues: { rationale: '' } });
   const open = data?.discrepancies.filter((d) => d.status === 'open').length ?? 0;
   const editable = data?.assignment.state === 'disputed';
   return (
@@ -50,17 +52,10 @@ export function ReconcilePairPage() {
             </tbody>
           </table>
           {editable && (
-            <form
-              className="mt-3"
-              onSubmit={(e) => {
-                e.preventDefault();
-                settle.mutate({ assignmentId: id, rationale });
-              }}
-            >
-              <label className="block text-sm">
-                <span className="block text-xs font-semibold text-ink-soft">Note on the settlement (optional)</span>
-                <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1" rows={2} value={rationale} onChange={(e) => setRationale(e.target.value)} />
-              </label>
+            <form className="mt-3" noValidate onSubmit={settleForm.handleSubmit((v) => settle.mutate({ assignmentId: id, rationale: v.rationale }))}>
+              <Field label="Note on the settlement (optional)" error={settleForm.formState.errors.rationale?.message} className="block text-sm">
+                <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1" rows={2} {...settleForm.register('rationale')} />
+              </Field>
               <Button type="submit" variant="primary" className="mt-1" disabled={open > 0 || settle.isPending}>
                 Settle the record
               </Button>

@@ -1,6 +1,11 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { reasonSchema } from '../../../shared/schemas/extraction';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Button } from '../../components/ui/Button';
+import { Field } from '../../components/ui/Field';
+import { formResolver } from '../../lib/forms/resolver';
 import { Caution, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useHasRole } from '../../features/auth/api/get-me';
 import { SheetView } from '../../features/extraction/components/SheetView';
@@ -12,25 +17,25 @@ import { useSettleRecord } from '../../features/reconciliation/api/settle-record
 import { useWithdrawRecord } from '../../features/reconciliation/api/withdraw-record';
 import { useWithdrawEffect } from '../../features/reconciliation/api/withdraw-effect';
 
+/** Withdrawing one effect: which one, and why (the same reason rule as the server's). */
+const withdrawEffectSchema = z
+  .object({ effectId: z.string().min(1, 'choose the effect to withdraw'), reason: z.string() })
+  .transform((v) => ({ effectId: Number(v.effectId), reason: v.reason }))
+  .pipe(reasonSchema.extend({ effectId: z.number().int().positive() }));
+
+/** A curator's action on the record that needs a reason kept with it (reopen, withdraw, settle). */
 function ReasonAction({ label, onRun, pending, error }: { label: string; onRun: (reason: string) => void; pending: boolean; error: unknown }) {
   const [open, setOpen] = useState(false);
-  const [reason, setReason] = useState('');
+  const form = useForm({ resolver: formResolver(reasonSchema), defaultValues: { reason: '' } });
+  const reasonError = form.formState.errors.reason?.message;
   if (!open) return <Button onClick={() => setOpen(true)}>{label}…</Button>;
   return (
-    <form
-      className="my-2 rounded border border-paper-edge p-2"
-      onSubmit={(e) => {
-        e.preventDefault();
-        onRun(reason);
-      }}
-    >
-      <label className="block text-sm">
-        <span className="block text-xs font-semibold text-ink-soft">Reason (kept with the record)</span>
-        <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1" rows={2} value={reason} onChange={(e) => setReason(e.target.value)} autoFocus />
-      </label>
-      {reason.trim().length > 0 && reason.trim().length < 3 && <span className="text-xs text-refusal">✕ give a reason of at least 3 characters</span>}
+    <form className="my-2 rounded border border-paper-edge p-2" noValidate onSubmit={form.handleSubmit((v) => onRun(v.reason))}>
+      <Field label="Reason (kept with the record)" error={reasonError} className="block text-sm">
+        <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1" rows={2} {...form.register('reason')} autoFocus />
+      </Field>
       <div className="mt-1 flex gap-2">
-        <Button type="submit" variant="primary" disabled={pending || reason.trim().length < 3}>
+        <Button type="submit" variant="primary" disabled={pending}>
           {label}
         </Button>
         <Button onClick={() => setOpen(false)}>Cancel</Button>
@@ -42,19 +47,16 @@ function ReasonAction({ label, onRun, pending, error }: { label: string; onRun: 
 
 function WithdrawEffect({ effects }: { effects: { id: number; label: string }[] }) {
   const withdraw = useWithdrawEffect();
-  const [id, setId] = useState('');
-  const [reason, setReason] = useState('');
+  const form = useForm({ resolver: formResolver(withdrawEffectSchema), defaultValues: { effectId: '', reason: '' } });
+  const { errors } = form.formState;
   return (
     <form
-      className="my-3 flex flex-wrap items-end gap-2 text-sm"
-      onSubmit={(e) => {
-        e.preventDefault();
-        withdraw.mutate({ id: Number(id), reason }, { onSuccess: () => (setId(''), setReason('')) });
-      }}
+      className="my-3 flex flex-wrap items-start gap-2 text-sm"
+      noValidate
+      onSubmit={form.handleSubmit((v) => withdraw.mutate({ id: v.effectId, reason: v.reason }, { onSuccess: () => form.reset() }))}
     >
-      <label>
-        <span className="block text-xs font-semibold text-ink-soft">Withdraw one effect</span>
-        <select className="rounded border border-paper-edge bg-white px-2 py-1" value={id} onChange={(e) => setId(e.target.value)}>
+      <Field label="Withdraw one effect" error={errors.effectId?.message}>
+        <select className="rounded border border-paper-edge bg-white px-2 py-1" {...form.register('effectId')}>
           <option value="">— effect —</option>
           {effects.map((f) => (
             <option key={f.id} value={f.id}>
@@ -62,12 +64,11 @@ function WithdrawEffect({ effects }: { effects: { id: number; label: string }[] 
             </option>
           ))}
         </select>
-      </label>
-      <label className="grow">
-        <span className="block text-xs font-semibold text-ink-soft">Reason</span>
-        <input className="w-full rounded border border-paper-edge bg-white px-2 py-1" value={reason} onChange={(e) => setReason(e.target.value)} />
-      </label>
-      <Button type="submit" variant="danger" disabled={!id || reason.trim().length < 3 || withdraw.isPending}>
+      </Field>
+      <Field label="Reason" error={errors.reason?.message} className="grow text-sm">
+        <input className="w-full rounded border border-paper-edge bg-white px-2 py-1" {...form.register('reason')} />
+      </Field>
+      <Button type="submit" variant="danger" className="mt-4" disabled={withdraw.isPending}>
         Withdraw the effect
       </Button>
       {withdraw.isSuccess && <span role="status">✓ Withdrawn; it no longer enters analyses.</span>}

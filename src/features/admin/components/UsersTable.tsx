@@ -1,36 +1,39 @@
-import { useEffect, useState } from 'react';
+import { useMemo, useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { roleChangeParamsSchema } from '../../../../shared/schemas/users';
 import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/roles';
 import { ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { SortHeader } from '../../../components/ui/SortHeader';
+import { formResolver, taking } from '../../../lib/forms/resolver';
 import { useUsers, type AdminUser } from '../api/get-users';
 import { useSetRole } from '../api/set-role';
 
 type SortField = 'login' | 'name' | 'created_at' | 'last_seen_at';
 
+/** A role change as the server's route takes it: who, which role, granted or not. */
+const roleChangeSchema = (userId: number, role: Role) =>
+  z
+    .object({ granted: z.boolean() })
+    .transform((v) => ({ id: userId, role, granted: v.granted }))
+    .pipe(taking<{ id: number; role: Role; granted: boolean }>()(roleChangeParamsSchema.extend({ granted: z.boolean() })));
+
+/** One role of one person: ticking saves at once; a refused change puts the box back. */
 function RoleCell({ user, role }: { user: AdminUser; role: Role }) {
   const mutation = useSetRole();
-  const [saved, setSaved] = useState(false);
   const held = user.roles.includes(role);
-  const [checked, setChecked] = useState(held);
-  useEffect(() => setChecked(held), [held]);
+  const schema = useMemo(() => roleChangeSchema(user.id, role), [user.id, role]);
+  const form = useForm({ resolver: formResolver(schema), values: { granted: held } });
+  const save = form.handleSubmit(({ id, granted }) =>
+    mutation.mutate({ userId: id, role, granted }, { onError: () => form.reset({ granted: held }) }),
+  );
   return (
     <td className="text-center">
-      <label className="inline-flex items-center gap-1">
-        <input
-          type="checkbox"
-          aria-label={ROLE_LABELS[role]}
-          checked={checked}
-          disabled={mutation.isPending}
-          onChange={(e) => {
-            const granted = e.target.checked;
-            setSaved(false);
-            setChecked(granted);
-            mutation.mutate({ userId: user.id, role, granted }, { onSuccess: () => setSaved(true), onError: () => setChecked(held) });
-          }}
-        />
-        {saved && <span className="text-xs text-ink-soft">Saved</span>}
-      </label>
+      <form className="inline-flex items-center gap-1" noValidate onChange={() => void save()} onSubmit={save}>
+        <input type="checkbox" aria-label={ROLE_LABELS[role]} {...form.register('granted')} disabled={mutation.isPending} />
+        {mutation.isSuccess && <span className="text-xs text-ink-soft">Saved</span>}
+      </form>
       {mutation.error && <ErrorNote error={mutation.error} />}
     </td>
   );

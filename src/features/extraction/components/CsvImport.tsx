@@ -1,10 +1,19 @@
 import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
 import { CSV_COLUMNS, parseEffectsCsv, type CsvRow } from '../../../../shared/extraction/csv';
 import { Button } from '../../../components/ui/Button';
+import { Field } from '../../../components/ui/Field';
+import { formResolver } from '../../../lib/forms/resolver';
 
-/** Bulk entry: paste or load a CSV; good rows join the sheet, bad rows are listed with their line. */
+const csvFormSchema = z.object({ text: z.string().trim().min(1, 'paste at least one row below the header, or choose a file') });
+
+/**
+ * Bulk entry: paste or load a CSV; good rows join the sheet, bad rows are listed with their line. It sits inside
+ * the sheet's own form, so it is a form of its own without a <form> element.
+ */
 export function CsvImport({ onRows }: { onRows: (rows: CsvRow[]) => void }) {
-  const [text, setText] = useState('');
+  const form = useForm({ resolver: formResolver(csvFormSchema), defaultValues: { text: '' } });
   const [report, setReport] = useState<{ added: number; errors: { row: number; message: string }[] } | null>(null);
   const run = (t: string) => {
     const { rows, errors } = parseEffectsCsv(t);
@@ -21,11 +30,10 @@ export function CsvImport({ onRows }: { onRows: (rows: CsvRow[]) => void }) {
       <label className="mt-2 block text-sm">
         CSV file <input type="file" accept=".csv,text/csv" onChange={async (e) => e.target.files?.[0] && run(await e.target.files[0].text())} />
       </label>
-      <label className="mt-2 block text-sm">
-        <span className="block text-xs font-semibold text-ink-soft">or paste rows</span>
-        <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1 font-mono text-xs" rows={4} value={text} onChange={(e) => setText(e.target.value)} />
-      </label>
-      <Button className="mt-2" onClick={() => run(text)} disabled={!text.trim()}>
+      <Field label="or paste rows" error={form.formState.errors.text?.message} className="mt-2 text-sm">
+        <textarea className="w-full rounded border border-paper-edge bg-white px-2 py-1 font-mono text-xs" rows={4} {...form.register('text')} />
+      </Field>
+      <Button className="mt-2" onClick={form.handleSubmit((v) => run(v.text))}>
         Add the rows
       </Button>
       {report && (

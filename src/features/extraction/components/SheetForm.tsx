@@ -1,6 +1,5 @@
-import { zodResolver } from '@hookform/resolvers/zod';
-import { cloneElement, useCallback, useEffect, useId, useRef, useState } from 'react';
-import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type Resolver, type UseFormRegister } from 'react-hook-form';
+import { useCallback, useEffect, useRef, useState } from 'react';
+import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
 import { DEFAULT_ASSUMED_R, REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type Reported } from '../../../../shared/extraction/compute';
 import { effectWarnings, studyWarnings } from '../../../../shared/extraction/warnings';
 import { effectDraftSchema, sheetDraftSchema, sheetSubmitSchema, studyDraftSchema, type Sheet } from '../../../../shared/schemas/extraction';
@@ -10,7 +9,10 @@ import { OUTCOMES, OUTCOME_KINDS, METRIC_LABELS } from '../../../../shared/vocab
 import { POPULATIONS, POPULATION_LABELS } from '../../../../shared/vocabulary/populations';
 import { TASKS, TASK_LABELS } from '../../../../shared/vocabulary/tasks';
 import { Button } from '../../../components/ui/Button';
+import { Field, messageAt } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
+import { formResolver } from '../../../lib/forms/resolver';
+import type { z } from 'zod';
 import { ApiRequestError } from '../../../lib/api-client';
 import { useSaveExtraction } from '../api/save-extraction';
 import { useSubmitExtraction } from '../api/submit-extraction';
@@ -29,36 +31,7 @@ export function toFormSheet(studies: StoredStudy[], notes: string): Sheet {
 const emptyEffect = (): Sheet['studies'][number]['effects'][number] => ({ label: '', reported: {} });
 const emptyStudy = (n: number): Sheet['studies'][number] => ({ label: `Experiment ${n}`, effects: [emptyEffect()] });
 
-function errorAt(errors: FieldErrors<Sheet>, path: string): string | undefined {
-  let cur: any = errors;
-  for (const p of path.split('.')) cur = cur?.[p];
-  return typeof cur?.message === 'string' ? cur.message : undefined;
-}
-
 const inputCls = 'w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm aria-[invalid=true]:border-refusal';
-
-function Field({ label, error, children, hint }: { label: string; error?: string; children: React.ReactElement<Record<string, unknown>>; hint?: string }) {
-  const id = useId();
-  // An explicit label (not a wrapping one), so a select's chosen option never becomes part of its name.
-  return (
-    <div className="text-sm">
-      <label htmlFor={id} className="block text-xs font-semibold text-ink-soft">
-        {label}
-      </label>
-      {cloneElement(children, { id, 'aria-describedby': error ? `${id}-error` : hint ? `${id}-hint` : undefined })}
-      {hint && (
-        <span id={`${id}-hint`} className="block text-xs text-ink-faint">
-          {hint}
-        </span>
-      )}
-      {error && (
-        <span id={`${id}-error`} className="block text-xs text-refusal" role="alert">
-          ✕ {error}
-        </span>
-      )}
-    </div>
-  );
-}
 
 const num = { setValueAs: (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v)) };
 const txt = { setValueAs: (v: unknown) => (v === '' ? undefined : v) };
@@ -88,11 +61,11 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
     <fieldset className="mt-3 rounded border border-paper-edge p-3" aria-label={`Study ${i + 1}, effect ${j + 1}`}>
       <legend className="px-1 text-sm font-semibold">Effect {j + 1}</legend>
       <div className="grid grid-cols-1 gap-2 md:grid-cols-4">
-        <Field label="Label (what was contrasted)" error={errorAt(errors, `${p}.label`)}>
+        <Field label="Label (what was contrasted)" error={messageAt(errors, `${p}.label`)}>
           <input className={inputCls} {...register(`${p}.label`)} placeholder="e.g. bright vs dim" />
         </Field>
-        <Field label="Outcome kind" error={errorAt(errors, `${p}.outcome`)}>
-          <select className={inputCls} {...register(`${p}.outcome`, txt)} aria-invalid={!!errorAt(errors, `${p}.outcome`)}>
+        <Field label="Outcome kind" error={messageAt(errors, `${p}.outcome`)}>
+          <select className={inputCls} {...register(`${p}.outcome`, txt)} aria-invalid={!!messageAt(errors, `${p}.outcome`)}>
             <option value="">— choose —</option>
             {OUTCOME_KINDS.map((k) => (
               <option key={k} value={k}>
@@ -101,8 +74,8 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
             ))}
           </select>
         </Field>
-        <Field label="Manipulation" error={errorAt(errors, `${p}.manipulation`)}>
-          <select className={inputCls} {...register(`${p}.manipulation`, txt)} aria-invalid={!!errorAt(errors, `${p}.manipulation`)}>
+        <Field label="Manipulation" error={messageAt(errors, `${p}.manipulation`)}>
+          <select className={inputCls} {...register(`${p}.manipulation`, txt)} aria-invalid={!!messageAt(errors, `${p}.manipulation`)}>
             <option value="">— choose —</option>
             {terms
               .filter((t) => !t.retired || t.term === e?.manipulation)
@@ -114,8 +87,8 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
               ))}
           </select>
         </Field>
-        <Field label="Reported as" error={errorAt(errors, `${p}.form`)} hint={e?.outcome ? `${OUTCOMES[e.outcome].label} is pooled as ${OUTCOMES[e.outcome].metrics.map((m) => METRIC_LABELS[m]).join(' or ')}` : undefined}>
-          <select className={inputCls} {...register(`${p}.form`, txt)} aria-invalid={!!errorAt(errors, `${p}.form`)}>
+        <Field label="Reported as" error={messageAt(errors, `${p}.form`)} hint={e?.outcome ? `${OUTCOMES[e.outcome].label} is pooled as ${OUTCOMES[e.outcome].metrics.map((m) => METRIC_LABELS[m]).join(' or ')}` : undefined}>
+          <select className={inputCls} {...register(`${p}.form`, txt)} aria-invalid={!!messageAt(errors, `${p}.form`)}>
             <option value="">— choose —</option>
             {REPORT_FORMS.map((f) => (
               <option key={f} value={f}>
@@ -128,12 +101,12 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
       {fields.length > 0 && (
         <div className="mt-2 grid grid-cols-2 gap-2 md:grid-cols-6">
           {fields.map((k) => (
-            <Field key={k} label={REPORTED_LABELS[k]} error={errorAt(errors, `${p}.reported.${k}`) ?? (attempt && !attempt.ok && attempt.field === k ? attempt.error : undefined)}>
-              <input className={`${inputCls} text-right tabular-nums`} inputMode="decimal" {...register(`${p}.reported.${k}` as any, num)} aria-invalid={!!errorAt(errors, `${p}.reported.${k}`)} />
+            <Field key={k} label={REPORTED_LABELS[k]} error={messageAt(errors, `${p}.reported.${k}`) ?? (attempt && !attempt.ok && attempt.field === k ? attempt.error : undefined)}>
+              <input className={`${inputCls} text-right tabular-nums`} inputMode="decimal" {...register(`${p}.reported.${k}` as any, num)} aria-invalid={!!messageAt(errors, `${p}.reported.${k}`)} />
             </Field>
           ))}
           {needsR && (
-            <Field label="Assumed r if not reported" error={errorAt(errors, `${p}.assumedR`)} hint={`used only when r is blank; default ${DEFAULT_ASSUMED_R}`}>
+            <Field label="Assumed r if not reported" error={messageAt(errors, `${p}.assumedR`)} hint={`used only when r is blank; default ${DEFAULT_ASSUMED_R}`}>
               <input className={`${inputCls} text-right tabular-nums`} inputMode="decimal" placeholder={String(DEFAULT_ASSUMED_R)} {...register(`${p}.assumedR`, num)} />
             </Field>
           )}
@@ -146,14 +119,14 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
         </p>
       )}
       <div className="mt-2 grid grid-cols-1 gap-2 md:grid-cols-4">
-        <Field label="Page" error={errorAt(errors, `${p}.page`)}>
+        <Field label="Page" error={messageAt(errors, `${p}.page`)}>
           <input className={inputCls} {...register(`${p}.page`, txt)} />
         </Field>
-        <Field label="Table or figure" error={errorAt(errors, `${p}.locator`)}>
+        <Field label="Table or figure" error={messageAt(errors, `${p}.locator`)}>
           <input className={inputCls} {...register(`${p}.locator`, txt)} placeholder="e.g. Table 2" />
         </Field>
         <div className="md:col-span-2">
-          <Field label="Short quote" error={errorAt(errors, `${p}.quote`)}>
+          <Field label="Short quote" error={messageAt(errors, `${p}.quote`)}>
             <input className={inputCls} {...register(`${p}.quote`, txt)} />
           </Field>
         </div>
@@ -176,11 +149,11 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
     <section className="mt-4 rounded border border-paper-edge bg-paper-deep/40 p-3" aria-label={`Study ${i + 1}`}>
       <h3 className="text-base font-bold">Study {i + 1}</h3>
       <div className="grid grid-cols-2 gap-2 md:grid-cols-5">
-        <Field label="Label" error={errorAt(errors, `${p}.label`)}>
+        <Field label="Label" error={messageAt(errors, `${p}.label`)}>
           <input className={inputCls} {...register(`${p}.label`)} />
         </Field>
-        <Field label="Design" error={errorAt(errors, `${p}.design`)}>
-          <select className={inputCls} {...register(`${p}.design`, txt)} aria-invalid={!!errorAt(errors, `${p}.design`)}>
+        <Field label="Design" error={messageAt(errors, `${p}.design`)}>
+          <select className={inputCls} {...register(`${p}.design`, txt)} aria-invalid={!!messageAt(errors, `${p}.design`)}>
             <option value="">— choose —</option>
             {DESIGNS.map((d) => (
               <option key={d} value={d}>
@@ -189,19 +162,19 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
             ))}
           </select>
         </Field>
-        <Field label={study?.design === 'between' ? 'n, group 1' : 'n (participants)'} error={errorAt(errors, `${p}.n1`)}>
-          <input className={`${inputCls} text-right tabular-nums`} inputMode="numeric" {...register(`${p}.n1`, num)} aria-invalid={!!errorAt(errors, `${p}.n1`)} />
+        <Field label={study?.design === 'between' ? 'n, group 1' : 'n (participants)'} error={messageAt(errors, `${p}.n1`)}>
+          <input className={`${inputCls} text-right tabular-nums`} inputMode="numeric" {...register(`${p}.n1`, num)} aria-invalid={!!messageAt(errors, `${p}.n1`)} />
         </Field>
         {study?.design === 'between' && (
-          <Field label="n, group 2" error={errorAt(errors, `${p}.n2`)}>
+          <Field label="n, group 2" error={messageAt(errors, `${p}.n2`)}>
             <input className={`${inputCls} text-right tabular-nums`} inputMode="numeric" {...register(`${p}.n2`, num)} />
           </Field>
         )}
-        <Field label="Standard duration (ms)" error={errorAt(errors, `${p}.standardMs`)}>
+        <Field label="Standard duration (ms)" error={messageAt(errors, `${p}.standardMs`)}>
           <input className={`${inputCls} text-right tabular-nums`} inputMode="decimal" {...register(`${p}.standardMs`, num)} />
         </Field>
-        <Field label="Population" error={errorAt(errors, `${p}.population`)}>
-          <select className={inputCls} {...register(`${p}.population`, txt)} aria-invalid={!!errorAt(errors, `${p}.population`)}>
+        <Field label="Population" error={messageAt(errors, `${p}.population`)}>
+          <select className={inputCls} {...register(`${p}.population`, txt)} aria-invalid={!!messageAt(errors, `${p}.population`)}>
             <option value="">— choose —</option>
             {POPULATIONS.map((d) => (
               <option key={d} value={d}>
@@ -211,12 +184,12 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
           </select>
         </Field>
         {study?.population === 'clinical' && (
-          <Field label="Diagnosis" error={errorAt(errors, `${p}.diagnosis`)}>
+          <Field label="Diagnosis" error={messageAt(errors, `${p}.diagnosis`)}>
             <input className={inputCls} {...register(`${p}.diagnosis`, txt)} />
           </Field>
         )}
-        <Field label="Modality" error={errorAt(errors, `${p}.modality`)}>
-          <select className={inputCls} {...register(`${p}.modality`, txt)} aria-invalid={!!errorAt(errors, `${p}.modality`)}>
+        <Field label="Modality" error={messageAt(errors, `${p}.modality`)}>
+          <select className={inputCls} {...register(`${p}.modality`, txt)} aria-invalid={!!messageAt(errors, `${p}.modality`)}>
             <option value="">— choose —</option>
             {MODALITIES.map((d) => (
               <option key={d} value={d}>
@@ -225,8 +198,8 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
             ))}
           </select>
         </Field>
-        <Field label="Task" error={errorAt(errors, `${p}.task`)}>
-          <select className={inputCls} {...register(`${p}.task`, txt)} aria-invalid={!!errorAt(errors, `${p}.task`)}>
+        <Field label="Task" error={messageAt(errors, `${p}.task`)}>
+          <select className={inputCls} {...register(`${p}.task`, txt)} aria-invalid={!!messageAt(errors, `${p}.task`)}>
             <option value="">— choose —</option>
             {TASKS.map((d) => (
               <option key={d} value={d}>
@@ -241,7 +214,7 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
           ⚠ Check ({w.field}): {w.message} <span className="text-ink-faint">(common practice)</span>
         </p>
       ))}
-      {errorAt(errors, `${p}.effects`) && <p className="text-xs text-refusal">✕ {errorAt(errors, `${p}.effects`)}</p>}
+      {messageAt(errors, `${p}.effects`) && <p className="text-xs text-refusal">✕ {messageAt(errors, `${p}.effects`)}</p>}
       {effects.fields.map((f, j) => (
         <EffectFields key={f.id} ctx={ctx} i={i} j={j} onRemove={() => effects.remove(j)} terms={terms} />
       ))}
@@ -270,7 +243,8 @@ export function SheetForm({
 }) {
   const x = detail.extraction;
   const form = useForm<Sheet>({
-    resolver: zodResolver(sheetDraftSchema) as unknown as Resolver<Sheet>,
+    // The draft schema's inputs are loose (blank is "not reported"), so the form holds its output shape.
+    resolver: formResolver(sheetDraftSchema as unknown as z.ZodType<Sheet, Sheet>),
     defaultValues: toFormSheet(detail.studies, x.notes),
     mode: 'onBlur',
   });
@@ -376,7 +350,7 @@ export function SheetForm({
         </div>
       )}
       {save.kind === 'error' && <ErrorNote error={save.message} />}
-      {errorAt(formState.errors, 'studies') && <p className="text-sm text-refusal">✕ {errorAt(formState.errors, 'studies')}</p>}
+      {messageAt(formState.errors, 'studies') && <p className="text-sm text-refusal">✕ {messageAt(formState.errors, 'studies')}</p>}
       {studies.fields.length === 0 && <p className="my-3 text-ink-soft">No studies yet. Add the first experiment of the paper, or paste rows from a spreadsheet below.</p>}
       {studies.fields.map((f, i) => (
         <StudyFields key={f.id} ctx={ctx} i={i} onRemove={() => studies.remove(i)} terms={terms} />

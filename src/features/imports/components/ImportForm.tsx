@@ -1,10 +1,14 @@
-import { useRef, useState } from 'react';
+import { useRef } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
-import type { ImportFormat } from '../../../../shared/schemas/references';
-import { ApiRequestError } from '../../../lib/api-client';
+import { z } from 'zod';
+import { IMPORT_FORMATS, importRequestSchema, type ImportFormat } from '../../../../shared/schemas/references';
 import { Button } from '../../../components/ui/Button';
+import { Field, FieldError } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
-import { useCreateImport } from '../api/create-import';
+import { formResolver } from '../../../lib/forms/resolver';
+import { showServerErrors } from '../../../lib/forms/server-errors';
+import { useCreateImport, type ImportInput } from '../api/create-import';
 
 const FORMATS: Array<{ value: ImportFormat; label: string; hint: string }> = [
   { value: 'bibtex', label: 'BibTeX', hint: 'Paste @article{…} entries, or choose a .bib file.' },
@@ -12,84 +16,79 @@ const FORMATS: Array<{ value: ImportFormat; label: string; hint: string }> = [
   { value: 'doi', label: 'DOI list', hint: 'One DOI per line (10.5555/… or https://doi.org/…). They are looked up in the background.' },
 ];
 
-export function ImportForm() {
-  const [format, setFormat] = useState<ImportFormat>('bibtex');
-  const [text, setText] = useState('');
-  const [file, setFile] = useState<File | null>(null);
-  const [localError, setLocalError] = useState<string | null>(null);
-  const fileInput = useRef<HTMLInputElement>(null);
-  const navigate = useNavigate();
-  const mutation = useCreateImport();
-  const fields = mutation.error instanceof ApiRequestError ? mutation.error.fieldErrors() : {};
-  const textError = localError ?? fields.text;
-  const fileError = fields.file;
-  const submit = () => {
-    if (!file && !text.trim()) {
-      setLocalError(format === 'doi' ? 'type at least one DOI' : 'paste at least one entry, or choose a file');
+/** A file, or pasted text checked like the server checks it. */
+export const importFormSchema = z
+  .object({ format: z.enum(IMPORT_FORMATS), text: z.string(), file: z.custom<FileList | null>().optional() })
+  .superRefine((v, ctx) => {
+    if (v.file?.length) return;
+    if (!v.text.trim()) {
+      ctx.addIssue({ code: 'custom', path: ['text'], message: v.format === 'doi' ? 'type at least one DOI' : 'paste at least one entry, or choose a file' });
       return;
     }
-    setLocalError(null);
-    mutation.mutate(file ? { format, file } : { format, text }, { onSuccess: (data) => navigate(`/imports/${data.batch.id}`) });
-  };
+    const text = importRequestSchema.shape.text.safeParse(v.text);
+    if (!text.success) ctx.addIssue({ code: 'custom', path: ['text'], message: text.error.issues[0].message });
+  })
+  .transform((v): ImportInput => (v.file?.length ? { format: v.format, file: v.file[0] } : { format: v.format, text: v.text }));
+
+export function ImportForm() {
+  const navigate = useNavigate();
+  const mutation = useCreateImport();
+  const form = useForm({ resolver: formResolver(importFormSchema), defaultValues: { format: 'bibtex' as ImportFormat, text: '', file: null } });
+  const { errors } = form.formState;
+  const format = useWatch({ control: form.control, name: 'format' });
+  const file = useWatch({ control: form.control, name: 'file' });
+  const hasFile = !!file?.length;
+  const fileInput = useRef<HTMLInputElement | null>(null);
+  const { ref: fileRef, ...fileField } = form.register('file');
+  const submit = form.handleSubmit((input) =>
+    mutation.mutate(input, { onSuccess: (data) => navigate(`/imports/${data.batch.id}`), onError: (err) => showServerErrors(err, form.setError, ['format', 'text', 'file']) }),
+  );
+  const serverMessage = errors.root?.server?.message;
   return (
-    <form
-      className="grid max-w-4xl gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
-    >
+    <form className="grid max-w-4xl gap-3" onSubmit={submit} noValidate>
       <fieldset className="flex flex-wrap gap-5">
         <legend className="mb-1 text-sm font-semibold">What are you bringing in?</legend>
         {FORMATS.map((f) => (
           <label key={f.value} className="flex items-center gap-1.5">
-            <input type="radio" name="format" value={f.value} checked={format === f.value} onChange={() => setFormat(f.value)} />
+            <input type="radio" value={f.value} {...form.register('format')} />
             {f.label}
           </label>
         ))}
-        {fields.format && <span className="text-sm text-refusal">✕ {fields.format}</span>}
+        <FieldError message={errors.format?.message} className="text-sm text-refusal" />
       </fieldset>
-      <p className="text-sm text-ink-soft">{FORMATS.find((f) => f.value === format)!.hint}</p>
-      <label className="text-sm">
-        {format === 'doi' ? 'DOIs' : 'Entries'}
-        <textarea
-          className="mt-0.5 w-full rounded border border-paper-edge bg-white px-2 py-1 font-mono text-xs"
-          rows={12}
-          value={text}
-          onChange={(e) => setText(e.target.value)}
-          disabled={!!file}
-          aria-invalid={!!textError}
-          aria-describedby="import-text-error"
-          spellCheck={false}
-        />
-        {textError && (
-          <span id="import-text-error" className="text-refusal">
-            ✕ {textError}
-          </span>
-        )}
-      </label>
+      <p className="text-sm text-ink-soft">{FORMATS.find((f) => f.value === format)?.hint}</p>
+      <Field label={format === 'doi' ? 'DOIs' : 'Entries'} error={errors.text?.message} labelClassName="block" errorClassName="text-refusal">
+        <textarea className="mt-0.5 w-full rounded border border-paper-edge bg-white px-2 py-1 font-mono text-xs" rows={12} {...form.register('text')} disabled={hasFile} spellCheck={false} />
+      </Field>
       <div className="flex flex-wrap items-center gap-2 text-sm">
         <label>
           …or upload a file (.bib, .ris or .txt, up to 20 MB){' '}
-          <input ref={fileInput} type="file" accept=".bib,.bibtex,.ris,.txt,text/plain" onChange={(e) => setFile(e.target.files?.[0] ?? null)} aria-invalid={!!fileError} aria-describedby="import-file-error" />
+          <input
+            type="file"
+            accept=".bib,.bibtex,.ris,.txt,text/plain"
+            {...fileField}
+            ref={(el) => {
+              fileRef(el);
+              fileInput.current = el;
+            }}
+            aria-invalid={!!errors.file}
+            aria-describedby="import-file-error"
+          />
         </label>
-        {file && (
+        {hasFile && (
           <Button
             onClick={() => {
-              setFile(null);
+              form.setValue('file', null);
               if (fileInput.current) fileInput.current.value = '';
             }}
           >
             Remove file
           </Button>
         )}
-        {fileError && (
-          <span id="import-file-error" className="text-refusal">
-            ✕ {fileError}
-          </span>
-        )}
+        <FieldError id="import-file-error" message={errors.file?.message} className="text-refusal" />
       </div>
-      {mutation.error && !Object.keys(fields).length && <ErrorNote error={mutation.error} />}
+      {serverMessage && <ErrorNote error={serverMessage} />}
+      {mutation.error && !Object.keys(errors).length && <ErrorNote error={mutation.error} />}
       <div>
         <Button type="submit" variant="primary" disabled={mutation.isPending}>
           {mutation.isPending ? 'Importing…' : 'Import'}

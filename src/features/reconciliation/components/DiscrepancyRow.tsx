@@ -1,4 +1,6 @@
-import { useState } from 'react';
+import { Controller, useForm, useWatch } from 'react-hook-form';
+import { z } from 'zod';
+import { resolveDiscrepancySchema } from '../../../../shared/schemas/extraction';
 import { REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type ReportForm, type Reported } from '../../../../shared/extraction/compute';
 import { DESIGNS } from '../../../../shared/vocabulary/designs';
 import { MODALITIES } from '../../../../shared/vocabulary/modalities';
@@ -6,8 +8,10 @@ import { OUTCOME_KINDS } from '../../../../shared/vocabulary/outcomes';
 import { POPULATIONS } from '../../../../shared/vocabulary/populations';
 import { TASKS } from '../../../../shared/vocabulary/tasks';
 import { Button } from '../../../components/ui/Button';
+import { FieldError } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
-import { ApiRequestError } from '../../../lib/api-client';
+import { formResolver } from '../../../lib/forms/resolver';
+import { showServerErrors } from '../../../lib/forms/server-errors';
 import { fixed } from '../../../lib/format';
 import { REPORTED_LABELS } from '../../../lib/reported-labels';
 import { StateBadge } from '../../../components/ui/StateBadge';
@@ -87,15 +91,25 @@ function OwnValue({ row, value, onChange, terms }: { row: Row; value: unknown; o
   return <input aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)} />;
 }
 
+/** A decision as the server takes it: the own value only when the curator enters one. */
+export const discrepancyFormSchema = z
+  .object({ resolution: z.enum(['a', 'b', 'value']), value: z.unknown(), rationale: z.string() })
+  .transform((v) => ({ resolution: v.resolution, rationale: v.rationale, ...(v.resolution === 'value' ? { value: v.value } : {}) }))
+  .pipe(resolveDiscrepancySchema);
+
+type DecisionValues = { resolution: 'a' | 'b' | 'value'; value: unknown; rationale: string };
+
 /** One discrepancy: both coders' values and the curator's decision with a rationale. */
 export function DiscrepancyRow({ row, assignmentId, coders, editable, terms }: { row: Row; assignmentId: number; coders: [string, string]; editable: boolean; terms: VocabularyTerm[] }) {
   const resolve = useResolveDiscrepancy(assignmentId);
-  const [choice, setChoice] = useState<'a' | 'b' | 'value'>(row.resolution ?? 'a');
-  const [value, setValue] = useState<unknown>(row.field === 'effect' ? row.valueA : row.valueA ?? undefined);
-  const [rationale, setRationale] = useState(row.rationale ?? '');
-  const [fieldError, setFieldError] = useState<string | null>(null);
+  const form = useForm<DecisionValues, unknown, z.output<typeof resolveDiscrepancySchema>>({
+    resolver: formResolver(discrepancyFormSchema),
+    defaultValues: { resolution: row.resolution ?? 'a', value: row.field === 'effect' ? row.valueA : (row.valueA ?? undefined), rationale: row.rationale ?? '' },
+  });
+  const { errors } = form.formState;
+  const choice = useWatch({ control: form.control, name: 'resolution' });
   const structural = row.field === 'studies' || row.field === 'effects';
-  const name = `d${row.id}`;
+  const rationaleId = `d${row.id}-rationale`;
   return (
     <tr className="align-top" data-testid={`discrepancy-${row.id}`}>
       <td>
@@ -109,44 +123,48 @@ export function DiscrepancyRow({ row, assignmentId, coders, editable, terms }: {
       <td className="min-w-80">
         {editable ? (
           <form
-            onSubmit={(e) => {
-              e.preventDefault();
-              setFieldError(null);
-              resolve.mutate(
-                { assignmentId, id: row.id, resolution: choice, value: choice === 'value' ? value : undefined, rationale },
-                {
-                  onError: (err) => {
-                    if (err instanceof ApiRequestError) setFieldError(err.fieldErrors()['rationale'] ?? null);
-                  },
-                },
-              );
-            }}
+            noValidate
+            onSubmit={form.handleSubmit((decision) =>
+              resolve.mutate({ assignmentId, id: row.id, ...decision }, { onError: (err) => showServerErrors(err, form.setError, ['resolution', 'value', 'rationale']) }),
+            )}
           >
             <fieldset>
               <legend className="sr-only">Decision for {row.label}</legend>
               <label className="mr-3 text-sm">
-                <input type="radio" name={name} checked={choice === 'a'} onChange={() => setChoice('a')} /> Take @{coders[0]}
+                <input type="radio" value="a" {...form.register('resolution')} /> Take @{coders[0]}
               </label>
               <label className="mr-3 text-sm">
-                <input type="radio" name={name} checked={choice === 'b'} onChange={() => setChoice('b')} /> Take @{coders[1]}
+                <input type="radio" value="b" {...form.register('resolution')} /> Take @{coders[1]}
               </label>
               {!structural && (
                 <label className="text-sm">
-                  <input type="radio" name={name} checked={choice === 'value'} onChange={() => setChoice('value')} /> Enter a value
+                  <input type="radio" value="value" {...form.register('resolution')} /> Enter a value
                 </label>
               )}
             </fieldset>
-            {choice === 'value' && <OwnValue row={row} value={value} onChange={setValue} terms={terms} />}
+            {choice === 'value' && (
+              <>
+                <Controller control={form.control} name="value" render={({ field }) => <OwnValue row={row} value={field.value} onChange={field.onChange} terms={terms} />} />
+                <FieldError message={errors.value?.message} />
+              </>
+            )}
             <label className="mt-1 block text-xs font-semibold text-ink-soft">
               Rationale
-              <textarea className="block w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm font-normal" rows={2} value={rationale} onChange={(e) => setRationale(e.target.value)} aria-invalid={!!fieldError} />
+              <textarea
+                className="block w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm font-normal"
+                rows={2}
+                {...form.register('rationale')}
+                aria-invalid={!!errors.rationale}
+                aria-describedby={rationaleId}
+              />
             </label>
-            {fieldError && <span className="text-xs text-refusal">✕ {fieldError}</span>}
+            <FieldError id={rationaleId} message={errors.rationale?.message} />
             <Button type="submit" className="mt-1" disabled={resolve.isPending}>
               {row.status === 'resolved' ? 'Change decision' : 'Save decision'}
             </Button>
             {resolve.isSuccess && <span className="ml-2 text-xs">✓ Saved</span>}
-            {resolve.error && !fieldError && <ErrorNote error={resolve.error} />}
+            {errors.root?.server && <ErrorNote error={errors.root.server.message} />}
+            {resolve.error && !Object.keys(errors).length && <ErrorNote error={resolve.error} />}
           </form>
         ) : (
           <p className="text-sm">

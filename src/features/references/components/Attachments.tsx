@@ -1,16 +1,24 @@
-import { useRef } from 'react';
-import { ApiRequestError } from '../../../lib/api-client';
+import { useForm } from 'react-hook-form';
+import { z } from 'zod';
+import { formResolver } from '../../../lib/forms/resolver';
+import { showServerErrors } from '../../../lib/forms/server-errors';
 import { Button } from '../../../components/ui/Button';
+import { FieldError } from '../../../components/ui/Field';
 import { EmptyState, ErrorNote } from '../../../components/ui/Notice';
 import { attachmentHref, useUploadAttachment } from '../api/upload-attachment';
 import type { ReferenceDetail } from '../api/types';
 
 const kb = (n: number) => `${(n / 1024).toFixed(1)} KB`;
 
+/** One PDF chosen; its size and type are checked by the server, which names the problem. */
+const attachmentFormSchema = z.object({
+  file: z.custom<FileList | null>((v) => typeof FileList !== 'undefined' && v instanceof FileList && v.length === 1, 'choose a PDF file').transform((files) => files![0]),
+});
+
 export function Attachments({ detail, canUpload, signedIn }: { detail: ReferenceDetail; canUpload: boolean; signedIn: boolean }) {
   const upload = useUploadAttachment();
-  const file = useRef<HTMLInputElement>(null);
-  const fieldError = upload.error instanceof ApiRequestError ? upload.error.fieldErrors().file : undefined;
+  const form = useForm({ resolver: formResolver(attachmentFormSchema), defaultValues: { file: null } });
+  const fieldError = form.formState.errors.file?.message;
   return (
     <div>
       {detail.attachments.length === 0 ? (
@@ -40,26 +48,19 @@ export function Attachments({ detail, canUpload, signedIn }: { detail: Reference
       {canUpload && (
         <form
           className="mt-2 flex flex-wrap items-center gap-2 text-sm"
-          onSubmit={(e) => {
-            e.preventDefault();
-            const f = file.current?.files?.[0];
-            if (f) upload.mutate({ id: detail.reference.id, file: f }, { onSuccess: () => file.current && (file.current.value = '') });
-          }}
+          noValidate
+          onSubmit={form.handleSubmit(({ file }) =>
+            upload.mutate({ id: detail.reference.id, file }, { onSuccess: () => form.reset(), onError: (err) => showServerErrors(err, form.setError, ['file']) }),
+          )}
         >
           <label>
             Attach a PDF (up to 25 MB){' '}
-            <input ref={file} type="file" accept="application/pdf,.pdf" aria-invalid={!!fieldError} aria-describedby="attach-error" />
+            <input type="file" accept="application/pdf,.pdf" {...form.register('file')} aria-invalid={!!fieldError} aria-describedby="attach-error" />
           </label>
           <Button type="submit" disabled={upload.isPending}>
             {upload.isPending ? 'Uploading…' : 'Upload'}
           </Button>
-          {fieldError ? (
-            <span id="attach-error" className="text-refusal">
-              ✕ {fieldError}
-            </span>
-          ) : (
-            upload.error && <ErrorNote error={upload.error} />
-          )}
+          {fieldError ? <FieldError id="attach-error" message={fieldError} className="text-refusal" /> : upload.error && <ErrorNote error={form.formState.errors.root?.server?.message ?? upload.error} />}
           {upload.isSuccess && <span>✓ Attached.</span>}
         </form>
       )}

@@ -1,104 +1,74 @@
-import { useState } from 'react';
-import { ApiRequestError } from '../../../lib/api-client';
+import { useMemo, type ReactElement } from 'react';
+import { useForm, type FieldErrors } from 'react-hook-form';
 import { Button } from '../../../components/ui/Button';
+import { FieldError } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
+import { formResolver } from '../../../lib/forms/resolver';
+import { showServerErrors } from '../../../lib/forms/server-errors';
 import { useEditReference } from '../api/edit-reference';
 import type { ReferenceDetail } from '../api/types';
+import { editReferenceSchema, editReferenceValues, type EditReferenceValues } from '../forms/edit-reference';
 
-const field = 'mt-0.5 w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm';
+const field = 'mt-0.5 w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm aria-[invalid=true]:border-refusal';
+const FIELDS = ['title', 'year', 'container', 'doi', 'authors', 'abstract'] as const;
 
-/** Authors one per line as "Family, Given". */
-const parseAuthors = (s: string) =>
-  s
-    .split('\n')
-    .map((l) => l.trim())
-    .filter(Boolean)
-    .map((l) => {
-      const [family, ...given] = l.split(',');
-      return given.length ? { family: family.trim(), given: given.join(',').trim() } : { family: family.trim() };
-    });
+/** An author's message names the line it is about ("line 2: family name is required"). */
+function authorsMessage(errors: FieldErrors<EditReferenceValues>): string | undefined {
+  const e = errors.authors as unknown;
+  if (!e) return undefined;
+  if (typeof (e as { message?: unknown }).message === 'string') return (e as { message: string }).message;
+  const lines = Object.entries(e as Record<string, { family?: { message?: string }; given?: { message?: string } }>);
+  const [index, line] = lines.find(([, l]) => l?.family?.message || l?.given?.message) ?? [];
+  return index === undefined ? undefined : `line ${Number(index) + 1}: ${line?.family?.message ?? line?.given?.message}`;
+}
+
+function Labelled({ label, name, error, className, children }: { label: string; name: string; error?: string; className?: string; children: ReactElement }) {
+  return (
+    <label className={className}>
+      {label}
+      {children}
+      <FieldError id={`edit-${name}-error`} message={error} className="text-sm text-refusal" />
+    </label>
+  );
+}
 
 export function EditReferenceForm({ detail, onDone }: { detail: ReferenceDetail; onDone: () => void }) {
   const r = detail.reference;
-  const csl = r.csl as { author?: Array<{ family?: string; given?: string; literal?: string }> };
-  const [title, setTitle] = useState(r.title);
-  const [year, setYear] = useState(r.year ? String(r.year) : '');
-  const [container, setContainer] = useState(r.container ?? '');
-  const [doi, setDoi] = useState(r.doi ?? '');
-  const [authors, setAuthors] = useState((csl.author ?? []).map((a) => (a.literal ? a.literal : [a.family, a.given].filter(Boolean).join(', '))).join('\n'));
-  const [abstract, setAbstract] = useState(r.abstract ?? '');
-  const [local, setLocal] = useState<Record<string, string>>({});
   const mutation = useEditReference();
-  const server = mutation.error instanceof ApiRequestError ? mutation.error.fieldErrors() : {};
-  const errors = { ...server, ...local };
-  const submit = () => {
-    const problems: Record<string, string> = {};
-    if (!title.trim()) problems.title = 'a reference needs a title';
-    if (year && !/^\d{4}$/.test(year)) problems.year = 'a year has four digits';
-    setLocal(problems);
-    if (Object.keys(problems).length) return;
-    mutation.mutate(
-      {
-        id: r.id,
-        edit: {
-          version: r.version,
-          title: title.trim(),
-          year: year ? Number(year) : null,
-          container: container.trim() || null,
-          doi: doi.trim() || null,
-          authors: parseAuthors(authors),
-          abstract: abstract.trim() || null,
-        },
-      },
-      { onSuccess: onDone },
-    );
-  };
-  const err = (k: string) =>
-    errors[k] ? (
-      <span id={`edit-${k}-error`} className="text-sm text-refusal">
-        ✕ {errors[k]}
-      </span>
-    ) : null;
+  const schema = useMemo(() => editReferenceSchema(r.version), [r.version]);
+  const form = useForm({ resolver: formResolver(schema), defaultValues: editReferenceValues(r) });
+  const { errors } = form.formState;
+  const a11y = (name: (typeof FIELDS)[number], message?: string) => ({ 'aria-invalid': !!message, 'aria-describedby': `edit-${name}-error` });
+  const authors = form.watch('authors');
+  const authorsError = authorsMessage(errors);
   return (
     <form
       className="grid max-w-3xl gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
+      noValidate
+      onSubmit={form.handleSubmit((edit) => mutation.mutate({ id: r.id, edit }, { onSuccess: onDone, onError: (err) => showServerErrors(err, form.setError, FIELDS) }))}
     >
-      <label>
-        Title
-        <input className={field} value={title} onChange={(e) => setTitle(e.target.value)} aria-invalid={!!errors.title} aria-describedby="edit-title-error" />
-        {err('title')}
-      </label>
+      <Labelled label="Title" name="title" error={errors.title?.message}>
+        <input className={field} {...form.register('title')} {...a11y('title', errors.title?.message)} />
+      </Labelled>
       <div className="grid grid-cols-3 gap-3">
-        <label>
-          Year
-          <input className={field} inputMode="numeric" value={year} onChange={(e) => setYear(e.target.value)} aria-invalid={!!errors.year} aria-describedby="edit-year-error" />
-          {err('year')}
-        </label>
-        <label className="col-span-2">
-          DOI
-          <input className={field} value={doi} onChange={(e) => setDoi(e.target.value)} placeholder="10.5555/…" aria-invalid={!!errors.doi} aria-describedby="edit-doi-error" />
-          {err('doi')}
-        </label>
+        <Labelled label="Year" name="year" error={errors.year?.message}>
+          <input className={field} inputMode="numeric" {...form.register('year')} {...a11y('year', errors.year?.message)} />
+        </Labelled>
+        <Labelled label="DOI" name="doi" error={errors.doi?.message} className="col-span-2">
+          <input className={field} placeholder="10.5555/…" {...form.register('doi')} {...a11y('doi', errors.doi?.message)} />
+        </Labelled>
       </div>
-      <label>
-        Journal or book
-        <input className={field} value={container} onChange={(e) => setContainer(e.target.value)} />
-        {err('container')}
-      </label>
-      <label>
-        Authors, one per line as “Family, Given”
-        <textarea className={`${field} font-mono`} rows={Math.min(8, Math.max(2, authors.split('\n').length))} value={authors} onChange={(e) => setAuthors(e.target.value)} />
-        {err('authors')}
-      </label>
-      <label>
-        Abstract
-        <textarea className={field} rows={3} value={abstract} onChange={(e) => setAbstract(e.target.value)} />
-      </label>
-      {mutation.error && !Object.keys(server).length && <ErrorNote error={mutation.error} />}
+      <Labelled label="Journal or book" name="container" error={errors.container?.message}>
+        <input className={field} {...form.register('container')} {...a11y('container', errors.container?.message)} />
+      </Labelled>
+      <Labelled label="Authors, one per line as “Family, Given”" name="authors" error={authorsError}>
+        <textarea className={`${field} font-mono`} rows={Math.min(8, Math.max(2, authors.split('\n').length))} {...form.register('authors')} {...a11y('authors', authorsError)} />
+      </Labelled>
+      <Labelled label="Abstract" name="abstract" error={errors.abstract?.message}>
+        <textarea className={field} rows={3} {...form.register('abstract')} {...a11y('abstract', errors.abstract?.message)} />
+      </Labelled>
+      {errors.root?.server && <ErrorNote error={errors.root.server.message} />}
+      {mutation.error && !Object.keys(errors).length && <ErrorNote error={mutation.error} />}
       <div className="flex gap-2">
         <Button type="submit" variant="primary" disabled={mutation.isPending}>
           {mutation.isPending ? 'Saving…' : 'Save changes'}

@@ -1,47 +1,45 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import { Link } from 'react-router-dom';
 import { SCREENING_STATUSES } from '../../../../shared/vocabulary/screening';
 import type { ReferenceListQuery } from '../../../../shared/schemas/references';
 import { Button } from '../../../components/ui/Button';
+import { Field } from '../../../components/ui/Field';
+import { formResolver } from '../../../lib/forms/resolver';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { SortHeader } from '../../../components/ui/SortHeader';
 import { exportHref } from '../api/export-references';
-import { useReferences } from '../api/get-references';
+import { FIRST_REFERENCES_PAGE, firstReferencesQuery, useReferences } from '../api/get-references';
+import { NO_FILTERS, referenceFiltersSchema, type ReferenceFilterValues } from '../forms/reference-filters';
 import { ScreeningStatusWord } from './StatusWord';
 
 type Sort = ReferenceListQuery['sort'];
 const input = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
 
 export function ReferencesTable({ batch }: { batch?: number }) {
-  const [q, setQ] = useState('');
-  const [status, setStatus] = useState<'' | ReferenceListQuery['status']>('');
-  const [yearFrom, setYearFrom] = useState('');
-  const [yearTo, setYearTo] = useState('');
-  const [page, setPage] = useState(1);
-  const [sort, setSort] = useState<Sort>('created_at');
-  const [order, setOrder] = useState<'asc' | 'desc'>('desc');
+  const form = useForm({ resolver: formResolver(referenceFiltersSchema), defaultValues: NO_FILTERS, mode: 'onChange' });
+  const { errors } = form.formState;
+  const values = useWatch({ control: form.control }) as ReferenceFilterValues;
+  // The last valid filters stay in force while a year is half typed.
+  const [filters, setFilters] = useState<Partial<ReferenceListQuery>>({});
+  const [page, setPage] = useState<number>(FIRST_REFERENCES_PAGE.page);
+  const [sort, setSort] = useState<Sort>(FIRST_REFERENCES_PAGE.sort);
+  const [order, setOrder] = useState<'asc' | 'desc'>(FIRST_REFERENCES_PAGE.order);
   const [selected, setSelected] = useState<Set<number>>(new Set());
-  const pageSize = 50;
-  const year = (s: string) => (/^\d{4}$/.test(s) ? Number(s) : undefined);
-  const { data, error, isLoading, isFetching } = useReferences({
-    q: q || undefined,
-    status: status || undefined,
-    yearFrom: year(yearFrom),
-    yearTo: year(yearTo),
-    batch,
-    page,
-    pageSize,
-    sort,
-    order,
-  });
+  const pageSize = FIRST_REFERENCES_PAGE.pageSize;
+  useEffect(() => {
+    const parsed = referenceFiltersSchema.safeParse(values);
+    if (!parsed.success) return;
+    if (JSON.stringify(parsed.data) === JSON.stringify(filters)) return;
+    setFilters(parsed.data);
+    setPage(1);
+  }, [values, filters]);
+  const { data, error, isLoading, isFetching } = useReferences({ ...firstReferencesQuery(batch), ...filters, page, pageSize, sort, order });
+  const filtered = Object.values(filters).some((v) => v !== undefined);
   const onSort = (f: Sort, o: 'asc' | 'desc') => {
     setSort(f);
     setOrder(o);
-    setPage(1);
-  };
-  const reset = <T,>(set: (v: T) => void) => (v: T) => {
-    set(v);
     setPage(1);
   };
   const toggle = (id: number) =>
@@ -56,14 +54,12 @@ export function ReferencesTable({ batch }: { batch?: number }) {
   const ids = [...selected];
   return (
     <div>
-      <form className="mb-3 flex flex-wrap items-end gap-3 text-sm" role="search" onSubmit={(e) => e.preventDefault()}>
-        <label className="flex flex-col">
-          Title, author, DOI or journal
-          <input className={input} value={q} onChange={(e) => reset(setQ)(e.target.value)} placeholder="e.g. looming" />
-        </label>
-        <label className="flex flex-col">
-          Screening
-          <select className={input} value={status} onChange={(e) => reset(setStatus)(e.target.value as typeof status)}>
+      <form className="mb-3 flex flex-wrap items-start gap-3 text-sm" role="search" noValidate onSubmit={(e) => e.preventDefault()}>
+        <Field label="Title, author, DOI or journal" error={errors.q?.message} className="flex flex-col" labelClassName="">
+          <input className={input} {...form.register('q')} placeholder="e.g. looming" />
+        </Field>
+        <Field label="Screening" error={errors.status?.message} className="flex flex-col" labelClassName="">
+          <select className={input} {...form.register('status')}>
             <option value="">any</option>
             {SCREENING_STATUSES.map((s) => (
               <option key={s} value={s}>
@@ -71,17 +67,14 @@ export function ReferencesTable({ batch }: { batch?: number }) {
               </option>
             ))}
           </select>
-        </label>
-        <label className="flex flex-col">
-          Year from
-          <input className={`${input} w-20`} inputMode="numeric" value={yearFrom} onChange={(e) => reset(setYearFrom)(e.target.value)} aria-invalid={!!yearFrom && !year(yearFrom)} />
-        </label>
-        <label className="flex flex-col">
-          Year to
-          <input className={`${input} w-20`} inputMode="numeric" value={yearTo} onChange={(e) => reset(setYearTo)(e.target.value)} aria-invalid={!!yearTo && !year(yearTo)} />
-        </label>
-        {((yearFrom && !year(yearFrom)) || (yearTo && !year(yearTo))) && <span className="text-refusal">✕ A year has four digits.</span>}
-        {isFetching && !isLoading && <span className="text-ink-faint">Updating…</span>}
+        </Field>
+        <Field label="Year from" error={errors.yearFrom?.message} className="flex flex-col" labelClassName="">
+          <input className={`${input} w-20`} inputMode="numeric" {...form.register('yearFrom')} />
+        </Field>
+        <Field label="Year to" error={errors.yearTo?.message} className="flex flex-col" labelClassName="">
+          <input className={`${input} w-20`} inputMode="numeric" {...form.register('yearTo')} />
+        </Field>
+        {isFetching && !isLoading && <span className="self-end text-ink-faint">Updating…</span>}
       </form>
       <div className="mb-2 flex flex-wrap items-center gap-2 text-sm">
         <span className="tabular-nums">{selected.size} selected</span>
@@ -103,7 +96,7 @@ export function ReferencesTable({ batch }: { batch?: number }) {
       {isLoading && <Loading what="Loading references" />}
       {data && data.total === 0 && (
         <EmptyState>
-          No references match. {q || status || yearFrom || yearTo ? 'Loosen the filters, or ' : ''}
+          No references match. {filtered ? 'Loosen the filters, or ' : ''}
           <Link to="/import">import a BibTeX, RIS or DOI list</Link>.
         </EmptyState>
       )}

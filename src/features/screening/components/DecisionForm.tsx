@@ -1,50 +1,61 @@
-import { useState } from 'react';
-import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../../../shared/vocabulary/screening';
-import { ApiRequestError } from '../../../lib/api-client';
+import { useForm, useWatch } from 'react-hook-form';
+import { z } from 'zod';
+import { screeningDecisionSchema, type ScreeningDecisionInput } from '../../../../shared/schemas/references';
+import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, SCREENING_DECISIONS } from '../../../../shared/vocabulary/screening';
 import { Button } from '../../../components/ui/Button';
+import { FieldError } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
+import { formResolver } from '../../../lib/forms/resolver';
+import { showServerErrors } from '../../../lib/forms/server-errors';
 import { useDecide } from '../api/decide';
+
+/** The form's choices as the server's decision: a reason only with an exclusion, a note only when written. */
+export const decisionFormSchema = z
+  .object({ decision: z.enum(SCREENING_DECISIONS), reason: z.string(), note: z.string() })
+  .transform(
+    (v): Record<string, unknown> => ({
+      decision: v.decision,
+      ...(v.decision === 'excluded' && v.reason ? { reason: v.reason } : {}),
+      ...(v.note.trim() ? { note: v.note.trim() } : {}),
+    }),
+  )
+  .pipe(screeningDecisionSchema);
+
+type DecisionValues = { decision: ScreeningDecisionInput['decision']; reason: string; note: string };
+const EMPTY: DecisionValues = { decision: 'included', reason: '', note: '' };
 
 /** Include, or exclude with a reason (and a note when the reason is "other"), for one reference. */
 export function DecisionForm({ refId, onDecided }: { refId: number; onDecided?: () => void }) {
-  const [decision, setDecision] = useState<'included' | 'excluded'>('included');
-  const [reason, setReason] = useState<ExclusionReason | ''>('');
-  const [note, setNote] = useState('');
-  const [local, setLocal] = useState<Record<string, string>>({});
   const mutation = useDecide();
-  const errors = { ...(mutation.error instanceof ApiRequestError ? mutation.error.fieldErrors() : {}), ...local };
-  const submit = () => {
-    const problems: Record<string, string> = {};
-    if (decision === 'excluded' && !reason) problems.reason = 'an exclusion needs a reason';
-    if (reason === 'other' && decision === 'excluded' && !note.trim()) problems.note = 'say why, when the reason is "other"';
-    setLocal(problems);
-    if (Object.keys(problems).length) return;
+  const form = useForm<DecisionValues, unknown, ScreeningDecisionInput>({ resolver: formResolver(decisionFormSchema), defaultValues: EMPTY });
+  const { errors } = form.formState;
+  const [decision, reason] = useWatch({ control: form.control, name: ['decision', 'reason'] });
+  const submit = form.handleSubmit((input) =>
     mutation.mutate(
-      { refId, input: { decision, ...(decision === 'excluded' ? { reason: reason as ExclusionReason } : {}), ...(note.trim() ? { note: note.trim() } : {}) } },
-      { onSuccess: () => (setNote(''), onDecided?.()) },
-    );
-  };
+      { refId, input },
+      { onSuccess: () => (form.reset({ ...form.getValues(), note: '' }), onDecided?.()), onError: (err) => showServerErrors(err, form.setError, ['decision', 'reason', 'note']) },
+    ),
+  );
   return (
-    <form
-      className="grid max-w-2xl gap-2 text-sm"
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
-    >
+    <form className="grid max-w-2xl gap-2 text-sm" onSubmit={submit} noValidate>
       <fieldset className="flex gap-4">
         <legend className="sr-only">Decision</legend>
         <label className="flex items-center gap-1">
-          <input type="radio" name={`decision-${refId}`} checked={decision === 'included'} onChange={() => setDecision('included')} /> ✓ Include
+          <input type="radio" value="included" {...form.register('decision')} /> ✓ Include
         </label>
         <label className="flex items-center gap-1">
-          <input type="radio" name={`decision-${refId}`} checked={decision === 'excluded'} onChange={() => setDecision('excluded')} /> ✕ Exclude
+          <input type="radio" value="excluded" {...form.register('decision')} /> ✕ Exclude
         </label>
       </fieldset>
       {decision === 'excluded' && (
         <label>
           Reason
-          <select className="ml-2 rounded border border-paper-edge bg-white px-2 py-1" value={reason} onChange={(e) => setReason(e.target.value as ExclusionReason)} aria-invalid={!!errors.reason} aria-describedby={`reason-${refId}-error`}>
+          <select
+            className="ml-2 rounded border border-paper-edge bg-white px-2 py-1"
+            {...form.register('reason')}
+            aria-invalid={!!errors.reason}
+            aria-describedby={`reason-${refId}-error`}
+          >
             <option value="">choose…</option>
             {EXCLUSION_REASONS.map((r) => (
               <option key={r} value={r}>
@@ -52,22 +63,15 @@ export function DecisionForm({ refId, onDecided }: { refId: number; onDecided?: 
               </option>
             ))}
           </select>
-          {errors.reason && (
-            <span id={`reason-${refId}-error`} className="ml-2 text-refusal">
-              ✕ {errors.reason}
-            </span>
-          )}
+          <FieldError id={`reason-${refId}-error`} message={errors.reason?.message} className="ml-2 text-refusal" />
         </label>
       )}
       <label>
         Note {reason === 'other' && decision === 'excluded' ? '(required)' : '(optional)'}
-        <input className="ml-2 w-80 rounded border border-paper-edge bg-white px-2 py-1" value={note} onChange={(e) => setNote(e.target.value)} aria-invalid={!!errors.note} aria-describedby={`note-${refId}-error`} />
-        {errors.note && (
-          <span id={`note-${refId}-error`} className="ml-2 text-refusal">
-            ✕ {errors.note}
-          </span>
-        )}
+        <input className="ml-2 w-80 rounded border border-paper-edge bg-white px-2 py-1" {...form.register('note')} aria-invalid={!!errors.note} aria-describedby={`note-${refId}-error`} />
+        <FieldError id={`note-${refId}-error`} message={errors.note?.message} className="ml-2 text-refusal" />
       </label>
+      {errors.root?.server && <ErrorNote error={errors.root.server.message} />}
       {mutation.error && !Object.keys(errors).length && <ErrorNote error={mutation.error} />}
       <div>
         <Button type="submit" variant="primary" disabled={mutation.isPending}>

@@ -1,9 +1,13 @@
-import { useEffect, useState } from 'react';
+import { useCallback, useEffect, useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import { Link, useSearchParams } from 'react-router-dom';
 import { SCREENING_STATUSES } from '../../../../shared/vocabulary/screening';
+import { Field } from '../../../components/ui/Field';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
+import { formResolver } from '../../../lib/forms/resolver';
 import { Pager } from '../../../components/ui/Pager';
 import { useSearch } from '../api/search-references';
+import { pageFromParams, searchFormSchema, searchParams, searchValuesFromParams, type SearchFilters, type SearchValues } from '../forms/search-form';
 
 const input = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
 const STATUS_WORDS: Record<string, string> = { unscreened: '○ unscreened', included: '✓ included', excluded: '✕ excluded' };
@@ -11,78 +15,73 @@ const STATUS_WORDS: Record<string, string> = { unscreened: '○ unscreened', inc
 /** Search over the index, with the filters and counts in the address so a search can be shared. */
 export function SearchPanel() {
   const [params, setParams] = useSearchParams();
-  // The inputs own the state (so a click shows at once); the address follows, so a search can be shared.
-  const [typed, setTyped] = useState(params.get('q') ?? '');
-  const [q, setQ] = useState(params.get('q') ?? '');
-  const [status, setStatus] = useState(params.get('status') ?? '');
-  const [yearFrom, setYearFrom] = useState(params.get('yearFrom') ?? '');
-  const [yearTo, setYearTo] = useState(params.get('yearTo') ?? '');
-  const [page, setPage] = useState(Number(params.get('page') ?? 1) || 1);
+  const form = useForm({ resolver: formResolver(searchFormSchema), defaultValues: searchValuesFromParams(params), mode: 'onChange' });
+  const { errors } = form.formState;
+  const values = useWatch({ control: form.control }) as SearchValues;
+  // The inputs own the state (so a click shows at once); the search and the address follow the valid values.
+  const [filters, setFilters] = useState<SearchFilters>(() => searchFormSchema.safeParse(form.getValues()).data ?? { q: '' });
+  const [applied, setApplied] = useState<SearchValues>(() => form.getValues());
+  const [page, setPage] = useState(() => pageFromParams(params));
   const limit = 20;
-  const set = (patch: { q?: string; status?: string; yearFrom?: string; yearTo?: string; page?: string }) => {
-    if (patch.q !== undefined) setQ(patch.q);
-    if (patch.status !== undefined) setStatus(patch.status);
-    if (patch.yearFrom !== undefined) setYearFrom(patch.yearFrom);
-    if (patch.yearTo !== undefined) setYearTo(patch.yearTo);
-    setPage(patch.page ? Number(patch.page) : 1);
-  };
+  const apply = useCallback((v: SearchValues) => {
+    const parsed = searchFormSchema.safeParse(v);
+    if (!parsed.success) return;
+    setFilters(parsed.data);
+    setApplied(v);
+    setPage(1);
+  }, []);
   useEffect(() => {
-    const t = setTimeout(() => typed !== q && set({ q: typed }), 250);
+    if (JSON.stringify(values) === JSON.stringify(applied)) return;
+    // Words wait for a pause in typing; a ticked filter applies at once.
+    const t = setTimeout(() => apply(values), values.q !== applied.q ? 250 : 0);
     return () => clearTimeout(t);
-  });
+  }, [values, applied, apply]);
   useEffect(() => {
-    const next = new URLSearchParams();
-    for (const [k, v] of Object.entries({ q, status, yearFrom, yearTo, page: page > 1 ? String(page) : '' })) if (v) next.set(k, v);
+    const next = searchParams(applied, page);
     if (next.toString() !== params.toString()) setParams(next, { replace: true });
-  }, [q, status, yearFrom, yearTo, page, params, setParams]);
-  const year = (s: string) => (/^\d{4}$/.test(s) ? Number(s) : undefined);
-  const { data, error, isLoading, isFetching } = useSearch({
-    q,
-    status: (status || undefined) as never,
-    yearFrom: year(yearFrom),
-    yearTo: year(yearTo),
-    limit,
-    offset: (page - 1) * limit,
-  });
+  }, [applied, page, params, setParams]);
+  const { data, error, isLoading, isFetching } = useSearch({ ...filters, limit, offset: (page - 1) * limit });
+  const q = filters.q;
+  const setYears = (y: string) => {
+    form.setValue('yearFrom', y, { shouldValidate: true });
+    form.setValue('yearTo', y, { shouldValidate: true });
+  };
   const years = Object.entries(data?.facets.year ?? {}).sort(([a], [b]) => Number(b) - Number(a));
-  const badYear = (yearFrom && !year(yearFrom)) || (yearTo && !year(yearTo));
   return (
     <div className="grid gap-4 md:grid-cols-[16rem_1fr]">
       <aside aria-label="Filters" className="text-sm">
-        <label className="mb-2 block">
-          Words in title, authors, journal or DOI
-          <input className={`${input} mt-0.5 w-full`} type="search" value={typed} onChange={(e) => setTyped(e.target.value)} placeholder="e.g. looming Varga" autoFocus />
-        </label>
-        <div className="mb-2 flex gap-2">
-          <label>
-            From
-            <input className={`${input} block w-20`} inputMode="numeric" value={yearFrom} onChange={(e) => set({ yearFrom: e.target.value })} aria-invalid={!!yearFrom && !year(yearFrom)} />
-          </label>
-          <label>
-            To
-            <input className={`${input} block w-20`} inputMode="numeric" value={yearTo} onChange={(e) => set({ yearTo: e.target.value })} aria-invalid={!!yearTo && !year(yearTo)} />
-          </label>
-        </div>
-        {badYear && <p className="mb-2 text-refusal">✕ A year has four digits.</p>}
-        <fieldset className="mb-3">
-          <legend className="font-semibold">Screening</legend>
-          <label className="flex items-center gap-1">
-            <input type="radio" name="status" checked={!status} onChange={() => set({ status: '' })} /> any
-          </label>
-          {SCREENING_STATUSES.map((s) => (
-            <label key={s} className="flex items-center gap-1">
-              <input type="radio" name="status" checked={status === s} onChange={() => set({ status: s })} /> {STATUS_WORDS[s]}{' '}
-              <span className="ml-auto tabular-nums text-ink-faint">{data?.facets.screening_status[s] ?? 0}</span>
+        <form role="search" aria-label="Search references" noValidate onSubmit={form.handleSubmit(() => apply(form.getValues()))}>
+          <Field label="Words in title, authors, journal or DOI" error={errors.q?.message} className="mb-2 block" labelClassName="block">
+            <input className={`${input} mt-0.5 w-full`} type="search" {...form.register('q')} placeholder="e.g. looming Varga" autoFocus />
+          </Field>
+          <div className="mb-2 flex gap-2">
+            <Field label="From" error={errors.yearFrom?.message} className="" labelClassName="block">
+              <input className={`${input} block w-20`} inputMode="numeric" {...form.register('yearFrom')} />
+            </Field>
+            <Field label="To" error={errors.yearTo?.message} className="" labelClassName="block">
+              <input className={`${input} block w-20`} inputMode="numeric" {...form.register('yearTo')} />
+            </Field>
+          </div>
+          <fieldset className="mb-3">
+            <legend className="font-semibold">Screening</legend>
+            <label className="flex items-center gap-1">
+              <input type="radio" value="" {...form.register('status')} /> any
             </label>
-          ))}
-        </fieldset>
+            {SCREENING_STATUSES.map((s) => (
+              <label key={s} className="flex items-center gap-1">
+                <input type="radio" value={s} {...form.register('status')} /> {STATUS_WORDS[s]}{' '}
+                <span className="ml-auto tabular-nums text-ink-faint">{data?.facets.screening_status[s] ?? 0}</span>
+              </label>
+            ))}
+          </fieldset>
+        </form>
         {years.length > 0 && (
           <div>
             <p className="font-semibold">Years in these results</p>
             <ul className="max-h-64 overflow-auto">
               {years.map(([y, n]) => (
                 <li key={y} className="flex">
-                  <button type="button" className="underline" onClick={() => set({ yearFrom: y, yearTo: y })}>
+                  <button type="button" className="underline" onClick={() => setYears(y)}>
                     {y}
                   </button>
                   <span className="ml-auto tabular-nums text-ink-faint">{n}</span>
@@ -120,7 +119,7 @@ export function SearchPanel() {
             ))}
           </ol>
         )}
-        {data && data.total > limit && <Pager page={page} pageSize={limit} total={Math.min(data.total, 10_000)} onPage={(p) => set({ page: String(p) })} />}
+        {data && data.total > limit && <Pager page={page} pageSize={limit} total={Math.min(data.total, 10_000)} onPage={setPage} />}
       </section>
     </div>
   );

@@ -1,31 +1,35 @@
-import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { tokenCreateSchema } from '../../../../shared/schemas/users';
 import { Button } from '../../../components/ui/Button';
+import { FieldError } from '../../../components/ui/Field';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
+import { formResolver } from '../../../lib/forms/resolver';
+import { showServerErrors } from '../../../lib/forms/server-errors';
 import { useCreateToken, useRevokeToken, useTokens } from '../api/tokens';
 
 export function TokensPanel() {
   const { data, error, isLoading } = useTokens();
   const create = useCreateToken();
   const revoke = useRevokeToken();
-  const [name, setName] = useState('');
+  const form = useForm({ resolver: formResolver(tokenCreateSchema), defaultValues: { name: '' } });
+  const nameError = form.formState.errors.name?.message;
   return (
     <div>
       <form
-        className="mb-3 flex items-end gap-2"
-        onSubmit={(e) => {
-          e.preventDefault();
-          create.mutate({ name }, { onSuccess: () => setName('') });
-        }}
+        className="mb-3 flex flex-wrap items-end gap-2"
+        noValidate
+        onSubmit={form.handleSubmit((v) => create.mutate(v, { onSuccess: () => form.reset(), onError: (err) => showServerErrors(err, form.setError, ['name']) }))}
       >
         <label className="text-sm">
           Token name
-          <input className="ml-2 rounded border border-paper-edge bg-white px-2 py-1" value={name} onChange={(e) => setName(e.target.value)} />
+          <input className="ml-2 rounded border border-paper-edge bg-white px-2 py-1" {...form.register('name')} maxLength={80} aria-invalid={!!nameError} aria-describedby="token-name-error" />
         </label>
         <Button type="submit" variant="primary" disabled={create.isPending}>
           Create token
         </Button>
+        <FieldError id="token-name-error" message={nameError} className="self-center text-sm text-refusal" />
       </form>
-      <ErrorNote error={create.error} />
+      {!nameError && <ErrorNote error={create.error} />}
       {create.data && (
         <div role="status" className="mb-3 rounded border border-action bg-action-light px-3 py-2 text-sm">
           Copy this token now; it is shown only once:
