@@ -1,13 +1,14 @@
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
+import { QueryClientProvider } from '@tanstack/react-query';
 import { RouterProvider } from 'react-router-dom';
 import '@fontsource/merriweather/400.css';
 import '@fontsource/merriweather/700.css';
 import './index.css';
-import { router } from './app/router';
+import { createRouter } from './app/router';
+import { queryClient } from './lib/query/client';
 
-const queryClient = new QueryClient({ defaultOptions: { queries: { retry: 1, refetchOnWindowFocus: false } } });
+const router = createRouter(queryClient);
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

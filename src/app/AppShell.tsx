@@ -1,4 +1,4 @@
-import { NavLink, Outlet } from 'react-router-dom';
+import { NavLink, Outlet, useNavigation } from 'react-router-dom';
 import { ROLE_LABELS, hasRole } from '../../shared/roles';
 import { useMe } from '../features/auth/api/get-me';
 import { useSignOut } from '../features/auth/api/sign-out';
@@ -8,6 +8,8 @@ import { NAV_ITEMS } from './nav';
 export function AppShell() {
   const { data: me } = useMe();
   const signOut = useSignOut();
+  // A screen's loader is fetching its data: the page shown stays until it arrives.
+  const navigating = useNavigation().state !== 'idle';
   const links = NAV_ITEMS.filter((n) => (n.role ? !!me && hasRole(me.roles, n.role) : n.signedIn ? !!me : true));
   return (
     <div className="min-h-screen">
@@ -43,7 +45,8 @@ export function AppShell() {
           </div>
         </div>
       </header>
-      <main id="main" className="mx-auto max-w-7xl px-4 py-5">
+      <div className={`h-0.5 ${navigating ? 'animate-pulse bg-action' : 'bg-transparent'}`} role="progressbar" aria-label="Opening the page" aria-hidden={!navigating} />
+      <main id="main" className="mx-auto max-w-7xl px-4 py-5" aria-busy={navigating}>
         <Outlet />
       </main>
       <footer className="mx-auto max-w-7xl px-4 py-6 text-xs text-ink-faint">

@@ -1,12 +1,20 @@
-import { useMutation } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Sheet } from '../../../../shared/schemas/extraction';
 import { api } from '../../../lib/api-client';
+import { queryKeys } from '../../../lib/query/keys';
 import type { StoredStudy } from './types';
 
 export const saveExtraction = ({ id, version, sheet }: { id: number; version: number; sheet: Sheet }) =>
   api<{ version: number; updatedAt: string; studies: StoredStudy[] }>(`/api/extractions/${id}`, { method: 'PUT', body: { version, sheet } });
 
-/** The autosave and the explicit save; the caller keeps the version it returns. */
+/**
+ * The autosave and the explicit save; the caller keeps the version it returns. The cached sheet is marked out of
+ * date without refetching (that would redraw the form being typed in), so the next visit opens the saved version.
+ */
 export function useSaveExtraction() {
-  return useMutation({ mutationFn: saveExtraction });
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: saveExtraction,
+    onSuccess: (_r, v) => qc.invalidateQueries({ queryKey: queryKeys.extractions.detail(v.id), refetchType: 'none' }),
+  });
 }
