@@ -19,8 +19,8 @@ export function pValue(p: number | null | undefined): string {
 /** "p = 0.042" or "p < 0.001". */
 export const pEquals = (p: number | null | undefined) => (isNumber(p) && p < 0.001 ? 'p < 0.001' : `p = ${pValue(p)}`);
 
-/** A proportion (0–1) as a percentage: 0.8765 → "87.7%". */
-export const percent = (fraction: number | null | undefined, digits = 1) => (isNumber(fraction) ? `${fixed(fraction * 100, digits)}%` : MISSING);
+/** A proportion (0–1) as a percentage: 0.8765 → "87.7%" (the ×100 is rounded to 15 digits first: 0.8765 × 100 is 87.64999… in binary). */
+export const percent = (fraction: number | null | undefined, digits = 1) => (isNumber(fraction) ? `${fixed(Number((fraction * 100).toPrecision(15)), digits)}%` : MISSING);
 
 /** "[lower, upper]", or a dash when either end is missing. */
 export const interval = (lower: number | null | undefined, upper: number | null | undefined, digits: number) =>

@@ -1,34 +1,20 @@
 import { useRef } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
-import { z } from 'zod';
-import { IMPORT_FORMATS, importRequestSchema, type ImportFormat } from '../../../../shared/schemas/references';
+import type { ImportFormat } from '../../../../shared/schemas/references';
 import { Button } from '../../../components/ui/Button';
 import { Field, FieldError } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
 import { showServerErrors } from '../../../lib/forms/server-errors';
-import { useCreateImport, type ImportInput } from '../api/create-import';
+import { useCreateImport } from '../api/create-import';
+import { importFormSchema } from '../forms/import-form';
 
 const FORMATS: Array<{ value: ImportFormat; label: string; hint: string }> = [
   { value: 'bibtex', label: 'BibTeX', hint: 'Paste @article{…} entries, or choose a .bib file.' },
   { value: 'ris', label: 'RIS', hint: 'Records from “TY  -” to “ER  -”, or a .ris file.' },
   { value: 'doi', label: 'DOI list', hint: 'One DOI per line (10.5555/… or https://doi.org/…). They are looked up in the background.' },
 ];
-
-/** A file, or pasted text checked like the server checks it. */
-export const importFormSchema = z
-  .object({ format: z.enum(IMPORT_FORMATS), text: z.string(), file: z.custom<FileList | null>().optional() })
-  .superRefine((v, ctx) => {
-    if (v.file?.length) return;
-    if (!v.text.trim()) {
-      ctx.addIssue({ code: 'custom', path: ['text'], message: v.format === 'doi' ? 'type at least one DOI' : 'paste at least one entry, or choose a file' });
-      return;
-    }
-    const text = importRequestSchema.shape.text.safeParse(v.text);
-    if (!text.success) ctx.addIssue({ code: 'custom', path: ['text'], message: text.error.issues[0].message });
-  })
-  .transform((v): ImportInput => (v.file?.length ? { format: v.format, file: v.file[0] } : { format: v.format, text: v.text }));
 
 export function ImportForm() {
   const navigate = useNavigate();

@@ -17,6 +17,7 @@ import { REPORTED_LABELS } from '../../../lib/reported-labels';
 import { StateBadge } from '../../../components/ui/StateBadge';
 import type { DiscrepancyRow as Row } from '../api/get-pair';
 import { useResolveDiscrepancy } from '../api/resolve-discrepancy';
+import { discrepancyFormSchema } from '../forms/discrepancy';
 
 const CHOICES: Record<string, readonly string[]> = { design: DESIGNS, population: POPULATIONS, modality: MODALITIES, task: TASKS, outcome: OUTCOME_KINDS };
 const NUMERIC = new Set(['n1', 'n2', 'standardMs']);
@@ -90,12 +91,6 @@ function OwnValue({ row, value, onChange, terms }: { row: Row; value: unknown; o
   }
   return <input aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)} />;
 }
-
-/** A decision as the server takes it: the own value only when the curator enters one. */
-export const discrepancyFormSchema = z
-  .object({ resolution: z.enum(['a', 'b', 'value']), value: z.unknown(), rationale: z.string() })
-  .transform((v) => ({ resolution: v.resolution, rationale: v.rationale, ...(v.resolution === 'value' ? { value: v.value } : {}) }))
-  .pipe(resolveDiscrepancySchema);
 
 type DecisionValues = { resolution: 'a' | 'b' | 'value'; value: unknown; rationale: string };
 

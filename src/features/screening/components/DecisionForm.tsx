@@ -1,25 +1,13 @@
 import { useForm, useWatch } from 'react-hook-form';
-import { z } from 'zod';
-import { screeningDecisionSchema, type ScreeningDecisionInput } from '../../../../shared/schemas/references';
-import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, SCREENING_DECISIONS } from '../../../../shared/vocabulary/screening';
+import type { ScreeningDecisionInput } from '../../../../shared/schemas/references';
+import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../../../shared/vocabulary/screening';
 import { Button } from '../../../components/ui/Button';
 import { FieldError } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
 import { showServerErrors } from '../../../lib/forms/server-errors';
 import { useDecide } from '../api/decide';
-
-/** The form's choices as the server's decision: a reason only with an exclusion, a note only when written. */
-export const decisionFormSchema = z
-  .object({ decision: z.enum(SCREENING_DECISIONS), reason: z.string(), note: z.string() })
-  .transform(
-    (v): Record<string, unknown> => ({
-      decision: v.decision,
-      ...(v.decision === 'excluded' && v.reason ? { reason: v.reason } : {}),
-      ...(v.note.trim() ? { note: v.note.trim() } : {}),
-    }),
-  )
-  .pipe(screeningDecisionSchema);
+import { decisionFormSchema } from '../forms/decision';
 
 type DecisionValues = { decision: ScreeningDecisionInput['decision']; reason: string; note: string };
 const EMPTY: DecisionValues = { decision: 'included', reason: '', note: '' };
