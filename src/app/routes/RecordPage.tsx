@@ -17,11 +17,11 @@ import { useSettleRecord } from '../../features/reconciliation/api/settle-record
 import { useWithdrawRecord } from '../../features/reconciliation/api/withdraw-record';
 import { useWithdrawEffect } from '../../features/reconciliation/api/withdraw-effect';
 
-/** Withdrawing one effect: which one, and why (the same reason rule as the server's). */
-const withdrawEffectSchema = z
-  .object({ effectId: z.string().min(1, 'choose the effect to withdraw'), reason: z.string() })
-  .transform((v) => ({ effectId: Number(v.effectId), reason: v.reason }))
-  .pipe(reasonSchema.extend({ effectId: z.number().int().positive() }));
+/** Withdrawing one effect: which one, and why (the server's reason rule). */
+const withdrawEffectSchema = z.object({
+  effectId: z.string().min(1, 'choose the effect to withdraw').transform(Number),
+  reason: reasonSchema.shape.reason,
+});
 
 /** A curator's action on the record that needs a reason kept with it (reopen, withdraw, settle). */
 function ReasonAction({ label, onRun, pending, error }: { label: string; onRun: (reason: string) => void; pending: boolean; error: unknown }) {

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { synthesisFiltersSchema, synthesisRequestSchema, type SynthesisRequest } from '../../../shared/schemas/synthesis';
+import { dependenceSchema, synthesisFiltersSchema, synthesisRequestSchema, type SynthesisRequest } from '../../../shared/schemas/synthesis';
+import { numberOrNothing, numberText, numericText as numeric, yearText } from '../../lib/forms/fields';
 
 /**
  * The one translation of a synthesis request between its three forms: the request the server takes, the address
@@ -171,18 +172,31 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
   };
 }
 
-/** Text that should be a number: empty means "not given"; anything else is converted (NaN is refused later). */
-const numberOrNothing = (s: string) => (s.trim() === '' ? undefined : Number(s.trim()));
+/** The form's values with their numbers read (NaN where the text is no number). */
+type ReadValues = Omit<SynthesisFormValues, 'filters' | 'level' | 'dependence'> & {
+  filters: Omit<SynthesisFormValues['filters'], 'yearFrom' | 'yearTo'> & { yearFrom?: number; yearTo?: number };
+  level?: number;
+  dependence: { mode: 'aggregate' | 'one'; r?: number; rule: string };
+};
 
-/** The form's values as the request the schema checks: empty fields left out, numbers converted. */
-function candidateFromValues(v: SynthesisFormValues): Record<string, unknown> {
+const readNumbers = (v: SynthesisFormValues): ReadValues => ({
+  ...v,
+  filters: { ...v.filters, yearFrom: numberOrNothing(v.filters.yearFrom), yearTo: numberOrNothing(v.filters.yearTo) },
+  level: numberOrNothing(v.level),
+  dependence: { ...v.dependence, r: numberOrNothing(v.dependence.r) },
+});
+
+const candidateFromValues = (v: SynthesisFormValues) => candidateFromRead(readNumbers(v));
+
+/** The request the schema checks: empty fields left out. */
+function candidateFromRead(v: ReadValues): Record<string, unknown> {
   const filters: Record<string, unknown> = {};
   const manipulation = v.filters.manipulation.filter(Boolean);
   if (manipulation.length) filters.manipulation = manipulation.length === 1 ? manipulation[0] : manipulation;
   for (const k of TEXT_FILTERS) if (v.filters[k]) filters[k] = v.filters[k];
-  for (const k of YEAR_FILTERS) if (v.filters[k].trim()) filters[k] = numberOrNothing(v.filters[k]);
-  const level = numberOrNothing(v.level);
-  const r = numberOrNothing(v.dependence.r);
+  for (const k of YEAR_FILTERS) if (v.filters[k] !== undefined) filters[k] = v.filters[k];
+  const { level } = v;
+  const { r } = v.dependence;
   return {
     filters,
     method: v.method || undefined,
@@ -194,8 +208,7 @@ function candidateFromValues(v: SynthesisFormValues): Record<string, unknown> {
   };
 }
 
-const year = z.string().trim().regex(/^(\d{4})?$/, 'a year has four digits');
-const numberText = z.string().trim().regex(/^(-?\d*\.?\d+)?$/, 'enter a number, such as 0.95');
+const filterShape = synthesisFiltersSchema.shape;
 
 const formValuesSchema = z.object({
   filters: z.object({
@@ -206,15 +219,15 @@ const formValuesSchema = z.object({
     modality: z.string(),
     task: z.string(),
     design: z.string(),
-    yearFrom: year,
-    yearTo: year,
+    yearFrom: numeric(yearText, filterShape.yearFrom),
+    yearTo: numeric(yearText, filterShape.yearTo),
   }),
   method: z.string(),
   hksj: z.boolean(),
-  level: numberText,
+  level: numeric(numberText, synthesisRequestSchema.shape.level.removeDefault().optional()),
   dependence: z.object({
     mode: z.enum(['aggregate', 'one']),
-    r: numberText,
+    r: numeric(numberText, dependenceSchema.options[0].shape.r.removeDefault().optional()),
     rule: z.string(),
   }),
   subgroup: z.string(),
@@ -222,7 +235,8 @@ const formValuesSchema = z.object({
 });
 
 /**
- * The synthesis form's schema: the text the inputs hold, turned into a request and checked by the server's own
- * schema. Its messages sit at the form's field paths (filters.yearTo, dependence.r, level …).
+ * The synthesis form's schema: each field's text checked on its own (so every wrong field is named at once), then
+ * the whole request checked by the server's schema (its rules across fields, such as the year range). Messages sit
+ * at the form's field paths (filters.yearTo, dependence.r, level …).
  */
-export const synthesisFormSchema = formValuesSchema.transform(candidateFromValues).pipe(synthesisRequestSchema);
+export const synthesisFormSchema = formValuesSchema.transform((v) => candidateFromRead(v as ReadValues)).pipe(synthesisRequestSchema);

@@ -8,11 +8,3 @@ export function formResolver<Input extends FieldValues, Output>(schema: z.ZodTyp
   return zodResolver(schema, { error: plainWords });
 }
 
-/**
- * A shared schema read as taking `I`: zod types a coerced field's input as `unknown`, which cannot close a
- * `.pipe()` from a form's own transform; the schema still checks (and coerces) exactly as on the server.
- */
-export const taking =
-  <I>() =>
-  <S extends z.ZodType>(schema: S) =>
-    schema as unknown as z.ZodType<z.output<S>, I>;

@@ -58,6 +58,14 @@ describe('the reference edit form', () => {
     expect(messages(editReferenceSchema(1), values({ year: '19' }))).toEqual({ year: 'a year has four digits' });
   });
 
+  it('names every wrong field at once', () => {
+    expect(messages(editReferenceSchema(1), values({ year: '19', doi: 'nope', title: '' }))).toEqual({
+      year: 'a year has four digits',
+      doi: 'a DOI looks like 10.5555/abc',
+      title: 'a reference needs a title',
+    });
+  });
+
   it('keeps the server schema’s own messages (title, DOI)', () => {
     expect(messages(editReferenceSchema(1), values({ title: '  ' }))).toEqual({ title: 'a reference needs a title' });
     expect(messages(editReferenceSchema(1), values({ doi: 'not a doi' }))).toEqual({ doi: 'a DOI looks like 10.5555/abc' });
@@ -112,6 +120,14 @@ describe('the search and reference filters', () => {
   it('turn the inputs into the routes’ queries, empty fields left out', () => {
     expect(searchFormSchema.parse({ q: ' looming ', status: '', yearFrom: '2001', yearTo: '' })).toEqual({ q: 'looming', yearFrom: 2001 });
     expect(referenceFiltersSchema.parse({ q: '  ', status: 'included', yearFrom: '', yearTo: '2020' })).toEqual({ status: 'included', yearTo: 2020 });
+  });
+
+  it('name every wrong field at once', () => {
+    expect(messages(searchFormSchema, { q: 'x'.repeat(201), status: '', yearFrom: '20', yearTo: '1' })).toEqual({
+      q: 'at most 200 characters',
+      yearFrom: 'a year has four digits',
+      yearTo: 'a year has four digits',
+    });
   });
 
   it('name a half-typed year at its field', () => {

@@ -19,6 +19,7 @@ import {
   synthesisFormSchema,
   synthesisHref,
 } from '../../../src/features/synthesis/codec';
+import { plainWords } from '../../../src/lib/forms/plain-words';
 
 const request = (input: SynthesisRequestInput): SynthesisRequest => synthesisRequestSchema.parse(input);
 const decode = (query: string) => decodeRequest(new URLSearchParams(query));
@@ -201,12 +202,25 @@ describe('synthesis codec: a bad address falls back, never crashes', () => {
 
 describe('synthesis form schema: messages at the form fields', () => {
   const values = () => requestToFormValues(DEFAULT_REQUEST);
-  const issues = (v: ReturnType<typeof values>) => (synthesisFormSchema.safeParse(v).error?.issues ?? []).map((i) => [i.path.join('.'), i.message]);
+  // as the form's resolver parses: with the plain-worded messages
+  const issues = (v: ReturnType<typeof values>) => (synthesisFormSchema.safeParse(v, { error: plainWords }).error?.issues ?? []).map((i) => [i.path.join('.'), i.message]);
 
   it('a year of other than four digits, at its field', () => {
     const v = values();
     v.filters.yearFrom = '201';
     expect(issues(v)).toEqual([['filters.yearFrom', 'a year has four digits']]);
+  });
+
+  it('names every wrong field at once, each in words', () => {
+    const v = values();
+    v.filters.yearFrom = '201';
+    v.level = '0.3';
+    v.dependence.r = 'half';
+    expect(Object.fromEntries(issues(v))).toEqual({
+      'filters.yearFrom': 'a year has four digits',
+      level: 'must be above 0.5',
+      'dependence.r': 'enter a number, such as 0.95',
+    });
   });
 
   it('a from-year after the to-year, at the to-year (the server schema’s own rule)', () => {

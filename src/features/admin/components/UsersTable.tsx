@@ -6,7 +6,8 @@ import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/roles';
 import { ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { SortHeader } from '../../../components/ui/SortHeader';
-import { formResolver, taking } from '../../../lib/forms/resolver';
+import { taking } from '../../../lib/forms/fields';
+import { formResolver } from '../../../lib/forms/resolver';
 import { useUsers, type AdminUser } from '../api/get-users';
 import { useSetRole } from '../api/set-role';
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { referenceEditSchema, type ReferenceEdit } from '../../../../shared/schemas/references';
+import { taking, yearText } from '../../../lib/forms/fields';
 import type { ReferenceDetail } from '../api/types';
 
 /** The edit form's inputs: text throughout, authors one per line as "Family, Given". */
@@ -37,26 +38,19 @@ export const parseAuthors = (s: string) =>
       return given.length ? { family: family.trim(), given: given.join(',').trim() } : { family: family.trim() };
     });
 
-/** The form's text, checked and turned into the edit the server takes (and checked again with its schema). */
+const shape = referenceEditSchema.shape;
+const orNull = (s: string) => s.trim() || null;
+
+/** The form's text as the edit the server takes: each field checked by the server's rule for it, all at once. */
 export const editReferenceSchema = (version: number) =>
   z
     .object({
-      title: z.string(),
-      year: z.string().trim().regex(/^(\d{4})?$/, 'a year has four digits'),
-      container: z.string(),
-      doi: z.string(),
-      authors: z.string(),
-      abstract: z.string(),
+      title: z.string().pipe(taking<string>()(shape.title)),
+      year: yearText.transform((y) => (y ? Number(y) : null)).pipe(taking<number | null>()(shape.year)),
+      container: z.string().transform(orNull).pipe(taking<string | null>()(shape.container)),
+      doi: z.string().transform(orNull).pipe(taking<string | null>()(shape.doi)),
+      authors: z.string().transform(parseAuthors).pipe(taking<ReturnType<typeof parseAuthors>>()(shape.authors)),
+      abstract: z.string().transform(orNull).pipe(taking<string | null>()(shape.abstract)),
     })
-    .transform(
-      (v): ReferenceEdit => ({
-        version,
-        title: v.title.trim(),
-        year: v.year ? Number(v.year) : null,
-        container: v.container.trim() || null,
-        doi: v.doi.trim() || null,
-        authors: parseAuthors(v.authors),
-        abstract: v.abstract.trim() || null,
-      }),
-    )
+    .transform((v): ReferenceEdit => ({ version, ...v }))
     .pipe(referenceEditSchema);

@@ -1,8 +1,7 @@
 import { z } from 'zod';
 import { referenceListQuerySchema, type ReferenceListQuery } from '../../../../shared/schemas/references';
 import { SCREENING_STATUSES, type ScreeningStatus } from '../../../../shared/vocabulary/screening';
-import { numberOrNothing, yearText } from '../../../lib/forms/fields';
-import { taking } from '../../../lib/forms/resolver';
+import { numericText, yearText } from '../../../lib/forms/fields';
 
 export interface ReferenceFilterValues {
   q: string;
@@ -12,11 +11,14 @@ export interface ReferenceFilterValues {
 }
 export const NO_FILTERS: ReferenceFilterValues = { q: '', status: '', yearFrom: '', yearTo: '' };
 
-type Filters = Pick<ReferenceListQuery, 'q' | 'status' | 'yearFrom' | 'yearTo'>;
-const filtersSchema = referenceListQuerySchema.pick({ q: true, status: true, yearFrom: true, yearTo: true });
+const shape = referenceListQuerySchema.shape;
 
-/** The table's filter inputs as the list route's query (checked by its schema). */
+/** The table's filter inputs as the list route's query: each field checked by that route's rule for it. */
 export const referenceFiltersSchema = z
-  .object({ q: z.string(), status: z.union([z.literal(''), z.enum(SCREENING_STATUSES)]), yearFrom: yearText, yearTo: yearText })
-  .transform((v) => ({ q: v.q.trim() || undefined, status: v.status || undefined, yearFrom: numberOrNothing(v.yearFrom), yearTo: numberOrNothing(v.yearTo) }))
-  .pipe(taking<{ q: string | undefined; status: Filters['status']; yearFrom: number | undefined; yearTo: number | undefined }>()(filtersSchema));
+  .object({
+    q: z.string().transform((s) => s.trim() || undefined).pipe(shape.q),
+    status: z.union([z.literal(''), z.enum(SCREENING_STATUSES)]).transform((s) => s || undefined),
+    yearFrom: numericText(yearText, shape.yearFrom),
+    yearTo: numericText(yearText, shape.yearTo),
+  })
+  .transform((v): Partial<ReferenceListQuery> => Object.fromEntries(Object.entries(v).filter(([, x]) => x !== undefined)));

@@ -1,8 +1,7 @@
 import { z } from 'zod';
 import { searchQuerySchema, type SearchQuery } from '../../../../shared/schemas/references';
 import { SCREENING_STATUSES, type ScreeningStatus } from '../../../../shared/vocabulary/screening';
-import { numberOrNothing, yearText } from '../../../lib/forms/fields';
-import { taking } from '../../../lib/forms/resolver';
+import { numericText, taking, yearText } from '../../../lib/forms/fields';
 
 export interface SearchValues {
   q: string;
@@ -12,13 +11,17 @@ export interface SearchValues {
 }
 export type SearchFilters = Pick<SearchQuery, 'q'> & Partial<Pick<SearchQuery, 'status' | 'yearFrom' | 'yearTo'>>;
 
-const filtersSchema = searchQuerySchema.pick({ q: true, status: true, yearFrom: true, yearTo: true });
+const shape = searchQuerySchema.shape;
 
-/** The filter inputs as the search route's own query (its schema checks the words and years too). */
+/** The filter inputs as the search route's own query: each field checked by that route's rule for it. */
 export const searchFormSchema = z
-  .object({ q: z.string(), status: z.union([z.literal(''), z.enum(SCREENING_STATUSES)]), yearFrom: yearText, yearTo: yearText })
-  .transform((v) => ({ q: v.q, status: v.status || undefined, yearFrom: numberOrNothing(v.yearFrom), yearTo: numberOrNothing(v.yearTo) }))
-  .pipe(taking<{ q: string; status: SearchQuery['status'] | undefined; yearFrom: number | undefined; yearTo: number | undefined }>()(filtersSchema));
+  .object({
+    q: z.string().pipe(taking<string>()(shape.q)),
+    status: z.union([z.literal(''), z.enum(SCREENING_STATUSES)]).transform((s) => s || undefined),
+    yearFrom: numericText(yearText, shape.yearFrom),
+    yearTo: numericText(yearText, shape.yearTo),
+  })
+  .transform((v): SearchFilters => Object.fromEntries(Object.entries(v).filter(([, x]) => x !== undefined)) as SearchFilters);
 
 /** A search is shared by its address: ?q=…&status=…&yearFrom=…&yearTo=…&page=… (page 1 and empty fields left out). */
 export function searchValuesFromParams(p: URLSearchParams): SearchValues {
