@@ -225,11 +225,11 @@ const formValuesSchema = z.object({
   method: z.string(),
   hksj: z.boolean(),
   level: numeric(numberText, synthesisRequestSchema.shape.level.removeDefault().optional()),
-  dependence: z.object({
-    mode: z.enum(['aggregate', 'one']),
-    r: numeric(numberText, dependenceSchema.options[0].shape.r.removeDefault().optional()),
-    rule: z.string(),
-  }),
+  // The correlation is checked only while it is used (and shown).
+  dependence: z.discriminatedUnion('mode', [
+    z.object({ mode: z.literal('aggregate'), r: numeric(numberText, dependenceSchema.options[0].shape.r.removeDefault().optional()), rule: z.string() }),
+    z.object({ mode: z.literal('one'), r: z.string(), rule: z.string() }),
+  ]),
   subgroup: z.string(),
   moderator: z.string(),
 });

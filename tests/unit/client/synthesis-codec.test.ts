@@ -123,6 +123,14 @@ describe('synthesis codec: request → form values → request (through the form
     values.dependence.rule = 'first_coded';
     expect(synthesisFormSchema.parse(values).dependence).toEqual({ mode: 'one', rule: 'first_coded' });
   });
+
+  it('ignores a correlation left unreadable while one effect per study is kept (the field is hidden then)', () => {
+    const values = requestToFormValues(DEFAULT_REQUEST);
+    values.dependence = { mode: 'one', r: 'junk', rule: 'smallest_variance' };
+    expect(synthesisFormSchema.parse(values).dependence).toEqual({ mode: 'one', rule: 'smallest_variance' });
+    values.dependence.mode = 'aggregate';
+    expect(synthesisFormSchema.safeParse(values).error?.issues.map((i) => i.path.join('.'))).toEqual(['dependence.r']);
+  });
 });
 
 describe('synthesis codec: defaults are left out of the address', () => {
