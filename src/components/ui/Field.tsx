@@ -12,7 +12,8 @@ export function FieldError({ id, message, className = 'block text-xs text-refusa
 
 /**
  * A label, one control and its hint or error. The control gets the id, aria-invalid and aria-describedby, so
- * a screen reader reads the message with the field.
+ * a screen reader reads the message with the field. The label is explicit (not wrapping), so a select's chosen
+ * option never becomes part of its name.
  */
 export function Field({
   label,
