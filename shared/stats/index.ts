@@ -46,3 +46,8 @@ export type { BeggResult } from './begg.js';
 export type { SubgroupInput, SubgroupResult } from './subgroups.js';
 export type { MetaRegressionInput, MetaRegressionResult, RegressionCoefficient } from './meta-regression.js';
 export type { AggregateInput, AggregateResult } from './aggregate-within-study.js';
+export { poolMultilevel } from './multilevel-pool.js';
+export { robustPool } from './robust-variance.js';
+export type { MultilevelInput, MultilevelTest, ClusterId } from './multilevel-input.js';
+export type { MultilevelResult, MultilevelCoefficient } from './multilevel-pool.js';
+export type { RobustInput, RobustResult, RobustCoefficient } from './robust-variance.js';

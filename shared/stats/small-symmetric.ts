@@ -1,0 +1,128 @@
+// Dense helpers for small symmetric matrices (row-major n×n Float64Arrays): the p×p regression blocks
+// and the per-cluster blocks of the multilevel model. Textbook algorithms (Golub & Van Loan 2013, §4.2, §8.5).
+
+/**
+ * Lower Cholesky factor L (A = LLᵀ) of a symmetric positive-definite matrix, or null when a pivot falls
+ * below `relTol` times the largest diagonal entry (singular or indefinite).
+ */
+export function cholesky(a: Float64Array, n: number, relTol = 1e-13): Float64Array | null {
+  const l = new Float64Array(n * n);
+  let maxDiag = 0;
+  for (let i = 0; i < n; i++) maxDiag = Math.max(maxDiag, Math.abs(a[i * n + i]));
+  for (let j = 0; j < n; j++) {
+    let d = a[j * n + j];
+    for (let m = 0; m < j; m++) d -= l[j * n + m] * l[j * n + m];
+    if (!(d > relTol * maxDiag)) return null;
+    const ljj = Math.sqrt(d);
+    l[j * n + j] = ljj;
+    for (let i = j + 1; i < n; i++) {
+      let s = a[i * n + j];
+      for (let m = 0; m < j; m++) s -= l[i * n + m] * l[j * n + m];
+      l[i * n + j] = s / ljj;
+    }
+  }
+  return l;
+}
+
+/** log det A from its Cholesky factor. */
+export function choleskyLogDet(l: Float64Array, n: number): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) s += Math.log(l[i * n + i]);
+  return 2 * s;
+}
+
+/** A⁻¹ from the Cholesky factor of A. */
+export function choleskyInverse(l: Float64Array, n: number): Float64Array {
+  // L⁻¹ by forward substitution, then A⁻¹ = L⁻ᵀL⁻¹.
+  const li = new Float64Array(n * n);
+  for (let c = 0; c < n; c++) {
+    li[c * n + c] = 1 / l[c * n + c];
+    for (let i = c + 1; i < n; i++) {
+      let s = 0;
+      for (let m = c; m < i; m++) s -= l[i * n + m] * li[m * n + c];
+      li[i * n + c] = s / l[i * n + i];
+    }
+  }
+  const inv = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j <= i; j++) {
+      let s = 0;
+      for (let m = i; m < n; m++) s += li[m * n + i] * li[m * n + j];
+      inv[i * n + j] = s;
+      inv[j * n + i] = s;
+    }
+  }
+  return inv;
+}
+
+/**
+ * Eigen-decomposition of a symmetric matrix by cyclic Jacobi rotations (accurate to rounding for small
+ * blocks). Returns the eigenvalues and the eigenvectors as the columns of a row-major matrix.
+ */
+export function symmetricEigen(a: Float64Array, n: number): { values: Float64Array; vectors: Float64Array } {
+  const m = Float64Array.from(a);
+  const q = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) q[i * n + i] = 1;
+  for (let sweep = 0; sweep < 100; sweep++) {
+    let off = 0;
+    let diag = 0;
+    for (let i = 0; i < n; i++) {
+      diag += m[i * n + i] * m[i * n + i];
+      for (let j = i + 1; j < n; j++) off += m[i * n + j] * m[i * n + j];
+    }
+    if (off === 0 || off <= 1e-34 * diag) break;
+    for (let p = 0; p < n - 1; p++) {
+      for (let r = p + 1; r < n; r++) {
+        const apr = m[p * n + r];
+        if (apr === 0) continue;
+        const theta = (m[r * n + r] - m[p * n + p]) / (2 * apr);
+        const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
+        const c = 1 / Math.sqrt(t * t + 1);
+        const s = t * c;
+        for (let i = 0; i < n; i++) {
+          const mip = m[i * n + p];
+          const mir = m[i * n + r];
+          m[i * n + p] = c * mip - s * mir;
+          m[i * n + r] = s * mip + c * mir;
+        }
+        for (let i = 0; i < n; i++) {
+          const mpi = m[p * n + i];
+          const mri = m[r * n + i];
+          m[p * n + i] = c * mpi - s * mri;
+          m[r * n + i] = s * mpi + c * mri;
+        }
+        for (let i = 0; i < n; i++) {
+          const qip = q[i * n + p];
+          const qir = q[i * n + r];
+          q[i * n + p] = c * qip - s * qir;
+          q[i * n + r] = s * qip + c * qir;
+        }
+      }
+    }
+  }
+  const values = new Float64Array(n);
+  for (let i = 0; i < n; i++) values[i] = m[i * n + i];
+  return { values, vectors: q };
+}
+
+/**
+ * A^power for symmetric positive semi-definite A through its eigenvalues; eigenvalues at or below
+ * `relFloor` times the largest count as zero (a pseudo-inverse for negative powers).
+ */
+export function symmetricPower(a: Float64Array, n: number, power: number, relFloor: number): Float64Array {
+  const { values, vectors } = symmetricEigen(a, n);
+  let top = 0;
+  for (let i = 0; i < n; i++) top = Math.max(top, values[i]);
+  const f = new Float64Array(n);
+  for (let i = 0; i < n; i++) f[i] = values[i] > relFloor * top ? Math.pow(values[i], power) : 0;
+  const out = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j <= i; j++) {
+      let s = 0;
+      for (let m = 0; m < n; m++) s += vectors[i * n + m] * f[m] * vectors[j * n + m];
+      out[i * n + j] = s;
+      out[j * n + i] = s;
+    }
+  }
+  return out;
+}
