@@ -1,3 +1,4 @@
+import { StatsInputError } from './errors.js';
 import { tQuantileUpper, tTwoTailed } from './student-t.js';
 import { prepareMultilevel, type MultilevelInput } from './multilevel-input.js';
 import { fitMultilevel } from './multilevel-pool.js';
@@ -38,7 +39,7 @@ export type RobustInput = Omit<MultilevelInput, 'test'>;
  *   factor is used.
  * Each coefficient's t test and interval use Satterthwaite degrees of freedom, df = 2E²/Var of its
  * variance estimator under the working model (Pustejovsky & Tipton 2018, eq. 11). All work is per cluster:
- * O(Σ n_j³).
+ * O(Σ n_j³). Identical effects leave a robust variance of exactly 0; that is refused with a message.
  */
 export function robustPool(input: RobustInput): RobustResult {
   const d = prepareMultilevel(input, 'robustPool');
@@ -180,6 +181,14 @@ export function robustPool(input: RobustInput): RobustResult {
       }
   }
 
+  for (let q = 0; q < p; q++) {
+    if (!(vcr[q * p + q] > 1e-24 * M[q * p + q]))
+      throw new StatsInputError(
+        `the robust variance of ${q === 0 ? 'the estimate' : `moderators[${q - 1}]`} is 0: every effect equals its fitted value ` +
+          '(identical effects), so no robust t test or interval can be formed; use the model-based result of poolMultilevel',
+        'effects',
+      );
+  }
   const alpha = (1 - level) / 2;
   const coefficients: RobustCoefficient[] = [];
   for (let q = 0; q < p; q++) {
