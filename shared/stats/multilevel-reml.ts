@@ -287,7 +287,8 @@ function solve2(a: Float64Array, g: [number, number], free: number[]): number[] 
 /**
  * Projected Newton ascent on θ ≥ 0 from (sb, sw): the free components are those inside the box or at 0
  * with a positive gradient; the step is Newton's (observed Hessian) when that is negative definite there,
- * else Fisher scoring, else a scaled gradient, each halved until ℓ does not fall. Stops when the projected
+ * else Fisher scoring, else a scaled gradient, each halved until ℓ rises (or, within ℓ's rounding, until the
+ * projected gradient shrinks). Stops when the projected
  * gradient vanishes relative to its terms (1e-12) or no step can raise ℓ any further.
  */
 function climb(model: MultilevelReml, sb: number, sw: number, fixWithin: boolean) {
@@ -317,7 +318,13 @@ function climb(model: MultilevelReml, sb: number, sw: number, fixWithin: boolean
         free.forEach((r, m) => (cand[r] = Math.max(0, th[r] + alpha * dir[m])));
         if (cand[0] === th[0] && cand[1] === th[1]) break;
         const next = model.derivatives(cand[0], cand[1]);
-        if (next && next.ll >= at.ll - 1e-15 * Math.max(1, Math.abs(at.ll))) {
+        // ℓ must rise; within its rounding (near the optimum) the projected gradient must shrink instead
+        const noise = 1e-12 * Math.max(1, Math.abs(at.ll));
+        if (
+          next &&
+          (next.ll > at.ll ||
+            (next.ll >= at.ll - noise && relativeGradient(next, cand, fixWithin) < relativeGradient(at, th, fixWithin)))
+        ) {
           th = cand;
           at = next;
           moved = true;
