@@ -35,6 +35,7 @@ export class MultilevelReml {
   private readonly constant: number;
   private readonly xbar: Float64Array;
   private readonly omega: Float64Array;
+  private readonly resid: Float64Array;
 
   constructor(readonly d: ClusteredData) {
     const { k, p, x } = d;
@@ -45,27 +46,104 @@ export class MultilevelReml {
     this.constant = -0.5 * (k - p) * Math.log(2 * Math.PI) + 0.5 * (l ? choleskyLogDet(l, p) : 0);
     this.xbar = new Float64Array(p);
     this.omega = new Float64Array(d.maxSize);
+    this.resid = new Float64Array(d.maxSize);
   }
 
   /** ℓ and the GLS fit at θ; null if XᵀV⁻¹X is numerically singular. */
   point(sb: number, sw: number): RemlPoint | null {
-    return this.run(sb, sw, false);
+    const g = this.gls(sb, sw);
+    if (!g) return null;
+    const rss = this.residualSquares(sb, sw, g.beta);
+    return { ll: this.constant - 0.5 * g.logDetV - 0.5 * g.logDetXtVX - 0.5 * rss, beta: g.beta, vcov: g.vcov };
+  }
+
+  /**
+   * ℓ at (b, σ²_w) for every b in `bs`, for ranking grid points: for fixed σ²_w each cluster's weighted
+   * sums (s, x̄, ȳ and the centred cross-products) do not depend on σ²_b, so one pass over the effects
+   * serves the whole row. yᵀPy = yᵀV⁻¹y − βᵀXᵀV⁻¹y here, which can lose digits when the residuals are small
+   * against the effects: good enough to rank grid points, not for the optimum.
+   */
+  gridRow(sw: number, bs: number[]): number[] {
+    const { p, clusters: J, y, v, x, start } = this.d;
+    const pp = p * p;
+    const sums = new Float64Array(J);
+    const ybar = new Float64Array(J);
+    const xbar = new Float64Array(J * p);
+    const wxx = new Float64Array(pp);
+    const wxy = new Float64Array(p);
+    let wyy = 0;
+    let logDiag = 0;
+    const omega = this.omega;
+    for (let j = 0; j < J; j++) {
+      const lo = start[j];
+      const hi = start[j + 1];
+      let sum = 0;
+      let sy = 0;
+      for (let i = lo; i < hi; i++) {
+        const a = v[i] + sw;
+        const om = 1 / a;
+        omega[i - lo] = om;
+        logDiag += Math.log(a);
+        sum += om;
+        sy += om * y[i];
+        for (let q = 0; q < p; q++) xbar[j * p + q] += om * x[i * p + q];
+      }
+      sums[j] = sum;
+      const yb = sy / sum;
+      ybar[j] = yb;
+      for (let q = 0; q < p; q++) xbar[j * p + q] /= sum;
+      for (let i = lo; i < hi; i++) {
+        const om = omega[i - lo];
+        const dy = y[i] - yb;
+        wyy += om * dy * dy;
+        for (let q = 0; q < p; q++) {
+          const dq = om * (x[i * p + q] - xbar[j * p + q]);
+          wxy[q] += dq * dy;
+          for (let r = 0; r <= q; r++) wxx[q * p + r] += dq * (x[i * p + r] - xbar[j * p + r]);
+        }
+      }
+    }
+    return bs.map((sb) => {
+      const xtvx = Float64Array.from(wxx);
+      const xtvy = Float64Array.from(wxy);
+      let yvy = wyy;
+      let logDetV = logDiag;
+      for (let j = 0; j < J; j++) {
+        const den = 1 + sb * sums[j];
+        logDetV += Math.log(den);
+        const sd = sums[j] / den;
+        yvy += sd * ybar[j] * ybar[j];
+        for (let q = 0; q < p; q++) {
+          const xq = xbar[j * p + q];
+          xtvy[q] += sd * xq * ybar[j];
+          for (let r = 0; r <= q; r++) xtvx[q * p + r] += sd * xq * xbar[j * p + r];
+        }
+      }
+      for (let q = 0; q < p; q++) for (let r = 0; r < q; r++) xtvx[r * p + q] = xtvx[q * p + r];
+      const l = cholesky(xtvx, p);
+      if (!l) return -Infinity;
+      const h = choleskyInverse(l, p);
+      let fitted = 0;
+      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) fitted += xtvy[q] * h[q * p + r] * xtvy[r];
+      return this.constant - 0.5 * logDetV - 0.5 * choleskyLogDet(l, p) - 0.5 * Math.max(0, yvy - fitted);
+    });
   }
 
   /** ℓ with gradient, observed Hessian and expected information. */
   derivatives(sb: number, sw: number): RemlDerivatives | null {
-    return this.run(sb, sw, true) as RemlDerivatives | null;
+    const g = this.gls(sb, sw);
+    if (!g) return null;
+    return this.withDerivatives(sb, sw, g);
   }
 
-  private run(sb: number, sw: number, withDerivatives: boolean): RemlPoint | RemlDerivatives | null {
+  /** Pass 1: log|V|, XᵀV⁻¹X and XᵀV⁻¹y as Σ_j [Σ ω(x − x̄)(·)ᵀ + (s/den) x̄(·)ᵀ], the GLS β. */
+  private gls(sb: number, sw: number) {
     const { p, clusters: J, y, v, x, start } = this.d;
     const xbar = this.xbar;
     const omega = this.omega;
     const xtvx = new Float64Array(p * p);
     const xtvy = new Float64Array(p);
     let logDetV = 0;
-
-    // Pass 1: XᵀV⁻¹X and XᵀV⁻¹y as Σ_j [Σ ω(x − x̄)(·)ᵀ + (s/den) x̄(·)ᵀ].
     for (let j = 0; j < J; j++) {
       const lo = start[j];
       const hi = start[j + 1];
@@ -103,29 +181,73 @@ export class MultilevelReml {
     for (let q = 0; q < p; q++) for (let r = 0; r < q; r++) xtvx[r * p + q] = xtvx[q * p + r];
     const l = cholesky(xtvx, p);
     if (!l) return null;
-    const h = choleskyInverse(l, p);
+    const vcov = choleskyInverse(l, p);
     const beta = new Float64Array(p);
     for (let q = 0; q < p; q++) {
-      let s = 0;
-      for (let r = 0; r < p; r++) s += h[q * p + r] * xtvy[r];
-      beta[q] = s;
+      let t = 0;
+      for (let r = 0; r < p; r++) t += vcov[q * p + r] * xtvy[r];
+      beta[q] = t;
     }
+    return { logDetV, logDetXtVX: choleskyLogDet(l, p), vcov, beta };
+  }
 
-    // Pass 2: residuals e = y − Xβ, r = V⁻¹e, and (with derivatives) the per-cluster trace pieces.
+  /** Pass 2 for ℓ alone: yᵀPy = eᵀV⁻¹e = Σ_j [Σ ω(e − ē)² + (s/den) ē²]. */
+  private residualSquares(sb: number, sw: number, beta: Float64Array): number {
+    const { p, clusters: J, y, v, x, start } = this.d;
+    const omega = this.omega;
+    const resid = this.resid;
+    let rss = 0;
+    for (let j = 0; j < J; j++) {
+      const lo = start[j];
+      const hi = start[j + 1];
+      let s = 0;
+      let se = 0;
+      for (let i = lo; i < hi; i++) {
+        const om = 1 / (v[i] + sw);
+        let fit = 0;
+        for (let q = 0; q < p; q++) fit += x[i * p + q] * beta[q];
+        const e = y[i] - fit;
+        omega[i - lo] = om;
+        resid[i - lo] = e;
+        s += om;
+        se += om * e;
+      }
+      const ebar = se / s;
+      let c = 0;
+      for (let i = lo; i < hi; i++) {
+        const de = resid[i - lo] - ebar;
+        c += omega[i - lo] * de * de;
+      }
+      rss += c + (s / (1 + sb * s)) * ebar * ebar;
+    }
+    return rss;
+  }
+
+  /** Pass 2 with derivatives: residuals e = y − Xβ, r = V⁻¹e and the per-cluster trace pieces. */
+  private withDerivatives(
+    sb: number,
+    sw: number,
+    g: { logDetV: number; logDetXtVX: number; vcov: Float64Array; beta: Float64Array },
+  ): RemlDerivatives {
+    const { p, clusters: J, y, v, x, start } = this.d;
+    const { beta, vcov: h } = g;
+    const xbar = this.xbar;
+    const omega = this.omega;
+    const resid = this.resid;
     let rss = 0;
     let trB = 0, trB2 = 0, tSum = 0, t2Sum = 0, ggSum = 0;
     let rr = 0, rho2 = 0, rho2t = 0, rBr = 0, grSum = 0;
-    const mw = withDerivatives ? new Float64Array(p * p) : null; // Σ (BX)ᵀ(BX)
-    const mb = withDerivatives ? new Float64Array(p * p) : null; // Σ uuᵀ, u = XᵀB1
-    const tuu = withDerivatives ? new Float64Array(p * p) : null; // Σ t uuᵀ, t = 1ᵀB1
-    const xb3x = withDerivatives ? new Float64Array(p * p) : null; // Σ XᵀB³X
-    const nbw = withDerivatives ? new Float64Array(p * p) : null; // Σ (XᵀB²1) uᵀ
-    const qw = withDerivatives ? new Float64Array(p) : null; // XᵀV⁻¹r
-    const qb = withDerivatives ? new Float64Array(p) : null; // Σ ρ u, ρ = 1ᵀr
-    const wbb = withDerivatives ? new Float64Array(p * p) : null;
-    const sv = withDerivatives ? new Float64Array(p) : null;
-    const bx = withDerivatives ? new Float64Array(p) : null;
-    const u = withDerivatives ? new Float64Array(p) : null;
+    const mw = new Float64Array(p * p); // Σ (BX)ᵀ(BX)
+    const mb = new Float64Array(p * p); // Σ uuᵀ, u = XᵀB1
+    const tuu = new Float64Array(p * p); // Σ t uuᵀ, t = 1ᵀB1
+    const xb3x = new Float64Array(p * p); // Σ XᵀB³X
+    const nbw = new Float64Array(p * p); // Σ (XᵀB²1) uᵀ
+    const qw = new Float64Array(p); // XᵀV⁻¹r
+    const qb = new Float64Array(p); // Σ ρ u, ρ = 1ᵀr
+    const wbb = new Float64Array(p * p);
+    const sv = new Float64Array(p);
+    const bx = new Float64Array(p);
+    const u = new Float64Array(p);
 
     for (let j = 0; j < J; j++) {
       const lo = start[j];
@@ -135,11 +257,13 @@ export class MultilevelReml {
       xbar.fill(0);
       for (let i = lo; i < hi; i++) {
         const om = 1 / (v[i] + sw);
-        omega[i - lo] = om;
-        s += om;
         let fit = 0;
         for (let q = 0; q < p; q++) fit += x[i * p + q] * beta[q];
-        se += om * (y[i] - fit);
+        const e = y[i] - fit;
+        omega[i - lo] = om;
+        resid[i - lo] = e;
+        s += om;
+        se += om * e;
         for (let q = 0; q < p; q++) xbar[q] += om * x[i * p + q];
       }
       const ebar = se / s;
@@ -148,17 +272,12 @@ export class MultilevelReml {
       const c = sb / den;
       let clusterRss = 0;
       let w2 = 0, w3 = 0, rho = 0, wr = 0, wr2 = 0;
-      if (withDerivatives) {
-        wbb!.fill(0);
-        sv!.fill(0);
-      }
+      wbb.fill(0);
+      sv.fill(0);
       for (let i = lo; i < hi; i++) {
         const om = omega[i - lo];
-        let fit = 0;
-        for (let q = 0; q < p; q++) fit += x[i * p + q] * beta[q];
-        const de = y[i] - fit - ebar;
+        const de = resid[i - lo] - ebar;
         clusterRss += om * de * de;
-        if (!withDerivatives) continue;
         const ri = om * (de + ebar / den);
         w2 += om * om;
         w3 += om * om * om;
@@ -166,19 +285,18 @@ export class MultilevelReml {
         rho += ri;
         wr += om * ri;
         wr2 += om * ri * ri;
-        for (let q = 0; q < p; q++) bx![q] = om * (x[i * p + q] - xbar[q] + xbar[q] / den);
+        for (let q = 0; q < p; q++) bx[q] = om * (x[i * p + q] - xbar[q] + xbar[q] / den);
         for (let q = 0; q < p; q++) {
-          const bq = bx![q];
-          qw![q] += bq * ri;
-          sv![q] += om * bq;
+          const bq = bx[q];
+          qw[q] += bq * ri;
+          sv[q] += om * bq;
           for (let r = 0; r <= q; r++) {
-            mw![q * p + r] += bq * bx![r];
-            wbb![q * p + r] += om * bq * bx![r];
+            mw[q * p + r] += bq * bx[r];
+            wbb[q * p + r] += om * bq * bx[r];
           }
         }
       }
       rss += clusterRss + (s / den) * ebar * ebar;
-      if (!withDerivatives) continue;
       const t = s / den;
       trB += s - c * w2;
       trB2 += w2 - 2 * c * w3 + c * c * w2 * w2;
@@ -189,59 +307,57 @@ export class MultilevelReml {
       rho2t += rho * rho * t;
       rBr += wr2 - c * wr * wr;
       grSum += (rho * wr) / den;
-      for (let q = 0; q < p; q++) u![q] = (xbar[q] * s) / den;
+      for (let q = 0; q < p; q++) u[q] = (xbar[q] * s) / den;
       for (let q = 0; q < p; q++) {
-        qb![q] += rho * u![q];
+        qb[q] += rho * u[q];
         for (let r = 0; r <= q; r++) {
-          mb![q * p + r] += u![q] * u![r];
-          tuu![q * p + r] += t * u![q] * u![r];
-          xb3x![q * p + r] += wbb![q * p + r] - c * sv![q] * sv![r];
+          mb[q * p + r] += u[q] * u[r];
+          tuu[q * p + r] += t * u[q] * u[r];
+          xb3x[q * p + r] += wbb[q * p + r] - c * sv[q] * sv[r];
         }
-        for (let r = 0; r < p; r++) nbw![q * p + r] += (sv![q] / den) * u![r];
+        for (let r = 0; r < p; r++) nbw[q * p + r] += (sv[q] / den) * u[r];
       }
     }
 
-    const ll = this.constant - 0.5 * logDetV - 0.5 * choleskyLogDet(l, p) - 0.5 * rss;
-    if (!withDerivatives) return { ll, beta, vcov: h };
-
-    for (const m of [mw!, mb!, tuu!, xb3x!]) for (let q = 0; q < p; q++) for (let r = 0; r < q; r++) m[r * p + q] = m[q * p + r];
+    const ll = this.constant - 0.5 * g.logDetV - 0.5 * g.logDetXtVX - 0.5 * rss;
+    for (const m of [mw, mb, tuu, xb3x]) for (let q = 0; q < p; q++) for (let r = 0; r < q; r++) m[r * p + q] = m[q * p + r];
     const trH = (m: Float64Array) => {
-      let s = 0;
-      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) s += h[q * p + r] * m[r * p + q];
-      return s;
+      let t = 0;
+      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) t += h[q * p + r] * m[r * p + q];
+      return t;
     };
     const hm = (m: Float64Array) => {
       const out = new Float64Array(p * p);
       for (let q = 0; q < p; q++)
         for (let r = 0; r < p; r++) {
-          let s = 0;
-          for (let a = 0; a < p; a++) s += h[q * p + a] * m[a * p + r];
-          out[q * p + r] = s;
+          let t = 0;
+          for (let a = 0; a < p; a++) t += h[q * p + a] * m[a * p + r];
+          out[q * p + r] = t;
         }
       return out;
     };
     const trProd = (a: Float64Array, b: Float64Array) => {
-      let s = 0;
-      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) s += a[q * p + r] * b[r * p + q];
-      return s;
+      let t = 0;
+      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) t += a[q * p + r] * b[r * p + q];
+      return t;
     };
     const quad = (a: Float64Array, b: Float64Array) => {
-      let s = 0;
-      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) s += a[q] * h[q * p + r] * b[r];
-      return s;
+      let t = 0;
+      for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) t += a[q] * h[q * p + r] * b[r];
+      return t;
     };
-    const hmw = hm(mw!);
-    const hmb = hm(mb!);
-    const trPw = trB - trH(mw!);
-    const trPb = tSum - trH(mb!);
+    const hmw = hm(mw);
+    const hmb = hm(mb);
+    const trPw = trB - trH(mw);
+    const trPb = tSum - trH(mb);
     const grad: [number, number] = [0.5 * (rho2 - trPb), 0.5 * (rr - trPw)];
     const gradScale: [number, number] = [0.5 * (rho2 + Math.abs(trPb)), 0.5 * (rr + Math.abs(trPw))];
-    const tbb = t2Sum - 2 * trH(tuu!) + trProd(hmb, hmb);
-    const tww = trB2 - 2 * trH(xb3x!) + trProd(hmw, hmw);
-    const tbw = ggSum - 2 * trH(nbw!) + trProd(hmb, hmw);
-    const qbb = rho2t - quad(qb!, qb!);
-    const qww = rBr - quad(qw!, qw!);
-    const qbw = grSum - quad(qb!, qw!);
+    const tbb = t2Sum - 2 * trH(tuu) + trProd(hmb, hmb);
+    const tww = trB2 - 2 * trH(xb3x) + trProd(hmw, hmw);
+    const tbw = ggSum - 2 * trH(nbw) + trProd(hmb, hmw);
+    const qbb = rho2t - quad(qb, qb);
+    const qww = rBr - quad(qw, qw);
+    const qbw = grSum - quad(qb, qw);
     const information = Float64Array.of(0.5 * tbb, 0.5 * tbw, 0.5 * tbw, 0.5 * tww);
     const hessian = Float64Array.of(0.5 * tbb - qbb, 0.5 * tbw - qbw, 0.5 * tbw - qbw, 0.5 * tww - qww);
     return { ll, beta, vcov: h, grad, gradScale, hessian, information };
@@ -339,8 +455,8 @@ function climb(model: MultilevelReml, sb: number, sw: number, fixWithin: boolean
 }
 
 /**
- * REML fit of (σ²_b, σ²_w) to the global maximum on σ² ≥ 0: ℓ is profiled over a grid (0 and 2^m times a
- * reference scale, so both boundaries are included), and projected Newton runs from the best grid point and
+ * REML fit of (σ²_b, σ²_w) to the global maximum on σ² ≥ 0: ℓ is profiled over a grid (0 and 4^m times a
+ * reference scale, m = −4 … 2, so both boundaries are included), and projected Newton runs from the best grid point and
  * from a moment-based start; the higher of the two optima wins.
  */
 export function fitMultilevelReml(d: ClusteredData): RemlFit {
@@ -358,17 +474,16 @@ export function fitMultilevelReml(d: ClusteredData): RemlFit {
   const scale = Math.max(tauMoment, typicalV);
 
   const grid = [0];
-  for (let m = -6; m <= 3; m++) grid.push(scale * Math.pow(2, m));
+  for (let m = -4; m <= 2; m++) grid.push(scale * Math.pow(4, m));
   let best: [number, number] = [scale / 2, onlySingletons ? 0 : scale / 2];
   let bestLl = -Infinity;
-  for (const b of grid) {
-    for (const w of onlySingletons ? [0] : grid) {
-      const pt = model.point(b, w);
-      if (pt && pt.ll > bestLl) {
-        bestLl = pt.ll;
-        best = [b, w];
+  for (const w of onlySingletons ? [0] : grid) {
+    model.gridRow(w, grid).forEach((ll, m) => {
+      if (ll > bestLl) {
+        bestLl = ll;
+        best = [grid[m], w];
       }
-    }
+    });
   }
   const momentStart: [number, number] = onlySingletons
     ? [Math.max(tauMoment, 0.05 * typicalV), 0]

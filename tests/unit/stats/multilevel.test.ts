@@ -100,6 +100,14 @@ describe('the REML engine', () => {
     }
   });
 
+  it('the grid rows (one pass per σ²_within) give the same log-likelihood as a full evaluation', () => {
+    const bs = [0, 0.01, 0.1, 1];
+    for (const sw of [0, 0.02, 0.5]) {
+      const row = model.gridRow(sw, bs);
+      bs.forEach((sb, m) => expect(Math.abs(row[m] - model.point(sb, sw)!.ll)).toBeLessThan(1e-9 * Math.abs(row[m])));
+    }
+  });
+
   it('the projected gradient vanishes at the optimum (relative ≤ 1e-10), and no grid point is higher', () => {
     for (const d of [data, prepareMultilevel(seeded(5, [2, 2, 3, 1, 2], 0, 0.1), 'poolMultilevel'), prepareMultilevel(seeded(6, [4, 4, 4, 4], 0.1, 0), 'poolMultilevel')]) {
       const fit = fitMultilevelReml(d);
