@@ -8,7 +8,7 @@ export type MultilevelTest = 'z' | 't';
 export interface MultilevelInput {
   effects: NumericArray;
   variances: NumericArray;
-  /** the paper (reference) each effect comes from, one entry per effect */
+  /** the paper (reference) each effect comes from, one entry per effect; compared with === (1 and "1" differ) */
   cluster: ArrayLike<ClusterId>;
   /** numeric moderator columns, each with one value per effect */
   moderators?: NumericArray[];

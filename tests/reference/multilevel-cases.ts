@@ -145,6 +145,12 @@ export function dataCases(): DataCase[] {
       sigma2Within: 0.04, vmin: 0.005, vmax: 0.2, slope: -0.02,
     }, 0.9),
   ];
+  const carried = invented('', 31, { sizes: [3, 4, 2, 5, 3, 4], mu: 0.2, sigma2Between: 0.05, sigma2Within: 0.02, vmin: 0.01, vmax: 0.08 });
+  cases.push({
+    ...carried,
+    name: 'a moderator carried by one cluster (singular CR2 block)',
+    moderators: [carried.cluster.map((id) => (id === 2 ? 1 : 0)), carried.effects.map((_, i) => (i % 3) / 2)],
+  });
   const identical = invented('identical effects', 20, { sizes: [3, 2, 4, 1], mu: 0, sigma2Between: 0, sigma2Within: 0, vmin: 0.02, vmax: 0.1 });
   cases.push({ ...identical, effects: identical.effects.map(() => 0.42) });
   return cases;
