@@ -47,6 +47,8 @@ export interface SimultaneityBootstrap extends BootstrapCommon {
 }
 
 export type BootstrapResult = PsychometricBootstrap | SimultaneityBootstrap;
+/** The result type for an input type: an input with a model is a psychometric one. */
+export type BootstrapOf<T> = T extends { model: unknown } ? PsychometricBootstrap : SimultaneityBootstrap;
 
 function quantileSorted(s: Float64Array, prob: number): number {
   const h = (s.length - 1) * prob;
@@ -181,13 +183,12 @@ function bootstrapSimultaneity(input: SimultaneityInput, resamples: number, seed
  * When the fit to the data does not converge there is no curve to simulate from: every refit counts as failed
  * and the intervals are null.
  */
-export function bootstrapFit(fitInput: PsychometricInput, options?: BootstrapOptions): PsychometricBootstrap;
-export function bootstrapFit(fitInput: SimultaneityInput, options?: BootstrapOptions): SimultaneityBootstrap;
-export function bootstrapFit(fitInput: PsychometricInput | SimultaneityInput, options?: BootstrapOptions): BootstrapResult;
-export function bootstrapFit(fitInput: PsychometricInput | SimultaneityInput, options?: BootstrapOptions): BootstrapResult {
+export function bootstrapFit<T extends PsychometricInput | SimultaneityInput>(fitInput: T, options?: BootstrapOptions): BootstrapOf<T> {
   const { resamples, seed, level } = checkOptions(options);
   if (fitInput === null || typeof fitInput !== 'object') throw new PsychophysicsInputError('bootstrapFit needs the input of fitPsychometric or fitSimultaneity');
-  return 'model' in fitInput
-    ? bootstrapPsychometric(fitInput as PsychometricInput, resamples, seed, level)
-    : bootstrapSimultaneity(fitInput, resamples, seed, level);
+  const result: BootstrapResult =
+    'model' in fitInput
+      ? bootstrapPsychometric(fitInput as PsychometricInput, resamples, seed, level)
+      : bootstrapSimultaneity(fitInput, resamples, seed, level);
+  return result as BootstrapOf<T>;
 }

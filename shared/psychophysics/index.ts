@@ -4,7 +4,7 @@ export type { PsychometricInput, PsychometricFit, PsychometricModel } from './ps
 export { fitSimultaneity } from './simultaneity.js';
 export type { SimultaneityInput, SimultaneityFit } from './simultaneity.js';
 export { bootstrapFit } from './bootstrap.js';
-export type { BootstrapOptions, BootstrapInterval, BootstrapResult, PsychometricBootstrap, SimultaneityBootstrap } from './bootstrap.js';
+export type { BootstrapOf, BootstrapOptions, BootstrapInterval, BootstrapResult, PsychometricBootstrap, SimultaneityBootstrap } from './bootstrap.js';
 export { createRandom, binomialDraw } from './random.js';
 export type { Random } from './random.js';
 export { PsychophysicsInputError } from './validate.js';
