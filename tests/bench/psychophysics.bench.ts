@@ -109,9 +109,12 @@ for name, link in (("probit", sm.families.links.probit()), ("logit", sm.families
     out[name] = res
 print(json.dumps(out))
 `;
-const py = spawnSync('/usr/bin/python3', ['-c', PY, JSON.stringify(one)], { encoding: 'utf8' });
-const sm: Record<string, { model_and_fit: number; fit_only: number; pse: number }> | null = py.status === 0 ? JSON.parse(py.stdout) : null;
-if (!sm) console.log(`statsmodels not timed (${(py.stderr || py.error?.message || '').trim().split('\n').pop()}); apt-get install -y python3-statsmodels`);
+function timeStatsmodels(): Record<string, { model_and_fit: number; fit_only: number; pse: number }> | null {
+  const py = spawnSync('/usr/bin/python3', ['-c', PY, JSON.stringify(one)], { encoding: 'utf8' });
+  if (py.status === 0) return JSON.parse(py.stdout);
+  console.log(`statsmodels not timed (${(py.stderr || py.error?.message || '').trim().split('\n').pop()}); apt-get install -y python3-statsmodels`);
+  return null;
+}
 
 function medianBatchMs(fn: () => unknown, batches: number, perBatch: number): number {
   for (let i = 0; i < 2000; i++) fn();
@@ -121,20 +124,43 @@ function medianBatchMs(fn: () => unknown, batches: number, perBatch: number): nu
     for (let i = 0; i < perBatch; i++) fn();
     times.push((performance.now() - t) / perBatch);
   }
-  times.sort((p, q) => p - q);
-  return times[Math.floor(batches / 2)];
+  return median(times);
 }
 
-for (const [model, link] of [['cumulative_gaussian', 'probit'], ['logistic', 'logit']] as const) {
-  const input = { ...one, model };
-  const ours = medianBatchMs(() => fitPsychometric(input), 31, 1000);
-  const s = sm?.[link];
-  const agree = s ? Math.abs(fitPsychometric(input).pse! - s.pse) <= 1e-6 * Math.max(1, Math.abs(s.pse)) : true;
+function median(xs: number[]): number {
+  const s = [...xs].sort((p, q) => p - q);
+  return s[Math.floor(s.length / 2)];
+}
+
+// three rounds, statsmodels and this engine one after the other in each, so a change in the machine's load
+// affects both sides of a ratio alike; the medians over rounds are reported
+const LINKS = [['cumulative_gaussian', 'probit'], ['logistic', 'logit']] as const;
+const rounds: { link: string; ours: number; sm: { model_and_fit: number; fit_only: number; pse: number } | null; agree: boolean }[][] = [];
+for (let r = 0; r < 3; r++) {
+  const sm = timeStatsmodels();
+  rounds.push(
+    LINKS.map(([model, link]) => {
+      const input = { ...one, model };
+      const ours = medianBatchMs(() => fitPsychometric(input), 31, 1000);
+      const s = sm?.[link] ?? null;
+      const agree = s ? Math.abs(fitPsychometric(input).pse! - s.pse) <= 1e-6 * Math.max(1, Math.abs(s.pse)) : true;
+      return { link, ours, sm: s, agree };
+    }),
+  );
+}
+for (const [j, [, link]] of LINKS.entries()) {
+  const rs = rounds.map((round) => round[j]);
+  const ours = median(rs.map((x) => x.ours));
+  const timed = rs.every((x) => x.sm);
+  const full = timed ? median(rs.map((x) => x.sm!.model_and_fit)) : NaN;
+  const fitOnly = timed ? median(rs.map((x) => x.sm!.fit_only)) : NaN;
+  const ratio = timed ? median(rs.map((x) => x.sm!.fit_only / x.ours)) : NaN;
+  const ratioFull = timed ? median(rs.map((x) => x.sm!.model_and_fit / x.ours)) : NaN;
   console.log(
-    `(b) one fit, 9 levels, ${link}: fitPsychometric ${fmt(ours)}` +
-      (s
-        ? `; statsmodels GLM construction + fit ${fmt(s.model_and_fit)} (${(s.model_and_fit / ours).toFixed(0)}×), fit only ${fmt(s.fit_only)} ` +
-          `(${(s.fit_only / ours).toFixed(0)}×)  (target ≥ 20×: ${s.fit_only / ours >= 20 ? 'met' : 'NOT met'}); same PSE: ${agree ? 'yes' : 'NO'}`
+    `(b) one fit, 9 levels × ${TRIALS} trials, ${link}: fitPsychometric ${fmt(ours)}` +
+      (timed
+        ? `; statsmodels GLM construction + fit ${fmt(full)} (${ratioFull.toFixed(0)}×), fit only ${fmt(fitOnly)} (${ratio.toFixed(0)}×)` +
+          `  (target ≥ 20×: ${ratio >= 20 ? 'met' : 'NOT met'}); same PSE: ${rs.every((x) => x.agree) ? 'yes' : 'NO'}; medians of 3 rounds`
         : ''),
   );
 }
