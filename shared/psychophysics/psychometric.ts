@@ -8,7 +8,7 @@ import { PsychophysicsInputError, validateCounts, type Counts } from './validate
 export const PSYCHOMETRIC_MODELS = ['cumulative_gaussian', 'logistic'] as const;
 export type PsychometricModel = (typeof PSYCHOMETRIC_MODELS)[number];
 
-/** Upper bound of the lapse rate (Wichmann & Hill 2001a bound it to [0, 0.06]; the contract allows 0.1). */
+/** Upper bound of the lapse rate (Wichmann & Hill 2001a used [0, 0.06], from memory; the contract allows 0.1). */
 export const LAPSE_MAX = 0.1;
 /** Φ⁻¹(0.75), the 75% point of the standard normal. */
 export const PROBIT_Z75 = 0.6744897501960817;
@@ -27,7 +27,9 @@ export interface PsychometricInput {
  * spread (and jnd = spread·Φ⁻¹(0.75) or spread·ln 3) is negative when the response falls with x.
  * lapse is λ̂ when fitted, 0 when fixed. When no finite maximum exists (all responses one way, perfect
  * separation) or the iteration fails, converged is false and every estimate and SE is null; deviance and
- * loglik are then the supremum (separated data) or the last iterate's.
+ * loglik are then the supremum (separated data) or the last iterate's. One row of x, n, k is one level of the
+ * saturated model (df = rows − free parameters; rows sharing an x are not merged, as in a GLM). iterations are
+ * summed over the starts (two when the lapse rate is fitted), 0 when separation is found before iterating.
  */
 export interface PsychometricFit {
   model: PsychometricModel;
