@@ -103,7 +103,7 @@ function bootstrapPsychometric(input: PsychometricInput, resamples: number, seed
     const unit = problem.model === 'cumulative_gaussian' ? PROBIT_Z75 : Math.log(3);
     for (let r = 0; r < resamples; r++) {
       simulate(problem.counts.n, p, rnd, k);
-      const refit = problem.fit(k, lapse ? [core.theta, problem.glmStart(k, 0)] : [core.theta]);
+      const refit = problem.fit(k, lapse ? [core.theta, problem.glmStart(k, 0)] : [core.theta], true);
       if (!refit.converged) {
         failed++;
         continue;
@@ -147,7 +147,7 @@ function bootstrapSimultaneity(input: SimultaneityInput, resamples: number, seed
     const k = new Float64Array(p.length);
     for (let r = 0; r < resamples; r++) {
       simulate(problem.counts.n, p, rnd, k);
-      const refit = problem.degenerate(k) ? null : problem.fit(k, [core.theta, problem.dataStarts(k)[0]]);
+      const refit = problem.degenerate(k) ? null : problem.fit(k, [core.theta, problem.dataStarts(k)[0]], true);
       if (!refit?.converged) {
         failed++;
         continue;

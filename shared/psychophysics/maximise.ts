@@ -30,6 +30,12 @@ export interface MaximiseOptions {
   tolerance?: number;
   /** True when the iterate has run off to where no finite maximum is expected. */
   diverged?: (theta: Float64Array) => boolean;
+  /**
+   * Stop one Newton step early: once within 1e-5 standard errors (decrement < 1e-10), take the Newton step
+   * and return it without evaluating there (loglik and `at` then belong to the point before that step).
+   * For bootstrap refits, which need only the estimates.
+   */
+  skipLastEvaluation?: boolean;
 }
 
 export interface MaximiseResult {
@@ -175,9 +181,11 @@ export function maximise(start: ArrayLike<number>, m: number, evaluate: Evaluate
 
     // direction: Newton where the observed information is positive definite, else scoring; a parameter at a
     // bound whose step would leave the feasible region is held for this iteration
+    let newton = false;
     for (let pass = 0; pass <= bounds.length; pass++) {
       for (let i = 0; i < idx.length; i++) g[i] = cur.grad[idx[i]];
-      if (cholesky(cur.observed, m, idx, L) || cholesky(cur.expected, m, idx, L)) choleskySolve(L, idx.length, g, d);
+      newton = cholesky(cur.observed, m, idx, L);
+      if (newton || cholesky(cur.expected, m, idx, L)) choleskySolve(L, idx.length, g, d);
       else return done(false, iter - 1);
       let outward = -1;
       for (const b of bounds) {
@@ -209,6 +217,10 @@ export function maximise(start: ArrayLike<number>, m: number, evaluate: Evaluate
         hitValue = step > 0 ? b.upper : b.lower;
         hitOpen = step < 0 && !!b.openLower;
       }
+    }
+    if (options.skipLastEvaluation && newton && decrement < 1e-10 && tMax > 1) {
+      for (let i = 0; i < idx.length; i++) theta[idx[i]] += d[i];
+      return done(true, iter);
     }
     let t = Math.min(1, tMax);
     let accepted = false;

@@ -1,6 +1,7 @@
 // Psychometric functions p(x) = guess + (1 − guess − λ)·F(a + b·x) fitted by binomial maximum likelihood
 // (Wichmann & Hill 2001a). F is the standard normal cdf (cumulative Gaussian, probit) or the logistic cdf.
-import { normalDensity, normalTwoTailed } from '../stats/normal.js';
+import { normalDensity } from '../stats/normal.js';
+import { upperTail } from './normal-tail.js';
 import { binomialDeviance, kernelLoglik, logChooseSum } from './binomial.js';
 import { inverseOn, maximise, type Bound, type Evaluation, type MaximiseResult } from './maximise.js';
 import { PsychophysicsInputError, validateCounts, type Counts } from './validate.js';
@@ -72,7 +73,7 @@ interface CdfValues {
 /** F, 1 − F, density and its derivative, each accurate in the tails. */
 function cdfAt(model: PsychometricModel, eta: number, out: CdfValues): void {
   if (model === 'cumulative_gaussian') {
-    const tail = 0.5 * normalTwoTailed(eta);
+    const tail = upperTail(Math.abs(eta));
     if (eta < 0) {
       out.F = tail;
       out.Q = 1 - tail;
@@ -274,8 +275,11 @@ export class PsychometricProblem {
     return this.m === 3 ? Float64Array.of(alpha, beta, lambda) : Float64Array.of(alpha, beta);
   }
 
-  /** Maximum-likelihood fit to counts k (the data's own, or a bootstrap sample), optionally from given starts. */
-  fit(k: Float64Array, starts?: Float64Array[]): PsychometricCore {
+  /**
+   * Maximum-likelihood fit to counts k (the data's own, or a bootstrap sample), optionally from given starts;
+   * `refit` (bootstrap) stops one Newton step early within 1e-5 SEs of the maximum (only theta is then used).
+   */
+  fit(k: Float64Array, starts?: Float64Array[], refit = false): PsychometricCore {
     if (this.separated(k)) {
       return { theta: new Float64Array(this.m), loglikKernel: NaN, converged: false, iterations: 0, free: [], expected: new Float64Array(0), separated: true };
     }
@@ -287,7 +291,7 @@ export class PsychometricProblem {
     let best: MaximiseResult | null = null;
     let iterations = 0;
     for (const start of candidates) {
-      const r = maximise(start, this.m, evaluate, bounds, { diverged });
+      const r = maximise(start, this.m, evaluate, bounds, { diverged, skipLastEvaluation: refit });
       iterations += r.iterations;
       if (!best || (r.converged && !best.converged) || (r.converged === best.converged && r.loglik > best.loglik)) best = r;
     }

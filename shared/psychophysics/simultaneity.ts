@@ -166,7 +166,8 @@ export class SimultaneityProblem {
     ];
   }
 
-  fit(k: Float64Array, starts?: Float64Array[]): SimultaneityCore {
+  /** Maximum-likelihood fit to counts k from several starts; `refit` as in PsychometricProblem.fit. */
+  fit(k: Float64Array, starts?: Float64Array[], refit = false): SimultaneityCore {
     if (this.degenerate(k)) {
       return { theta: new Float64Array(3), loglikKernel: NaN, converged: false, iterations: 0, free: [], expected: new Float64Array(0), degenerate: true };
     }
@@ -174,7 +175,7 @@ export class SimultaneityProblem {
     let best: MaximiseResult | null = null;
     let iterations = 0;
     for (const start of starts ?? this.dataStarts(k)) {
-      const r = maximise(start, 3, evaluate, BOUNDS, { diverged, maxIterations: 200 });
+      const r = maximise(start, 3, evaluate, BOUNDS, { diverged, maxIterations: 200, skipLastEvaluation: refit });
       iterations += r.iterations;
       if (!best || (r.converged && !best.converged) || (r.converged === best.converged && r.loglik > best.loglik)) best = r;
     }

@@ -12,6 +12,8 @@ Reads {"glm": [...], "lapse": [...], "simultaneity": [...]} on stdin (each item 
   the parameters at a bound held fixed.
 - simultaneity: p = A exp(-(x - mu)^2 / (2 sigma^2)), A in (0, 1], the same way; the Jacobian of p for the
   expected information by complex-step differentiation (statsmodels.tools.numdiff.approx_fprime_cs).
+- tails: the normal upper tail Q(z) = erfc(z / sqrt 2) / 2 to 40 digits with mpmath (Debian python3-mpmath),
+  for the probit's own tail function.
 loglik includes the binomial coefficients; deviance is against one probability per row.
 """
 import json
@@ -19,6 +21,7 @@ import math
 import sys
 import warnings
 
+import mpmath
 import numpy as np
 import scipy
 from scipy import optimize, special, stats
@@ -262,7 +265,7 @@ def simultaneity_fit(item):
 
 def main():
     spec = json.load(sys.stdin)
-    out = {"versions": {"statsmodels": statsmodels.__version__, "scipy": scipy.__version__}, "glm": [], "lapse": [], "simultaneity": []}
+    out = {"versions": {"statsmodels": statsmodels.__version__, "scipy": scipy.__version__, "mpmath": mpmath.__version__}, "glm": [], "lapse": [], "simultaneity": []}
     for item in spec.get("glm", []):
         x, n, k = (np.array(item[f], float) for f in ("x", "n", "k"))
         out["glm"].append({"probit": glm_fit(x, n, k, "probit"), "logit": glm_fit(x, n, k, "logit")})
@@ -270,6 +273,8 @@ def main():
         out["lapse"].append(lapse_fit(item))
     for item in spec.get("simultaneity", []):
         out["simultaneity"].append(simultaneity_fit(item))
+    mpmath.mp.dps = 40
+    out["tails"] = [float(mpmath.erfc(mpmath.mpf(z) / mpmath.sqrt(2)) / 2) for z in spec.get("tails", [])]
     print(json.dumps(out))
 
 
