@@ -47,4 +47,17 @@ export default tseslint.config(
   },
   { files: ['src/**/*.{ts,tsx}'], rules: { 'no-restricted-imports': ['error', { patterns: clientPatterns }] } },
   ...featureZones,
+  {
+    // the statistics engine validates with plain code; zod schemas for its inputs live in shared/schemas
+    files: ['shared/stats/**'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          paths: [{ name: 'zod', message: 'shared/stats validates with plain code (StatsInputError); put zod schemas in shared/schemas.' }],
+          patterns: [{ group: ['zod/*'], message: 'shared/stats validates with plain code (StatsInputError); put zod schemas in shared/schemas.' }],
+        },
+      ],
+    },
+  },
 );

@@ -3,7 +3,8 @@ import rateLimit from 'express-rate-limit';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { ValidationError } from '../lib/errors.js';
-import { computeEffect, pool, poolInputSchema, StatsInputError } from '../../shared/stats/index.js';
+import { computeEffect, pool, StatsInputError } from '../../shared/stats/index.js';
+import { effectInputSchema, poolInputSchema } from '../../shared/schemas/compute.js';
 
 /**
  * The stateless compute routes: POST /api/compute/pool and POST /api/compute/effect take and return the
@@ -30,7 +31,8 @@ export function computeRouter(ctx: AppContext) {
   });
 
   router.post('/compute/effect', limiter, json, (req, res) => {
-    res.json(run(() => computeEffect(req.body)));
+    const input = parseInput(effectInputSchema, req.body);
+    res.json(run(() => computeEffect(input)));
   });
 
   return router;

@@ -1,12 +1,19 @@
 import { StatsInputError } from './errors.js';
-import type { Metric } from './metrics.js';
+import type { EffectMetric } from './effect-metrics.js';
+import type { HedgesJ } from './hedges-correction.js';
 
 /** What every effect-size function returns: the effect, its sampling variance, the metric and the formula id (see formulas.ts). */
 export interface EffectSize {
   effect: number;
   variance: number;
-  metric: Metric;
+  metric: EffectMetric;
   formula: string;
+  /** the small-sample factor applied (standardized mean differences with a J), else absent */
+  hedges_j?: HedgesJ;
+  /** computed from a bound (e.g. p < .001 taken as p = .001): the effect is at least this far from 0 */
+  from_bound?: boolean;
+  /** rests on an approximation of the mean and SD (e.g. from a median and quartiles) */
+  approximate?: boolean;
 }
 
 export function finite(name: string, x: unknown): number {
@@ -19,10 +26,21 @@ export function positive(name: string, x: unknown): number {
   return x;
 }
 
+export function nonNegative(name: string, x: unknown): number {
+  if (typeof x !== 'number' || !(x >= 0 && x < Infinity)) throw new StatsInputError(`${name} must be a finite number of at least 0`, name);
+  return x;
+}
+
 export function sampleSize(name: string, x: unknown, min = 2): number {
   if (typeof x !== 'number' || !Number.isInteger(x) || x < min)
     throw new StatsInputError(`${name} must be a whole number of at least ${min}`, name);
   return x;
+}
+
+/** A sample size that comes with an SD (or an SE turned into one): an SD needs at least two observations. */
+export function sizeWithSd(name: string, x: unknown, sdName: string): number {
+  if (x === 1) throw new StatsInputError(`${name} = 1 cannot come with a standard deviation (${sdName}); an SD needs at least 2 observations`, name);
+  return sampleSize(name, x, 2);
 }
 
 export function correlation(name: string, x: unknown): number {
@@ -35,7 +53,7 @@ export function direction(name: string, x: unknown): 1 | -1 {
   return x;
 }
 
-export function result(effect: number, variance: number, metric: Metric, formula: string): EffectSize {
+export function result(effect: number, variance: number, metric: EffectMetric, formula: string): EffectSize {
   if (!Number.isFinite(effect) || !(variance > 0 && variance < Infinity))
     throw new StatsInputError(`the reported values give no finite effect with a positive variance (${formula})`);
   return { effect, variance, metric, formula };

@@ -1,4 +1,4 @@
-import { correlation, positive, result, sampleSize, type EffectSize } from './effect-checks.js';
+import { correlation, positive, result, sizeWithSd, type EffectSize } from './effect-checks.js';
 
 /**
  * Log ratio of means for a within-subject (paired) design, ln(m1/m2), with variance
@@ -10,7 +10,7 @@ export function logRatioPaired(mean1: number, sd1: number, mean2: number, sd2: n
   positive('mean2', mean2);
   positive('sd1', sd1);
   positive('sd2', sd2);
-  sampleSize('n', n);
+  sizeWithSd('n', n, 'sd1');
   correlation('r', r);
   const a = sd1 / mean1;
   const b = sd2 / mean2;

@@ -1,4 +1,4 @@
-import { finite, positive, result, sampleSize, type EffectSize } from './effect-checks.js';
+import { finite, positive, result, sizeWithSd, type EffectSize } from './effect-checks.js';
 
 /**
  * Raw mean difference for a within-subject contrast from the mean and SD of the differences:
@@ -7,6 +7,6 @@ import { finite, positive, result, sampleSize, type EffectSize } from './effect-
 export function meanDifferencePaired(meanDiff: number, sdDiff: number, n: number): EffectSize {
   finite('mean_diff', meanDiff);
   positive('sd_diff', sdDiff);
-  sampleSize('n', n);
+  sizeWithSd('n', n, 'sd_diff');
   return result(meanDiff, (sdDiff * sdDiff) / n, 'mean_diff', 'md.paired.sd_diff');
 }

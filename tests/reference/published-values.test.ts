@@ -76,26 +76,31 @@ describe('BCG vaccine trials (Colditz et al. 1994)', () => {
 });
 
 describe('Borenstein, Hedges, Higgins & Rothstein (2009), Introduction to Meta-Analysis, ch. 4 (values from memory of the textbook)', () => {
-  it('independent groups: means 103 vs 100, SDs 5.5 and 4.5, n 50 and 50 → d 0.5970, Vd 0.0418, J 0.9923, g 0.5924, Vg 0.0411', () => {
+  // The book's V_g = J²·V_d (eq. 4.23) and its paired V_d (eq. 4.28) are not the engine's variances: g_s uses the
+  // large-sample variance at g (Hedges & Olkin 1985), g_rm Becker's (1988). The book's d, J and g still hold.
+  it('independent groups: means 103 vs 100, SDs 5.5 and 4.5, n 50 and 50 → d 0.5970, Vd 0.0418, J 0.9923, g 0.5924 (book Vg 0.0411 = J²·Vd)', () => {
     const g = smdIndependent(103, 5.5, 50, 100, 4.5, 50);
     const J = hedgesCorrection(98);
     rounded(J, 0.9923, 4);
-    rounded(g.effect / J, 0.597, 4); // d
-    rounded(g.variance / (J * J), 0.0418, 4); // V_d
+    const d = g.effect / J;
+    rounded(d, 0.597, 4);
+    const vd = 2 / 50 + (d * d) / 200;
+    rounded(vd, 0.0418, 4);
+    rounded(J * J * vd, 0.0411, 4); // the book's V_g
     rounded(g.effect, 0.5924, 4);
-    rounded(g.variance, 0.0411, 4);
+    expect(g.variance).toBeCloseTo(2 / 50 + g.effect ** 2 / 200, 15); // Hedges & Olkin at g: 0.04176
     expect(g.formula).toBe('smd.ind.means');
-    expect(g.metric).toBe('hedges_g');
+    expect(g.metric).toBe('g_s');
   });
 
-  it('paired: mean difference 5, SD of differences 10, n 50, r 0.5 → d 0.5, Vd 0.0225, g 0.4923, Vg 0.0218', () => {
+  it('paired: mean difference 5, SD of differences 10, n 50, r 0.5 → d 0.5, g 0.4923 (book Vd 0.0225, Vg 0.0218 by eq. 4.28)', () => {
     const g = smdPaired(5, 10, 50, 0.5);
     const J = hedgesCorrection(49);
     rounded(g.effect / J, 0.5, 4);
-    rounded(g.variance / (J * J), 0.0225, 4);
     rounded(g.effect, 0.4923, 4);
-    rounded(g.variance, 0.0218, 4);
+    rounded((1 / 50 + 0.25 / 100) * 2 * 0.5, 0.0225, 4); // the book's V_d
+    expect(g.variance).toBeCloseTo((2 * 0.5) / 50 + g.effect ** 2 / 100, 15); // Becker (1988): 0.02242
     const viaCli = computeEffect({ measure: 'smd_paired', mean_diff: 5, sd_diff: 10, n: 50, r: 0.5 });
-    expect(viaCli).toEqual({ measure: 'smd_paired', effect: g.effect, variance: g.variance, formula: 'smd.paired.sd_diff' });
+    expect(viaCli).toMatchObject({ measure: 'smd_paired', metric: 'g_rm', effect: g.effect, variance: g.variance, formula: 'smd.paired.sd_diff' });
   });
 });
