@@ -5,7 +5,7 @@ import type { EffectMetric } from './effect-metrics.js';
 import type { HedgesJ } from './hedges-correction.js';
 import { groupSummary, weakerSource, type SummarySource } from './group-summary.js';
 import { tFromTwoTailedP } from './p-value.js';
-import { direction as checkDirection, sampleSize } from './effect-checks.js';
+import { direction as checkDirection, flagged, sampleSize } from './effect-checks.js';
 import { smdIndependent } from './smd-independent.js';
 import { smdFromT } from './smd-from-t.js';
 import { smdFromF } from './smd-from-f.js';
@@ -77,7 +77,7 @@ function smd(o: Values): EffectSize {
   if (groups) {
     const { g1, g2, source } = groups;
     const es = smdIndependent(g1.mean, g1.sd, g1.n, g2.mean, g2.sd, g2.n, `smd.ind.means${SUFFIX[source]}`);
-    return source === 'median' ? { ...es, approximate: true } : es;
+    return source === 'median' ? flagged(es, 'approximate') : es;
   }
   if (has(o, 't', 'n1', 'n2')) return smdFromT(o.t!, o.n1!, o.n2!);
   if (has(o, 'F', 'n1', 'n2')) return smdFromF(o.F!, o.n1!, o.n2!, o.direction as 1 | -1 | undefined);
@@ -95,7 +95,7 @@ function smdPairedForm(o: Values): EffectSize {
   if (has(o, 'n') && (o.p !== undefined || o.p_less_than !== undefined)) {
     const { t, bound } = tFromP(o, sampleSize('n', o.n, 3) - 1);
     const es = withR ? smdPairedFromT(t, o.n!, o.r!, 'smd.paired.p_r') : dzFromPairedT(t, o.n!, 'smd.paired.dz_p');
-    return bound ? { ...es, from_bound: true } : es;
+    return bound ? flagged(es, 'from_bound') : es;
   }
   need('smd_paired', [
     'mean_diff, sd_diff, n, r (g_rm; without r: g_z)', 'mean1, sd1, mean2, sd2, n, r (g_av)', 't, n, r (g_rm; without r: g_z)',
@@ -110,7 +110,7 @@ function dz(o: Values): EffectSize {
   if (has(o, 'n') && (o.p !== undefined || o.p_less_than !== undefined)) {
     const { t, bound } = tFromP(o, sampleSize('n', o.n, 3) - 1);
     const es = dzFromPairedT(t, o.n!, 'smd.paired.dz_p');
-    return bound ? { ...es, from_bound: true } : es;
+    return bound ? flagged(es, 'from_bound') : es;
   }
   need('d_z', ['mean_diff, sd_diff, n', 'mean1, sd1, mean2, sd2, n, r', 't, n', 'p or p_less_than, n, direction']);
 }
@@ -120,7 +120,7 @@ function logRatioForm(o: Values): EffectSize {
   if (groups) {
     const { g1, g2, source } = groups;
     const es = logRatio(g1.mean, g1.sd, g1.n, g2.mean, g2.sd, g2.n, `lnrom.ind${SUFFIX[source]}`);
-    return source === 'median' ? { ...es, approximate: true } : es;
+    return source === 'median' ? flagged(es, 'approximate') : es;
   }
   if (has(o, 'ratio', 'ci_lower', 'ci_upper')) return logRatioFromCi(o.ratio!, o.ci_lower!, o.ci_upper!, o.level ?? 0.95, o.df);
   if (has(o, 'percent', 'ci_lower', 'ci_upper')) return logRatioFromCi(o.percent!, o.ci_lower!, o.ci_upper!, o.level ?? 0.95, o.df, true);
@@ -134,7 +134,7 @@ function meanDiffForm(o: Values): EffectSize {
   if (groups) {
     const { g1, g2, source } = groups;
     const es = meanDifference(g1.mean, g1.sd, g1.n, g2.mean, g2.sd, g2.n, `md.ind.sds${SUFFIX[source]}`);
-    return source === 'median' ? { ...es, approximate: true } : es;
+    return source === 'median' ? flagged(es, 'approximate') : es;
   }
   if (has(o, 'mean_diff', 'sd_diff', 'n')) return meanDifferencePaired(o.mean_diff!, o.sd_diff!, o.n!);
   if (has(o, 'mean_diff', 'se')) return meanDifferenceFromSe(o.mean_diff!, o.se!);
@@ -149,7 +149,7 @@ function rawMeanForm(o: Values): EffectSize {
   if (has(o, 'mean', 'sd', 'n')) return rawMean(o.mean!, o.sd!, o.n!);
   if (has(o, 'mean', 'se')) return rawMeanFromSe(o.mean!, o.se!);
   const g = groupSummary(o, '');
-  if (g) return { ...rawMean(g.mean, g.sd, g.n, 'mean.raw.median'), approximate: true };
+  if (g) return flagged(rawMean(g.mean, g.sd, g.n, 'mean.raw.median'), 'approximate');
   need('raw_mean', ['mean, sd, n', 'mean, se', 'median, n with lower_quartile and upper_quartile and/or min and max']);
 }
 

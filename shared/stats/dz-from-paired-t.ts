@@ -9,7 +9,7 @@ import { hedgesJ } from './hedges-correction.js';
 export function gzFromDz(dz: number, n: number, formula: string): EffectSize {
   const j = hedgesJ(n - 1);
   const g = j.value * dz;
-  return { ...result(g, 1 / n + (g * g) / (2 * n), 'g_z', formula), hedges_j: j };
+  return result(g, 1 / n + (g * g) / (2 * n), 'g_z', formula, j);
 }
 
 /**

@@ -53,8 +53,14 @@ export function direction(name: string, x: unknown): 1 | -1 {
   return x;
 }
 
-export function result(effect: number, variance: number, metric: EffectMetric, formula: string): EffectSize {
+export function result(effect: number, variance: number, metric: EffectMetric, formula: string, hedgesJ?: HedgesJ): EffectSize {
   if (!Number.isFinite(effect) || !(variance > 0 && variance < Infinity))
     throw new StatsInputError(`the reported values give no finite effect with a positive variance (${formula})`);
-  return { effect, variance, metric, formula };
+  return hedgesJ ? { effect, variance, metric, formula, hedges_j: hedgesJ } : { effect, variance, metric, formula };
+}
+
+/** Marks a fresh result as computed from a bound or as approximate (mutates and returns it). */
+export function flagged(es: EffectSize, flag: 'from_bound' | 'approximate'): EffectSize {
+  es[flag] = true;
+  return es;
 }

@@ -1,4 +1,4 @@
-import { direction, sampleSize, type EffectSize } from './effect-checks.js';
+import { direction, flagged, sampleSize, type EffectSize } from './effect-checks.js';
 import { hedgesGFromD } from './smd-independent.js';
 import { tFromTwoTailedP } from './p-value.js';
 
@@ -15,5 +15,5 @@ export function smdFromP(p: number, n1: number, n2: number, dir?: 1 | -1, bound 
   const t = tFromTwoTailedP(bound ? 'p_less_than' : 'p', p, n1 + n2 - 2);
   const sign = t === 0 ? 1 : direction('direction', dir);
   const es = hedgesGFromD(sign * t * Math.sqrt((n1 + n2) / (n1 * n2)), n1, n2, 'smd.ind.p');
-  return bound ? { ...es, from_bound: true } : es;
+  return bound ? flagged(es, 'from_bound') : es;
 }

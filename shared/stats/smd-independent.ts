@@ -8,7 +8,7 @@ import { hedgesJ } from './hedges-correction.js';
 export function hedgesGFromD(d: number, n1: number, n2: number, formula: string): EffectSize {
   const j = hedgesJ(n1 + n2 - 2);
   const g = j.value * d;
-  return { ...result(g, 1 / n1 + 1 / n2 + (g * g) / (2 * (n1 + n2)), 'g_s', formula), hedges_j: j };
+  return result(g, 1 / n1 + 1 / n2 + (g * g) / (2 * (n1 + n2)), 'g_s', formula, j);
 }
 
 /**

@@ -20,5 +20,5 @@ export function smdPairedSds(mean1: number, sd1: number, mean2: number, sd2: num
   const sAv = Math.sqrt((sd1 * sd1 + sd2 * sd2) / 2);
   const j = hedgesJ((2 * (n - 1)) / (1 + r * r));
   const g = (j.value * (mean1 - mean2)) / sAv;
-  return { ...result(g, (2 * (1 - r)) / n + (g * g * (1 + r * r)) / (4 * n), 'g_av', 'smd.paired.sds'), hedges_j: j };
+  return result(g, (2 * (1 - r)) / n + (g * g * (1 + r * r)) / (4 * n), 'g_av', 'smd.paired.sds', j);
 }

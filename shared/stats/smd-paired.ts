@@ -10,7 +10,7 @@ import { hedgesJ } from './hedges-correction.js';
 export function rawScoreFromD(d: number, n: number, r: number, formula: string): EffectSize {
   const j = hedgesJ(n - 1);
   const g = j.value * d;
-  return { ...result(g, (2 * (1 - r)) / n + (g * g) / (2 * n), 'g_rm', formula), hedges_j: j };
+  return result(g, (2 * (1 - r)) / n + (g * g) / (2 * n), 'g_rm', formula, j);
 }
 
 /**
