@@ -35,7 +35,7 @@ export function cumulative(input: PoolInput): SensitivityEntry[] {
     for (let m = 0; m < k; m++) {
       const r = poolCore({ y: y.subarray(0, m + 1), v: v.subarray(0, m + 1) }, prepared, { lean: true, noWeights: true });
       out[m] = { index: m, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper,
-        statistic_df: r.statistic_df, tau2: r.tau2, I2: r.I2, Q: r.Q };
+        statistic_df: r.statistic_df, tau2: r.tau2, I2: r.I2, I2_tau: r.I2_tau, Q: r.Q };
     }
     return out;
   }

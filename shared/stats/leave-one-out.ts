@@ -37,7 +37,7 @@ export function leaveOneOut(input: PoolInput): SensitivityEntry[] {
       for (let j = 0, m = 0; j < k; j++) if (j !== i) { ys[m] = y[j]; vs[m] = v[j]; m++; }
       const r = poolCore({ y: ys, v: vs }, prepared, { lean: true, noWeights: true });
       out[i] = { index: i, k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper,
-        statistic_df: r.statistic_df, tau2: r.tau2, I2: r.I2, Q: r.Q };
+        statistic_df: r.statistic_df, tau2: r.tau2, I2: r.I2, I2_tau: r.I2_tau, Q: r.Q };
     }
     return out;
   }

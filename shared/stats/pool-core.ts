@@ -13,6 +13,8 @@ export interface PoolCoreExtras {
   lean?: boolean;
   /** skip the per-study weights array */
   noWeights?: boolean;
+  /** use this τ² instead of estimating one (random-effects methods; subgroups with a pooled τ²) */
+  tau2?: number;
 }
 
 /**
@@ -41,7 +43,8 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
   const fe = dlTau2(y, v, !extras.lean);
   const df = k - 1;
   let tau2 = 0;
-  if (method === 'DL') tau2 = fe.tau2;
+  if (extras.tau2 !== undefined && method !== 'FE') tau2 = extras.tau2;
+  else if (method === 'DL') tau2 = fe.tau2;
   else if (method === 'PM') tau2 = solveGeneralizedQ(y, v, df, fe.tau2, fe.feMean, fe.Q);
   else if (method === 'REML') tau2 = remlTau2(y, v, fe.feMean);
 

@@ -13,7 +13,10 @@ export interface SensitivityEntry {
    * normalTwoTailed or tTwoTailed of it (left out, with H² = Q/(k − 1), to keep k refits cheap) */
   statistic_df: number | null;
   tau2: number | null;
+  /** I² from Q, 100·max(0, (Q − df)/Q) */
   I2: number | null;
+  /** I² from τ² and the typical within-study variance (Higgins & Thompson 2002); REML and PM only, as in pool */
+  I2_tau: number | null;
   Q: number | null;
 }
 
@@ -40,6 +43,7 @@ export function makeEntry(
     statistic_df: statisticDf,
     tau2: method === 'FE' || !hetero ? null : tau2,
     I2: hetero ? (Q > 0 ? 100 * Math.max(0, (Q - df) / Q) : 0) : null,
+    I2_tau: null,
     Q: hetero ? Q : null,
   };
 }

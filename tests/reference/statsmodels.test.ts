@@ -2,7 +2,7 @@
 // (brentq roots, Kendall's tau) on seeded random data sets. See statsmodels_reference.py for how the two
 // known statsmodels traits (unclipped DL tau², PM collapse to 0) are handled without loosening tolerances.
 import { describe, expect, it } from 'vitest';
-import { pool, egger, begg, type Method } from '../../shared/stats/index.js';
+import { pool, egger, begg, normalTwoTailed, type Method } from '../../shared/stats/index.js';
 import { referenceDataSets } from './seeded-data.js';
 import { relErr, runReference } from './python-reference.js';
 
@@ -18,7 +18,7 @@ interface Ref {
   FE: Record<'false' | 'true', Summary>; DL: Record<'false' | 'true', Summary>; PM: Record<'false' | 'true', Summary>;
   tau2_ci: [number, number]; REML_tau2: number; prediction_t: number | null;
   egger: { intercept: number; se: number; t: number; p: number } | null;
-  begg?: { tau: number; p: number };
+  begg?: { tau: number; p: number; p_exact: number | null };
 }
 
 const sets = referenceDataSets();
@@ -139,15 +139,25 @@ describe("Egger's and Begg's tests against statsmodels OLS and scipy's Kendall t
     expect(errors).toEqual([]);
   });
 
-  it("Begg's tau-b and p agree with scipy.stats.kendalltau (asymptotic)", () => {
+  it("Begg's tau-b and p agree with scipy.stats.kendalltau (exact p for k ≤ 50 without ties, asymptotic above)", () => {
     const errors: string[] = [];
+    let exact = 0;
     for (const [i, set] of sets.entries()) {
       const ref = reference.results[i].begg;
       if (!ref) continue;
       const ours = begg(set)!;
       check(errors, `${set.name} tau`, ours.tau, ref.tau, CLOSED, 1);
-      check(errors, `${set.name} p`, ours.p, ref.p, CLOSED);
+      check(errors, `${set.name} z-based p`, normalTwoTailed(ours.z), ref.p, CLOSED);
+      if (set.effects.length <= 50 && ref.p_exact !== null) {
+        exact++;
+        if (ours.p_method !== 'exact') errors.push(`${set.name}: expected the exact p`);
+        check(errors, `${set.name} exact p`, ours.p, ref.p_exact, CLOSED);
+      } else {
+        if (ours.p_method !== 'normal') errors.push(`${set.name}: expected the normal p`);
+        check(errors, `${set.name} p`, ours.p, ref.p, CLOSED);
+      }
     }
+    expect(exact).toBeGreaterThan(10);
     expect(errors).toEqual([]);
   });
 });

@@ -151,7 +151,9 @@ def one(ds, level):
         m = float(dl.mean_effect_fe)
         ts = (y - m) / np.sqrt(v - 1 / np.sum(1 / v))
         tau, p = stats.kendalltau(ts, v, variant="b", method="asymptotic")
-        out["begg"] = {"tau": float(tau), "p": float(p)}
+        ties = len(np.unique(ts)) < k or len(np.unique(v)) < k
+        p_exact = None if ties else float(stats.kendalltau(ts, v, method="exact").pvalue)
+        out["begg"] = {"tau": float(tau), "p": float(p), "p_exact": p_exact}
     else:
         out["egger"] = None
     return out

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { aggregateWithinStudy, begg, metaRegression, pool, subgroups } from '../../../shared/stats/index.js';
+import { aggregateWithinStudy, begg, cumulative, leaveOneOut, metaRegression, normalTwoTailed, pool, subgroups, tTwoTailed } from '../../../shared/stats/index.js';
+import { kendallDistribution } from '../../../shared/stats/begg.js';
 
 describe('subgroups and Q-between', () => {
   it('hand example: two groups at 0 and 1 with SE² 0.5 each → Q_between = 1 on 1 df', () => {
@@ -87,5 +88,104 @@ describe("Begg's rank correlation", () => {
     expect(r.tau).toBeCloseTo(1, 14);
     expect(r.S).toBe(6);
     expect(begg({ effects: [1, 2], variances: [1, 2] })).toBeNull();
+  });
+});
+
+describe('meta-regression with several moderators and Knapp–Hartung', () => {
+  it('effects exactly 1 + 0.5·x + 2·[b] are recovered with a numeric column and a dummy-coded category', () => {
+    const x = [0, 1, 2, 3, 4, 5, 6, 7];
+    const cat = ['a', 'b', 'a', 'b', 'c', 'a', 'b', 'c'];
+    const effects = x.map((xi, i) => 1 + 0.5 * xi + (cat[i] === 'b' ? 2 : 0) + (cat[i] === 'c' ? -1 : 0));
+    const r = metaRegression({ effects, variances: x.map((_, i) => 0.5 + i / 10), moderators: [{ name: 'x', values: x }, { name: 'group', values: cat }], method: 'FE' });
+    expect(r.coefficients.map((c) => c.name)).toEqual(['intercept', 'x', 'group: b', 'group: c']);
+    expect(r.coefficients.map((c) => c.estimate).map((b) => +b.toFixed(10))).toEqual([1, 0.5, 2, -1]);
+    expect(r.moderator_type).toBe('mixed');
+    expect(r.QM_df).toBe(3);
+    expect(r.QE).toBeCloseTo(0, 18);
+    expect(r.few_effects_per_covariate).toBe(true);
+    // the reference level can be chosen
+    const c = metaRegression({ effects, variances: x.map(() => 1), moderators: [{ name: 'group', values: cat, reference: 'b' }], method: 'FE' });
+    expect(c.moderators[0].levels).toEqual(['b', 'a', 'c']);
+  });
+
+  it('Knapp–Hartung scales the covariance by Σwe²/(k − p), uses t on k − p df and F = Q_M/m', () => {
+    const effects = [0, 1, 2.5, 2.9, 4.4];
+    const variances = [1, 1, 1, 1, 1];
+    const moderator = [0, 1, 2, 3, 4];
+    const z = metaRegression({ effects, variances, moderator, method: 'FE' });
+    const kh = metaRegression({ effects, variances, moderator, method: 'FE', hksj: true });
+    const s2 = z.QE / 3; // FE: residual Q at τ² = 0 on k − p = 3 df
+    expect(kh.slope_se!).toBeCloseTo(z.slope_se! * Math.sqrt(s2), 14);
+    expect(kh.coefficients[1].statistic_df).toBe(3);
+    expect(kh.slope_p!).toBeCloseTo(tTwoTailed(kh.slope! / kh.slope_se!, 3), 14);
+    expect(kh.QM_test).toBe('F');
+    expect(kh.QM).toBeCloseTo((kh.slope! / kh.slope_se!) ** 2, 12); // F(1, 3) = t²
+    expect(kh.QM_p).toBeCloseTo(kh.slope_p!, 12);
+    expect(z.QM_test).toBe('chisq');
+    expect(() => metaRegression({ effects, variances, moderators: [{ name: 'x', values: moderator }, { name: 'x', values: moderator }] })).toThrow(/given twice/);
+    expect(() => metaRegression({ effects, variances, moderators: [{ name: 'x', values: moderator }, { name: 'y', values: moderator.map((m) => 2 * m) }] })).toThrow(/singular design/);
+  });
+});
+
+describe('subgroups with one pooled τ²', () => {
+  const effects = [0.1, 0.5, 0.3, 1.2, 0.2, 0.9, 0.4, 0.8];
+  const variances = [0.02, 0.03, 0.01, 0.05, 0.02, 0.04, 0.03, 0.02];
+  const groups = ['x', 'y', 'x', 'y', 'z', 'y', 'z', 'x'];
+
+  it('the between test is the mixed-effects model test of the factor (χ², or F under HKSJ), the group rows its cell means', () => {
+    for (const hksj of [false, true]) {
+      const sg = subgroups({ effects, variances, groups, method: 'REML', hksj, tau2Model: 'pooled' });
+      const mr = metaRegression({ effects, variances, moderator: groups, method: 'REML', hksj });
+      expect(sg.tau2_model).toBe('pooled');
+      expect(sg.tau2_pooled).toBeCloseTo(mr.tau2, 12);
+      expect(sg.Q_between).toBeCloseTo(mr.QM, 10);
+      expect(sg.Q_between_p).toBeCloseTo(mr.QM_p, 10);
+      expect(sg.Q_between_test).toBe(hksj ? 'F' : 'chisq');
+      expect(sg.Q_between_df2).toBe(hksj ? 5 : null);
+      // cell mean of group x with weights 1/(v + τ²)
+      const w = [0, 2, 7].map((i) => 1 / (variances[i] + mr.tau2));
+      const mean = (w[0] * 0.1 + w[1] * 0.3 + w[2] * 0.8) / (w[0] + w[1] + w[2]);
+      expect(sg.groups[0].estimate).toBeCloseTo(mean, 12);
+      expect(sg.groups[0].tau2).toBeCloseTo(mr.tau2, 12);
+    }
+    expect(() => subgroups({ effects: [1, 2], variances: [1, 1], groups: ['a', 'b'], tau2Model: 'pooled' })).toThrow(/more effects than subgroups/);
+  });
+
+  it('with FE the pooled and separate analyses agree on estimates and the between test', () => {
+    const a = subgroups({ effects, variances, groups, method: 'FE' });
+    const b = subgroups({ effects, variances, groups, method: 'FE', tau2Model: 'pooled' });
+    expect(b.groups.map((g) => g.estimate)).toEqual(a.groups.map((g) => expect.closeTo(g.estimate, 12)));
+    expect(b.Q_between).toBeCloseTo(a.Q_between!, 10);
+  });
+});
+
+describe("I² in sensitivity rows and Begg's exact p", () => {
+  it('REML leave-one-out rows carry the τ²-based I² of each refit; DL rows leave it null as pool does', () => {
+    const effects = [0.1, 0.5, 0.3, 1.2, 0.2, 0.9];
+    const variances = [0.02, 0.03, 0.01, 0.05, 0.02, 0.04];
+    const rows = leaveOneOut({ effects, variances, method: 'REML' });
+    const refit = pool({ effects: effects.slice(1), variances: variances.slice(1), method: 'REML' });
+    expect(rows[0].I2_tau).toBeCloseTo(refit.I2_tau!, 10);
+    expect(rows[0].I2).toBeCloseTo(refit.I2!, 10);
+    expect(cumulative({ effects, variances, method: 'PM' })[5].I2_tau).toBeCloseTo(pool({ effects, variances, method: 'PM' }).I2_tau!, 10);
+    expect(leaveOneOut({ effects, variances, method: 'DL' })[0].I2_tau).toBeNull();
+  });
+
+  it('k = 4 in perfect order: all 6 pairs concordant, exact p = 2·(1/4!) = 1/12; with ties the normal p', () => {
+    const r = begg({ effects: [0.1, 0.2, 0.4, 0.8], variances: [0.01, 0.02, 0.03, 0.04] })!;
+    expect(r.p_method).toBe('exact');
+    expect(r.p).toBeCloseTo(1 / 12, 15);
+    const tied = begg({ effects: [0.1, 0.2, 0.4, 0.8], variances: [0.01, 0.02, 0.02, 0.04] })!;
+    expect(tied.p_method).toBe('normal');
+    expect(tied.p).toBeCloseTo(normalTwoTailed(tied.z), 15);
+  });
+
+  it('the exact distribution sums to 1 and is symmetric; k > 50 uses the normal p', () => {
+    const f = kendallDistribution(12);
+    expect(f.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 14);
+    for (let t = 0; t < f.length; t++) expect(f[t]).toBeCloseTo(f[f.length - 1 - t], 16);
+    const k = 60;
+    const r = begg({ effects: Array.from({ length: k }, (_, i) => Math.sin(i)), variances: Array.from({ length: k }, (_, i) => 0.01 + i / 1000) })!;
+    expect(r.p_method).toBe('normal');
   });
 });
