@@ -85,6 +85,8 @@ export class Agreement {
   readonly errors: string[] = [];
   worst = 0;
   compared = 0;
+  /** the largest relative difference per tolerance (closed form, iterative) */
+  readonly worstAt = new Map<number, number>();
   check(label: string, actual: number | null | undefined, expected: number | null | undefined, tol: number, scale = 1e-6) {
     this.compared++;
     if (expected === null || expected === undefined) {
@@ -98,6 +100,7 @@ export class Agreement {
     const d = Math.abs(actual - expected);
     const rel = d === 0 ? 0 : d / Math.max(Math.abs(expected), scale);
     if (rel > this.worst) this.worst = rel;
+    this.worstAt.set(tol, Math.max(rel, this.worstAt.get(tol) ?? 0));
     if (!(rel <= tol)) this.errors.push(`${label}: ${actual} vs ${expected} (relative ${rel.toExponential(2)} > ${tol})`);
   }
 }
@@ -107,5 +110,7 @@ export const ITERATIVE = 1e-6;
 
 /** With REFERENCE_REPORT=1, prints the largest relative difference of a check (for the measured-agreement table). */
 export function report(label: string, a: Agreement) {
-  if (process.env.REFERENCE_REPORT) console.log(`[agreement] ${label}: ${a.compared} values, largest relative difference ${a.worst.toExponential(2)}`);
+  if (!process.env.REFERENCE_REPORT) return;
+  const by = [...a.worstAt.entries()].sort((x, y) => x[0] - y[0]).map(([tol, w]) => `${w.toExponential(2)} (tolerance ${tol})`).join(', ');
+  console.log(`[agreement] ${label}: ${a.compared} values, largest relative difference ${by}`);
 }
