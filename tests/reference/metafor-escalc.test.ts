@@ -89,7 +89,7 @@ cat(to_json(list(
     MN = yv(escalc("MN", mi = m1, sdi = sd1, ni = n1))))
 )))
 `);
-});
+}, 180_000);
 
 /** Compares computeEffect on each row with escalc's yi and vi. */
 function compare(label: string, expected: Escalc, inputs: Record<string, unknown>[], metric: string): Agreement {
