@@ -47,7 +47,7 @@ export const specs: Spec[] = [
       await shown.waitFor();
       assert.equal(await shown.textContent(), expected.effect.toFixed(3));
       const formula = await effect.getByTestId('formula').textContent();
-      assert.match(formula ?? '', /Hedges' g, independent groups, from means and SDs/);
+      assert.match(formula ?? '', /Hedges' g \(g_s\), independent groups, from means and SDs/);
       assert.match(formula ?? '', /Borenstein/);
       // The draft saves by itself, and the server's numbers match after a reload.
       await page.getByTestId('save-state').getByText(/Saved at/).waitFor({ timeout: 20_000 });
