@@ -5,7 +5,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { metaRegression, pool, subgroups, type Method } from '../../shared/stats/index.js';
 import type { ModeratorColumn } from '../../shared/stats/index.js';
-import { Agreement, CLOSED, ITERATIVE, report, rStrings, rVector, runR } from './r-reference.js';
+import { Agreement, CLOSED, ITERATIVE, report, rStrings, rVector, runRSource } from './r-reference.js';
 import { mulberry32, gaussian } from './seeded-data.js';
 
 const METHODS = ['FE', 'DL', 'REML', 'PM'] as const;
@@ -42,7 +42,7 @@ const invented = inventedSheet();
 let cases: Case[];
 
 beforeAll(() => {
-  cases = runR<{ cases: Case[] }>(`
+  cases = runRSource<{ cases: Case[] }>(`
 ctl <- list(threshold = 1e-12, tol = 1e-12, maxiter = 10000)
 info <- function(res) list(b = I(as.numeric(res$beta)), se = I(res$se), stat = I(res$zval), p = I(res$pval),
   ci_lb = I(res$ci.lb), ci_ub = I(res$ci.ub), tau2 = res$tau2, QM = res$QM, QMp = res$QMp, QE = res$QE, QEp = res$QEp,

@@ -4,7 +4,7 @@
 // metafor run with its thresholds tightened to 1e-12).
 import { beforeAll, describe, expect, it } from 'vitest';
 import { begg, cumulative, leaveOneOut, trimFill, type Method } from '../../shared/stats/index.js';
-import { Agreement, CLOSED, ITERATIVE, report, rVector, runR } from './r-reference.js';
+import { Agreement, CLOSED, ITERATIVE, report, rVector, runRSource } from './r-reference.js';
 import { gaussian, mulberry32 } from './seeded-data.js';
 
 const METHODS = ['FE', 'DL', 'REML', 'PM'] as const;
@@ -42,7 +42,7 @@ const sheets = [invented(41, 30), invented(42, 50), invented(43, 80)];
 
 let sets: DataSet[];
 beforeAll(() => {
-  sets = runR<{ sets: DataSet[] }>(`
+  sets = runRSource<{ sets: DataSet[] }>(`
 ctl <- list(threshold = 1e-12, tol = 1e-12, maxiter = 10000)
 col <- function(x) if (is.null(x)) NULL else I(as.numeric(x))
 rows <- function(x) list(estimate = col(x$estimate), se = col(x$se), p = col(x$pval), ci_lb = col(x$ci.lb), ci_ub = col(x$ci.ub),
