@@ -1,12 +1,11 @@
 import type { Knex } from 'knex';
 import type { SheetInput } from '../shared/schemas/extraction.js';
 import { sheetDraftSchema } from '../shared/schemas/extraction.js';
-import { writeSheet } from '../server/db/sheets-repo.js';
 import { compareSheets, mergeSheets } from '../server/services/comparison.js';
 import { ensureVocabulary } from '../server/services/manipulations.js';
 import { createReference } from '../server/services/references.js';
 import { decide } from '../server/services/screening.js';
-import { createSettledRecord } from '../server/services/settlement.js';
+import { createSettledRecord, saveSheet } from '../server/services/settlement.js';
 
 // An invented registry: labs, authors, journals, papers and numbers are made up; DOIs use the test prefix 10.5555.
 
@@ -201,8 +200,8 @@ async function seedPair(knex: Knex, refId: number, a: SheetInput, b: SheetInput,
     const [xb] = await trx('extractions').insert({ reference_id: refId, assignment_id: asg.id, kind: 'coding', coder_id: who.c2, state: mode === 'coding' ? 'draft' : 'submitted', updated_by: who.c2, submitted_at: mode === 'coding' ? null : trx.fn.now() }).returning('id');
     const sa = sheetDraftSchema.parse(a);
     const sb = sheetDraftSchema.parse(b);
-    await writeSheet(trx, xa.id, sa, { actorId: who.c1 });
-    await writeSheet(trx, xb.id, sb, { actorId: who.c2 });
+    await saveSheet(trx, xa.id, sa, { actorId: who.c1 });
+    await saveSheet(trx, xb.id, sb, { actorId: who.c2 });
     if (mode === 'coding') return;
     const found = compareSheets(sa, sb);
     if (found.length) {

@@ -2,8 +2,7 @@ import passportModule from 'passport';
 import { Strategy as GitHubStrategy, type Profile } from 'passport-github2';
 import type { Knex } from 'knex';
 import type { Env } from '../env.js';
-import { findUserWithRoles } from '../db/users-repo.js';
-import { signInGithubUser } from '../services/users.js';
+import { sessionUser, signInGithubUser } from '../services/users.js';
 
 /** One passport instance per app, so tests can build several apps side by side. */
 export function createPassport(env: Env, db: Knex) {
@@ -41,7 +40,7 @@ export function createPassport(env: Env, db: Knex) {
   );
   passport.serializeUser((user, done) => done(null, (user as Express.User).id));
   passport.deserializeUser((id: number, done) => {
-    findUserWithRoles(db, id)
+    sessionUser(db, id)
       .then((u) => done(null, u ? { id: u.id, login: u.login, name: u.name, email: u.email, roles: u.roles, via: 'session' } : false))
       .catch((err) => done(err));
   });

@@ -27,14 +27,12 @@ export function adminRouter(ctx: AppContext) {
 
   router.put('/admin/users/:id/roles/:role', async (req, res) => {
     const p = parseInput(roleChangeParamsSchema, req.params, 'path');
-    const user = await grantRole(ctx.db, req.user!.id, p.id, p.role);
-    res.json({ user: { id: user!.id, login: user!.login, roles: user!.roles } });
+    res.json({ user: await grantRole(ctx.db, req.user!.id, p.id, p.role) });
   });
 
   router.delete('/admin/users/:id/roles/:role', async (req, res) => {
     const p = parseInput(roleChangeParamsSchema, req.params, 'path');
-    const user = await revokeRole(ctx.db, req.user!.id, p.id, p.role);
-    res.json({ user: { id: user!.id, login: user!.login, roles: user!.roles } });
+    res.json({ user: await revokeRole(ctx.db, req.user!.id, p.id, p.role) });
   });
 
   router.get('/admin/audit', async (req, res) => {

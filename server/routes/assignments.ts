@@ -4,7 +4,7 @@ import { createAssignmentSchema } from '../../shared/schemas/extraction.js';
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
-import { createAssignment, listAssignments, listCandidates, listCoders } from '../services/extractions.js';
+import { createAssignment, listAssignments, listCandidates, listCoders } from '../services/assignments.js';
 
 const listQuery = z.object({
   state: z.enum(['coding', 'matched', 'disputed', 'settled', 'withdrawn']).optional(),

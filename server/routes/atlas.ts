@@ -3,7 +3,8 @@ import { z } from 'zod';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { atlasSlugSchema } from '../../shared/schemas/synthesis.js';
-import { RegistryCache, atlasLanding, atlasManipulation, atlasManipulationPooled, atlasOutcome, atlasReferences } from '../services/atlas.js';
+import { RegistryCache } from '../services/registry-cache.js';
+import { atlasLanding, atlasManipulation, atlasManipulationPooled, atlasOutcome, atlasReferences } from '../services/atlas.js';
 
 const refsQuery = z.object({
   page: z.coerce.number().int().min(1).default(1),

@@ -5,7 +5,7 @@ import { saveExtractionSchema, submitExtractionSchema } from '../../shared/schem
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
-import { claimReference, getExtraction, listClaimable, listMyExtractions, saveDraft, submitExtraction } from '../services/extractions.js';
+import { claimReference, getExtraction, listClaimable, listMyExtractions, saveDraft, submitExtraction } from '../services/coding.js';
 
 const idParams = z.object({ id: idParam });
 const mineQuery = z.object({

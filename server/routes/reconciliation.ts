@@ -4,11 +4,9 @@ import { idParam } from '../../shared/schemas/common.js';
 import { reasonSchema, resolveDiscrepancySchema, settleSchema } from '../../shared/schemas/extraction.js';
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
-import { NotFoundError } from '../lib/errors.js';
 import { parseInput } from '../lib/validate.js';
-import {
-  getExtraction, getPair, listQueue, listRecords, reopenRecord, resolveDiscrepancy, settlePair, settleRecordDraft, withdrawRecord,
-} from '../services/extractions.js';
+import { getPair, listQueue, resolveDiscrepancy, settlePair } from '../services/reconciliation.js';
+import { getRecord, listRecords, reopenRecord, settleRecordDraft, withdrawRecord } from '../services/records.js';
 
 const idParams = z.object({ id: idParam });
 const discParams = z.object({ id: idParam, discrepancyId: idParam });
@@ -53,9 +51,7 @@ export function reconciliationRouter(ctx: AppContext) {
 
   router.get('/records/:id', async (req, res) => {
     const { id } = parseInput(idParams, req.params, 'path');
-    const record = await getExtraction(ctx.db, req.user ?? null, id);
-    if (record.extraction.kind !== 'settled') throw new NotFoundError(`No settled record ${id}.`);
-    res.json(record);
+    res.json(await getRecord(ctx.db, req.user ?? null, id));
   });
 
   router.post('/records/:id/reopen', requireRole('curator'), async (req, res) => {

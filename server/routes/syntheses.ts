@@ -4,7 +4,7 @@ import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
 import { synthesisFacets, synthesizeRegistry } from '../services/synthesis.js';
-import { RegistryCache } from '../services/atlas.js';
+import { RegistryCache } from '../services/registry-cache.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
 export function synthesesRouter(ctx: AppContext) {

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { z } from 'zod';
 import { tokenCreateSchema } from '../../shared/schemas/users.js';
-import { createApiToken, listApiTokens, revokeApiToken } from '../auth/api-tokens.js';
+import { createApiToken, listApiTokens, revokeApiToken } from '../services/api-tokens.js';
 import { requireSignIn } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';

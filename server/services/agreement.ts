@@ -2,7 +2,10 @@ import type { Knex } from 'knex';
 import { cohensKappaFromPairs } from '../../shared/agreement/cohens-kappa.js';
 import { icc } from '../../shared/agreement/icc.js';
 import type { Sheet } from '../../shared/schemas/extraction.js';
-import { readSheet, toSheet } from '../db/sheets-repo.js';
+import { toSheet } from '../../shared/extraction/stored-sheet.js';
+import { comparedPairs } from '../repositories/assignments.js';
+import { refLabel } from '../repositories/db.js';
+import { pairSheets, readSheet } from '../repositories/extractions.js';
 import { effectValue } from './comparison.js';
 
 const CATEGORICAL_STUDY = ['design', 'population', 'modality', 'task'] as const;
@@ -39,25 +42,15 @@ function pairValues(a: Sheet, b: Sheet) {
 }
 
 async function loadPairs(db: Knex, filter: { referenceId?: number; assignmentId?: number } = {}): Promise<PairData[]> {
-  const rows = await db('assignments as a')
-    .join('refs as r', 'r.id', 'a.reference_id')
-    .join('users as u1', 'u1.id', 'a.coder1_id')
-    .join('users as u2', 'u2.id', 'a.coder2_id')
-    .whereIn('a.state', ['matched', 'disputed', 'settled'])
-    .modify((q) => {
-      if (filter.referenceId) q.where('a.reference_id', filter.referenceId);
-      if (filter.assignmentId) q.where('a.id', filter.assignmentId);
-    })
-    .orderBy('a.id')
-    .select('a.id', 'a.reference_id', 'a.coder1_id', 'a.coder2_id', 'r.first_author', 'r.year', 'u1.login as l1', 'u2.login as l2');
+  const rows = await comparedPairs(db, filter);
   const out: PairData[] = [];
   for (const r of rows) {
-    const xs = await db('extractions').where({ assignment_id: r.id, kind: 'coding' }).whereNot('state', 'draft');
-    const xa = xs.find((x: any) => x.coder_id === r.coder1_id);
-    const xb = xs.find((x: any) => x.coder_id === r.coder2_id);
+    const xs = await pairSheets(db, r.id, { submittedOnly: true });
+    const xa = xs.find((x) => x.coder_id === r.coder1_id);
+    const xb = xs.find((x) => x.coder_id === r.coder2_id);
     if (!xa || !xb) continue;
     const values = pairValues(toSheet(await readSheet(db, xa.id)), toSheet(await readSheet(db, xb.id)));
-    out.push({ assignmentId: r.id, referenceId: r.reference_id, referenceLabel: `${r.first_author ?? 'Anon.'} ${r.year ?? 'n.d.'}`, coders: [r.l1, r.l2], ...values });
+    out.push({ assignmentId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), coders: [r.l1, r.l2], ...values });
   }
   return out;
 }

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
-import { querySettledEffects } from '../db/effects-repo.js';
-import { querySynthesisRows } from '../db/synthesis-repo.js';
+import { querySettledEffects, querySynthesisRows } from '../repositories/effects.js';
+import { findManipulation, liveVocabulary } from '../repositories/manipulations.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 import { NotFoundError } from '../lib/errors.js';
 import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
@@ -8,63 +8,6 @@ import { OUTCOMES, type OutcomeKind } from '../../shared/vocabulary/outcomes.js'
 import { runSynthesis, metricLabel } from '../../shared/synthesis/run.js';
 import { cautionsFor } from '../../shared/synthesis/cautions.js';
 
-/**
- * Serialized answers keyed by registry version: every settled change bumps the version and so retires
- * the whole cache. The key is the newest change's id and time (not the id alone), so a test database that
- * was truncated and refilled to the same id is not mistaken for the old one.
- */
-export class RegistryCache {
-  private key = '';
-  private entries = new Map<string, Promise<string>>();
-  private bytes = 0;
-  constructor(
-    private readonly maxEntries = 500,
-    /** answers are UTF-16 strings: about 2 bytes a character */
-    private readonly maxChars = 32 * 1024 * 1024,
-  ) {}
-
-  private inflight: Promise<string> | null = null;
-
-  /**
-   * Requests that arrive while a lookup is running share it (single flight): under load one query serves
-   * many requests, and a lone request still reads the version itself.
-   */
-  versionKey(db: Knex): Promise<string> {
-    this.inflight ??= db('registry_changes')
-      .orderBy('id', 'desc')
-      .first('id', 'at')
-      .then((row) => (row ? `${row.id}@${new Date(row.at).getTime()}` : '0'))
-      .finally(() => {
-        this.inflight = null;
-      });
-    return this.inflight;
-  }
-
-  async get(db: Knex, name: string, compute: () => Promise<unknown>): Promise<string> {
-    const key = await this.versionKey(db);
-    if (key !== this.key) {
-      this.key = key;
-      this.entries = new Map();
-      this.bytes = 0;
-    }
-    let hit = this.entries.get(name);
-    if (!hit) {
-      if (this.entries.size >= this.maxEntries || this.bytes >= this.maxChars) {
-        this.entries = new Map();
-        this.bytes = 0;
-      }
-      const entries = this.entries;
-      hit = compute().then((v) => {
-        const text = JSON.stringify(v);
-        if (entries === this.entries) this.bytes += text.length;
-        return text;
-      });
-      hit.catch(() => entries.delete(name));
-      entries.set(name, hit);
-    }
-    return hit;
-  }
-}
 
 const count = (rows: SettledEffect[]) => ({
   effects: rows.length,
@@ -87,14 +30,14 @@ const outcomeLabel = (o: string) => OUTCOMES[o as OutcomeKind]?.label ?? o;
 
 /** Every manipulation and outcome kind with counts of settled references, studies and effects. */
 export async function atlasLanding(db: Knex) {
-  const [rows, vocab] = await Promise.all([querySynthesisRows(db, {}), db('manipulations').whereNull('retired_at').orderBy('label').select('term', 'label', 'description')]);
+  const [rows, vocab] = await Promise.all([querySynthesisRows(db, {}), liveVocabulary(db)]);
   const byManip = groupBy(rows, (r) => r.manipulation);
   const byOutcome = groupBy(rows, (r) => r.outcome);
-  const known = new Set(vocab.map((v: { term: string }) => v.term));
+  const known = new Set(vocab.map((v) => v.term));
   const extra = [...byManip.keys()].filter((t) => !known.has(t)).map((t) => ({ term: t, label: byManip.get(t)![0].manipulationLabel ?? t, description: '' }));
   return {
     totals: count(rows),
-    manipulations: [...vocab, ...extra].map((m: { term: string; label: string; description: string }) => {
+    manipulations: [...vocab, ...extra].map((m) => {
       const rs = byManip.get(m.term) ?? [];
       return { term: m.term, label: m.label, description: m.description, ...count(rs), outcomes: [...new Set(rs.map((r) => r.outcome))].sort() };
     }),
@@ -134,7 +77,7 @@ function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => R
 }
 
 async function manipulationRow(db: Knex, term: string) {
-  const m = await db('manipulations').where({ term }).first('term', 'label', 'description', 'retired_at');
+  const m = await findManipulation(db, term);
   if (!m) throw new NotFoundError(`No manipulation "${term}" in the vocabulary.`);
   return m;
 }

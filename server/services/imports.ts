@@ -3,7 +3,14 @@ import type { AppContext } from '../context.js';
 import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportFormat, type ImportResult } from '../../shared/schemas/references.js';
 import { resolveDoi, setDoiResolver } from '../citations/index.js';
 import { NotFoundError } from '../lib/errors.js';
-import { recordAudit } from './audit.js';
+import { recordAudit } from '../repositories/audit.js';
+import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
+import {
+  batchEntries, countStatuses, entryCounts, entryReferenceIds, finishBatchIfDone, findBatch, insertBatch, insertEntries, listBatches, markBatchDone,
+  pendingEntries, settleEntry, type BatchWithLogin, type EntryCounts,
+} from '../repositories/imports.js';
+import { findRefByDoi, insertRefs, insertRefUnlessDoiTaken, liveRefsWithTitleKeys, refIdsByDoi } from '../repositories/refs.js';
+import type { EntryStatus, ImportEntryRow } from '../repositories/rows.js';
 import { describeEntry, parseDoiList, parseEntries } from './import-parsing.js';
 import { authorKey, cleanCsl, refColumns, type Csl, type RefColumns } from './reference-fields.js';
 import { findDuplicate, offerDuplicate } from './references.js';
@@ -13,16 +20,7 @@ export const DOI_QUEUE = 'doi.resolve';
 const DOI_CHUNK = 10;
 const DOI_CONCURRENCY = 4;
 
-interface EntryRow {
-  batch_id: number;
-  idx: number;
-  entry_key: string | null;
-  status: 'pending' | 'imported' | 'duplicate' | 'rejected';
-  message: string | null;
-  input: string | null;
-  reference_id: number | null;
-  likely_duplicate_of: number | null;
-}
+type EntryRow = ImportEntryRow;
 
 const clip = (s: string, n = 2000) => (s.length > n ? `${s.slice(0, n)}…` : s);
 const fingerprint = (c: Pick<RefColumns, 'title_key' | 'year' | 'first_author'>) => `${c.title_key}|${c.year ?? ''}|${authorKey(c.first_author)}`;
@@ -38,9 +36,7 @@ export async function importText(
 ): Promise<ImportResult> {
   const parsed = parseEntries(input.format, input.text);
   const batchId = await ctx.db.transaction(async (trx) => {
-    const [batch] = await trx('import_batches')
-      .insert({ format: input.format, label: input.label ?? null, total: parsed.length, created_by: input.userId })
-      .returning('id');
+    const batch = { id: await insertBatch(trx, { format: input.format, label: input.label ?? null, total: parsed.length, created_by: input.userId }) };
     const good = parsed.filter((p) => p.ok);
     const cols = new Map<number, { csl: Csl; cols: RefColumns }>();
     for (const p of good) {
@@ -50,20 +46,13 @@ export async function importText(
 
     // What already exists, looked up in bulk: by DOI (merged records point to their survivor) and by title key.
     const dois = [...new Set([...cols.values()].map((c) => c.cols.doi).filter(Boolean))] as string[];
-    const byDoi = new Map<string, number>();
-    for (let i = 0; i < dois.length; i += 1000) {
-      const rows = await trx('refs').whereIn('doi', dois.slice(i, i + 1000)).select('id', 'doi', 'merged_into');
-      for (const r of rows) byDoi.set(r.doi, r.merged_into ?? r.id);
-    }
+    const byDoi = await refIdsByDoi(trx, dois);
     const keys = [...new Set([...cols.values()].map((c) => c.cols.title_key))];
     const byPrint = new Map<string, Array<{ id: number; doi: string | null }>>();
-    for (let i = 0; i < keys.length; i += 1000) {
-      const rows = await trx('refs').whereNull('merged_into').whereIn('title_key', keys.slice(i, i + 1000)).select('id', 'doi', 'title_key', 'year', 'first_author').orderBy('id');
-      for (const r of rows) {
-        const f = fingerprint(r);
-        if (!byPrint.has(f)) byPrint.set(f, []);
-        byPrint.get(f)!.push({ id: r.id, doi: r.doi });
-      }
+    for (const r of await liveRefsWithTitleKeys(trx, keys)) {
+      const f = fingerprint(r);
+      if (!byPrint.has(f)) byPrint.set(f, []);
+      byPrint.get(f)!.push({ id: r.id, doi: r.doi });
     }
 
     // Decide every entry in file order; entries new to the registry get a slot filled after the insert.
@@ -114,13 +103,7 @@ export async function importText(
       decisions.set(p.index, { kind: 'new', slot, likely });
     }
 
-    const slotIds: number[] = [];
-    for (let i = 0; i < newRows.length; i += 500) {
-      const rows = await trx('refs')
-        .insert(newRows.slice(i, i + 500).map((r) => ({ csl: JSON.stringify(r.csl), ...r.cols, source: input.format, created_by: input.userId })))
-        .returning('id');
-      slotIds.push(...rows.map((r: { id: number }) => r.id));
-    }
+    const slotIds = await insertRefs(trx, newRows.map((r) => ({ csl: r.csl, cols: r.cols, source: input.format, createdBy: input.userId })));
     const resolve = (v: number | { slot: number }) => (typeof v === 'number' ? v : slotIds[v.slot]);
 
     const entryRows: EntryRow[] = parsed.map((p) => {
@@ -138,22 +121,16 @@ export async function importText(
         message: likely ? `imported; looks like reference #${likely} (same title, year and first author) and is offered to curators as a likely duplicate` : null,
       };
     });
-    for (let i = 0; i < entryRows.length; i += 1000) await trx('import_entries').insert(entryRows.slice(i, i + 1000));
+    await insertEntries(trx, entryRows);
     for (const e of entryRows) if (e.likely_duplicate_of && e.reference_id) await offerDuplicate(trx, e.likely_duplicate_of, e.reference_id, 'same title, year and first author');
-    await trx('import_batches').where({ id: batch.id }).update({ state: 'done', finished_at: trx.fn.now() });
-    const counts = countOf(entryRows);
+    await markBatchDone(trx, batch.id);
+    const counts = countStatuses(entryRows);
     await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: batch.id, details: { format: input.format, total: parsed.length, ...counts } });
     return batch.id as number;
   });
-  const created = await ctx.db('import_entries').where({ batch_id: batchId, status: 'imported' }).pluck('reference_id');
+  const created = await entryReferenceIds(ctx.db, batchId, 'imported');
   await syncReferences(ctx, created);
   return getImport(ctx.db, batchId);
-}
-
-function countOf(rows: Array<Pick<EntryRow, 'status'>>) {
-  const c = { imported: 0, duplicate: 0, rejected: 0, pending: 0 };
-  for (const r of rows) c[r.status]++;
-  return c;
 }
 
 /** A DOI list: a batch whose entries are resolved by background jobs; answers at once with the batch. */
@@ -161,7 +138,7 @@ export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' 
   const list = parseDoiList(input.text);
   const seen = new Map<string, number>();
   const batchId = await ctx.db.transaction(async (trx) => {
-    const [batch] = await trx('import_batches').insert({ format: 'doi', label: input.label ?? null, total: list.length, created_by: input.userId }).returning('id');
+    const batch = { id: await insertBatch(trx, { format: 'doi', label: input.label ?? null, total: list.length, created_by: input.userId }) };
     const rows: EntryRow[] = list.map((e) => {
       const base = { batch_id: batch.id, idx: e.index, entry_key: e.text.slice(0, 200), input: null, reference_id: null, likely_duplicate_of: null };
       if (!e.doi) return { ...base, status: 'rejected' as const, message: `${describeEntry(e, 'doi')}: "${clip(e.text, 80)}" is not a DOI (a DOI looks like 10.5555/abc)`, input: clip(e.text) };
@@ -169,11 +146,11 @@ export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' 
       seen.set(e.doi, e.index);
       return { ...base, status: 'pending' as const, message: null };
     });
-    for (let i = 0; i < rows.length; i += 1000) await trx('import_entries').insert(rows.slice(i, i + 1000));
+    await insertEntries(trx, rows);
     await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: batch.id, details: { format: 'doi', total: list.length } });
     return batch.id as number;
   });
-  const pending: number[] = await ctx.db('import_entries').where({ batch_id: batchId, status: 'pending' }).orderBy('idx').pluck('idx');
+  const pending = (await pendingEntries(ctx.db, batchId)).map((e) => e.idx);
   if (!pending.length) await finishIfDone(ctx.db, batchId);
   else if (ctx.env.JOBS_ENABLED === 'true') {
     for (let i = 0; i < pending.length; i += DOI_CHUNK) {
@@ -191,9 +168,9 @@ export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' 
 /** The `doi.resolve` job: resolves pending entries of a batch; safe to run twice (only pending entries are touched). */
 export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 'env'>, job: { batchId: number; entries: number[] }): Promise<void> {
   setDoiResolver(ctx.env.DOI_RESOLVER_URL);
-  const batch = await ctx.db('import_batches').where({ id: job.batchId }).first('id', 'created_by');
+  const batch = await findBatch(ctx.db, job.batchId);
   if (!batch) return;
-  const rows: EntryRow[] = await ctx.db('import_entries').where({ batch_id: job.batchId, status: 'pending' }).whereIn('idx', job.entries).orderBy('idx');
+  const rows = await pendingEntries(ctx.db, job.batchId, job.entries);
   const created: number[] = [];
   let next = 0;
   const worker = async () => {
@@ -211,16 +188,11 @@ export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 
           if (!cols.doi) cols.doi = doi.toLowerCase();
           const dup = await findDuplicate(trx, cols);
           if (dup.exact) return { status: 'duplicate' as const, reference_id: dup.exact, message: `${where}: ${doi} is already reference #${dup.exact}` };
-          const ins = await trx('refs')
-            .insert({ csl: JSON.stringify(csl), ...cols, source: 'doi', created_by: batch.created_by })
-            .onConflict('doi')
-            .ignore()
-            .returning('id');
-          if (!ins.length) {
-            const other = await trx('refs').where({ doi: cols.doi }).first('id', 'merged_into');
+          const id = await insertRefUnlessDoiTaken(trx, { csl, cols, source: 'doi', createdBy: batch.created_by });
+          if (id === null) {
+            const other = await findRefByDoi(trx, cols.doi);
             return { status: 'duplicate' as const, reference_id: other?.merged_into ?? other?.id ?? null, message: `${where}: ${doi} was imported at the same moment by another entry` };
           }
-          const id = ins[0].id as number;
           created.push(id);
           if (dup.likely) await offerDuplicate(trx, dup.likely, id, 'same title, year and first author');
           return {
@@ -233,7 +205,7 @@ export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 
       } catch (err) {
         update = { status: 'rejected', message: `${where}: ${doi}: ${(err as Error).message}` };
       }
-      await ctx.db('import_entries').where({ batch_id: row.batch_id, idx: row.idx, status: 'pending' }).update({ ...update, updated_at: ctx.db.fn.now() });
+      await settleEntry(ctx.db, row.batch_id, row.idx, update);
     }
   };
   await Promise.all(Array.from({ length: Math.min(DOI_CONCURRENCY, rows.length) }, worker));
@@ -243,19 +215,12 @@ export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 
 
 async function finishIfDone(db: Knex, batchId: number) {
   await db.transaction(async (trx) => {
-    const updated = await trx('import_batches')
-      .where({ id: batchId, state: 'running' })
-      .whereNotExists(trx('import_entries').where({ batch_id: batchId, status: 'pending' }).select(trx.raw('1')))
-      .update({ state: 'done', finished_at: trx.fn.now() })
-      .returning(['id', 'created_by']);
-    if (updated.length) {
-      const counts = countOf(await trx('import_entries').where({ batch_id: batchId }).select('status'));
-      await recordAudit(trx, { actorId: updated[0].created_by ?? null, action: 'import.finish', entityType: 'import_batch', entityId: batchId, details: counts });
-    }
+    const finished = await finishBatchIfDone(trx, batchId);
+    if (finished) await recordAudit(trx, { actorId: finished.created_by ?? null, action: 'import.finish', entityType: 'import_batch', entityId: batchId, details: await entryCounts(trx, batchId) });
   });
 }
 
-function batchView(row: Record<string, any>, counts: ImportBatchView['counts']): ImportBatchView {
+function batchView(row: BatchWithLogin, counts: EntryCounts): ImportBatchView {
   return {
     id: row.id,
     format: row.format as ImportFormat,
@@ -264,9 +229,9 @@ function batchView(row: Record<string, any>, counts: ImportBatchView['counts']):
     total: row.total,
     processed: row.total - counts.pending,
     counts,
-    createdAt: new Date(row.created_at).toISOString(),
-    finishedAt: row.finished_at ? new Date(row.finished_at).toISOString() : null,
-    createdBy: row.created_by ? { id: row.created_by, login: row.login } : null,
+    createdAt: iso(row.created_at),
+    finishedAt: isoOrNull(row.finished_at),
+    createdBy: row.created_by ? { id: row.created_by, login: row.login ?? '' } : null,
   };
 }
 
@@ -274,21 +239,12 @@ function batchView(row: Record<string, any>, counts: ImportBatchView['counts']):
  * A batch and its entries. Without paging the answer holds every entry (the API contract); the screen asks
  * for one page of entries at a time, optionally of one status.
  */
-export async function getImport(
-  db: Knex,
-  id: number,
-  paging?: { page: number; pageSize: number; status?: EntryRow['status'] },
-): Promise<ImportResult & { entriesTotal: number }> {
-  const row = await db('import_batches').leftJoin('users', 'users.id', 'import_batches.created_by').where('import_batches.id', id).first('import_batches.*', 'users.login');
+export async function getImport(db: Knex, id: number, paging?: PageRequest & { status?: EntryStatus }): Promise<ImportResult & { entriesTotal: number }> {
+  const row = await findBatch(db, id);
   if (!row) throw new NotFoundError(`There is no import batch ${id}.`);
-  const counts = countOf(await db('import_entries').where({ batch_id: id }).select('status'));
-  const filtered = db('import_entries').where({ batch_id: id }).modify((qb) => (paging?.status ? qb.where('status', paging.status) : qb));
-  const [{ n }] = await filtered.clone().count<{ n: number }[]>({ n: '*' });
-  const entries: EntryRow[] = await filtered
-    .clone()
-    .orderBy('idx')
-    .modify((qb) => (paging ? qb.limit(paging.pageSize).offset((paging.page - 1) * paging.pageSize) : qb));
-  const view = entries.map((e): ImportEntryView => ({
+  const counts = await entryCounts(db, id);
+  const { total, rows } = await batchEntries(db, id, paging);
+  const view = rows.map((e): ImportEntryView => ({
     index: e.idx,
     status: e.status,
     ...(e.message ? { message: e.message } : {}),
@@ -296,29 +252,10 @@ export async function getImport(
     ...(e.entry_key ? { key: e.entry_key } : {}),
     ...(e.likely_duplicate_of ? { likelyDuplicateOf: e.likely_duplicate_of } : {}),
   }));
-  return { batch: batchView(row, counts), entries: view, entriesTotal: Number(n) };
+  return { batch: batchView(row, counts), entries: view, entriesTotal: total };
 }
 
-export async function listImports(db: Knex, q: { page: number; pageSize: number; sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }) {
-  const [{ count }] = await db('import_batches').count<{ count: number }[]>({ count: '*' });
-  const rows = await db('import_batches')
-    .leftJoin('users', 'users.id', 'import_batches.created_by')
-    .select('import_batches.*', 'users.login')
-    .orderBy(`import_batches.${q.sort}`, q.order)
-    .orderBy('import_batches.id', 'desc')
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
-  const ids = rows.map((r: { id: number }) => r.id);
-  const counts = ids.length ? await db('import_entries').whereIn('batch_id', ids).groupBy('batch_id', 'status').select('batch_id', 'status').count({ n: '*' }) : [];
-  return {
-    items: rows.map((r: Record<string, any>) => {
-      const c = { imported: 0, duplicate: 0, rejected: 0, pending: 0 };
-      for (const x of counts as Array<{ batch_id: number; status: keyof typeof c; n: number }>) if (x.batch_id === r.id) c[x.status] = Number(x.n);
-      return batchView(r, c);
-    }),
-    total: Number(count),
-    page: q.page,
-    pageSize: q.pageSize,
-  };
+export async function listImports(db: Knex, q: PageRequest & { sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }) {
+  const { total, rows } = await listBatches(db, q);
+  return { items: rows.map((r) => batchView(r.row, r.counts)), total, page: q.page, pageSize: q.pageSize };
 }
-

@@ -1,16 +1,10 @@
 // Pure helpers: the indexed columns of a reference, computed from its CSL-JSON.
 import { normaliseDoi } from '../../shared/schemas/references.js';
+import type { RefColumns } from '../repositories/refs.js';
 
 export type Csl = Record<string, any>;
 
-export interface RefColumns {
-  doi: string | null;
-  title: string;
-  year: number | null;
-  first_author: string | null;
-  container: string | null;
-  title_key: string;
-}
+export type { RefColumns };
 
 /** Lower case, accents and punctuation removed, single spaces: "The {Kappa} Effect!" → "the kappa effect". */
 export function normaliseText(s: string): string {

@@ -2,10 +2,16 @@ import type { Knex } from 'knex';
 import type { ReferenceEdit, ReferenceListQuery } from '../../shared/schemas/references.js';
 import { toBibtex } from '../citations/index.js';
 import { ConflictError, NotFoundError, UnprocessableError } from '../lib/errors.js';
-import { recordAudit } from './audit.js';
+import { recordAudit } from '../repositories/audit.js';
+import { iso, isoOrNull, type Db } from '../repositories/db.js';
+import { importsOfRef } from '../repositories/imports.js';
+import {
+  attachmentsOf, decideCandidate, findCandidate, findRefByDoi, findRefWithCreator, insertDuplicateCandidate, insertRef, listCandidates, listRefs,
+  liveRefsWithTitle, lockCandidate, lockRef, lockRefs, markMerged, openCandidatesOf, otherRefWithDoi, refForeignKeys, refsByIds, repointForeignKey,
+  repointMergedInto, updateRef, type RefColumns, type RefSummaryRow,
+} from '../repositories/refs.js';
+import { decisionsOf, latestDecision } from '../repositories/screening.js';
 import { authorKey, cleanCsl, cslAuthors, refColumns, richness, type Csl } from './reference-fields.js';
-
-type Db = Knex | Knex.Transaction;
 
 export interface CreateReferenceOptions {
   /** Where the record came from: 'bibtex' | 'ris' | 'doi' | 'manual' | 'seed' … (PRISMA "records identified" per source). */
@@ -36,34 +42,24 @@ export class ReferenceInputError extends Error {
  * author when neither side has a DOI (nothing could tell them apart). Likely: the same title key, year and
  * first author where one side has a DOI the other lacks or they differ — offered to a curator, never merged here.
  */
-export async function findDuplicate(db: Db, cols: ReturnType<typeof refColumns>): Promise<{ exact?: number; likely?: number }> {
+export async function findDuplicate(db: Db, cols: RefColumns): Promise<{ exact?: number; likely?: number }> {
   if (cols.doi) {
-    const byDoi = await db('refs').where({ doi: cols.doi }).first('id', 'merged_into');
+    const byDoi = await findRefByDoi(db, cols.doi);
     if (byDoi) return { exact: byDoi.merged_into ?? byDoi.id };
   }
   if (!cols.title_key) return {};
-  const same = await db('refs')
-    .whereNull('merged_into')
-    .where({ title_key: cols.title_key })
-    .modify((qb) => (cols.year == null ? qb.whereNull('year') : qb.where('year', cols.year)))
-    .select('id', 'doi', 'first_author')
-    .orderBy('id');
   const ak = authorKey(cols.first_author);
-  const matches = same.filter((r: { first_author: string | null }) => authorKey(r.first_author) === ak);
+  const matches = (await liveRefsWithTitle(db, cols.title_key, cols.year)).filter((r) => authorKey(r.first_author) === ak);
   if (!matches.length) return {};
   if (!cols.doi) {
-    const noDoi = matches.find((r: { doi: string | null }) => !r.doi);
+    const noDoi = matches.find((r) => !r.doi);
     if (noDoi) return { exact: noDoi.id };
   }
   return { likely: matches[0].id };
 }
 
-/** Records a likely-duplicate pair for the curators' list (ordered so each pair is stored once). */
-export async function offerDuplicate(db: Db, a: number, b: number, reason: string): Promise<void> {
-  if (a === b) return;
-  const [refA, refB] = a < b ? [a, b] : [b, a];
-  await db('ref_duplicate_candidates').insert({ ref_a: refA, ref_b: refB, reason }).onConflict(['ref_a', 'ref_b']).ignore();
-}
+/** Records a likely-duplicate pair for the curators' list. */
+export const offerDuplicate = insertDuplicateCandidate;
 
 /**
  * Creates a reference from CSL-JSON, computing doi/title/year/first_author/container/title_key.
@@ -77,15 +73,12 @@ export async function createReference(db: Db, csl: Csl, opts: CreateReferenceOpt
   if (!cols.title) throw new ReferenceInputError('title', 'field title is missing');
   const dup = await findDuplicate(db, cols);
   if (dup.exact) return { id: dup.exact, created: false };
-  const [row] = await db('refs')
-    .insert({ csl: JSON.stringify(clean), ...cols, source: opts.source, created_by: opts.createdBy ?? null })
-    .returning('id');
-  if (dup.likely) await offerDuplicate(db, dup.likely, row.id, 'same title, year and first author');
-  return { id: row.id, created: true, ...(dup.likely ? { likelyDuplicateOf: dup.likely } : {}) };
+  const id = await insertRef(db, { csl: clean, cols, source: opts.source, createdBy: opts.createdBy ?? null });
+  if (dup.likely) await offerDuplicate(db, dup.likely, id, 'same title, year and first author');
+  return { id, created: true, ...(dup.likely ? { likelyDuplicateOf: dup.likely } : {}) };
 }
 
 // ---- reading, editing, exporting and merging references
-
 
 export interface ReferenceSummary {
   id: number;
@@ -100,9 +93,7 @@ export interface ReferenceSummary {
   createdAt: string;
 }
 
-const SUMMARY_COLUMNS = ['id', 'csl', 'title', 'year', 'first_author', 'container', 'doi', 'source', 'screening_status', 'merged_into', 'version', 'created_at', 'updated_at', 'created_by'];
-
-export function summary(r: Record<string, any>): ReferenceSummary {
+export function summary(r: RefSummaryRow): ReferenceSummary {
   return {
     id: r.id,
     title: r.title,
@@ -113,88 +104,61 @@ export function summary(r: Record<string, any>): ReferenceSummary {
     doi: r.doi,
     source: r.source,
     screeningStatus: r.screening_status,
-    createdAt: new Date(r.created_at).toISOString(),
+    createdAt: iso(r.created_at),
   };
 }
 
 export async function listReferences(db: Knex, q: ReferenceListQuery) {
-  const base = db('refs')
-    .whereNull('merged_into')
-    .modify((qb) => {
-      if (q.q) {
-        const like = `%${q.q.replace(/[\\%_]/g, '\\$&')}%`;
-        qb.where((w) => w.whereILike('title', like).orWhereILike('first_author', like).orWhereILike('doi', like).orWhereILike('container', like));
-      }
-      if (q.status) qb.where('screening_status', q.status);
-      if (q.source) qb.where('source', q.source);
-      if (q.yearFrom !== undefined) qb.where('year', '>=', q.yearFrom);
-      if (q.yearTo !== undefined) qb.where('year', '<=', q.yearTo);
-      if (q.batch) qb.whereIn('id', db('import_entries').where({ batch_id: q.batch }).whereNotNull('reference_id').select('reference_id'));
-    });
-  const [{ count }] = await base.clone().count<{ count: number }[]>({ count: '*' });
-  const rows = await base
-    .clone()
-    .select(SUMMARY_COLUMNS)
-    .orderByRaw(`${q.sort === 'title' ? 'lower(title)' : q.sort} ${q.order} NULLS LAST`)
-    .orderBy('id', q.order)
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
-  return { items: rows.map(summary), total: Number(count), page: q.page, pageSize: q.pageSize };
+  const { total, rows } = await listRefs(db, q);
+  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize };
 }
 
+const who = (id: number | null, login: string | null) => (id ? { id, login: login ?? '' } : null);
+
 export async function getReference(db: Knex, id: number) {
-  const r = await db('refs').leftJoin('users', 'users.id', 'refs.created_by').where('refs.id', id).first('refs.*', 'users.login as created_by_login');
+  const r = await findRefWithCreator(db, id);
   if (!r) throw new NotFoundError(`There is no reference ${id}.`);
-  const [screening, attachments, duplicates, imports] = await Promise.all([
-    db('screening_decisions')
-      .leftJoin('users', 'users.id', 'screening_decisions.decided_by')
-      .where('ref_id', id)
-      .orderBy([{ column: 'decided_at', order: 'desc' }, { column: 'screening_decisions.id', order: 'desc' }])
-      .select('screening_decisions.*', 'users.login'),
-    db('reference_attachments').leftJoin('users', 'users.id', 'reference_attachments.uploaded_by').where('ref_id', id).orderBy('reference_attachments.id').select('reference_attachments.*', 'users.login'),
-    db('ref_duplicate_candidates').where('status', 'open').andWhere((w) => w.where('ref_a', id).orWhere('ref_b', id)).select('*'),
-    db('import_entries').join('import_batches', 'import_batches.id', 'import_entries.batch_id').where('reference_id', id).orderBy('import_batches.id').select('import_batches.id as batch_id', 'import_batches.format', 'import_entries.idx', 'import_entries.status', 'import_batches.created_at'),
-  ]);
+  const [screening, attachments, duplicates, imports] = await Promise.all([decisionsOf(db, id), attachmentsOf(db, id), openCandidatesOf(db, id), importsOfRef(db, id)]);
   return {
     reference: {
       ...summary(r),
       csl: r.csl,
       mergedInto: r.merged_into,
       version: r.version,
-      updatedAt: new Date(r.updated_at).toISOString(),
-      createdBy: r.created_by ? { id: r.created_by, login: r.created_by_login } : null,
+      updatedAt: iso(r.updated_at),
+      createdBy: who(r.created_by, r.created_by_login),
       abstract: typeof r.csl?.abstract === 'string' ? r.csl.abstract : null,
     },
-    screening: screening.map((s: Record<string, any>) => ({
+    screening: screening.map((s) => ({
       id: s.id,
       decision: s.decision,
       reason: s.reason,
       note: s.note,
-      decidedAt: new Date(s.decided_at).toISOString(),
-      decidedBy: s.decided_by ? { id: s.decided_by, login: s.login } : null,
+      decidedAt: iso(s.decided_at),
+      decidedBy: who(s.decided_by, s.login),
       refId: s.ref_id,
     })),
-    attachments: attachments.map((a: Record<string, any>) => ({
+    attachments: attachments.map((a) => ({
       id: a.id,
       filename: a.filename,
       sizeBytes: a.size_bytes,
       mime: a.mime,
-      createdAt: new Date(a.created_at).toISOString(),
-      uploadedBy: a.uploaded_by ? { id: a.uploaded_by, login: a.login } : null,
+      createdAt: iso(a.created_at),
+      uploadedBy: who(a.uploaded_by, a.login),
     })),
-    duplicates: duplicates.map((d: Record<string, any>) => ({ candidateId: d.id, otherId: d.ref_a === id ? d.ref_b : d.ref_a, reason: d.reason })),
-    imports: imports.map((i: Record<string, any>) => ({ batchId: i.batch_id, format: i.format, index: i.idx, status: i.status, at: new Date(i.created_at).toISOString() })),
+    duplicates: duplicates.map((d) => ({ candidateId: d.id, otherId: d.ref_a === id ? d.ref_b : d.ref_a, reason: d.reason })),
+    imports: imports.map((i) => ({ batchId: i.batch_id, format: i.format, index: i.idx, status: i.status, at: iso(i.created_at) })),
   };
 }
 
 /** Edits the bibliographic fields (optimistic: the caller sends the version it saw). */
 export async function editReference(db: Knex, id: number, edit: ReferenceEdit, actorId: number) {
   return db.transaction(async (trx) => {
-    const r = await trx('refs').where({ id }).forUpdate().first();
+    const r = await lockRef(trx, id);
     if (!r) throw new NotFoundError(`There is no reference ${id}.`);
     if (r.merged_into) throw new ConflictError(`Reference ${id} was merged into reference ${r.merged_into}; edit that one.`, { mergedInto: r.merged_into });
     if (r.version !== edit.version) throw new ConflictError(`Reference ${id} was changed by someone else (now version ${r.version}); reload it and edit again.`, { version: r.version });
-    const csl = { ...r.csl };
+    const csl: Csl = { ...r.csl };
     const changed: Record<string, { from: unknown; to: unknown }> = {};
     const set = (key: string, value: unknown) => {
       const from = csl[key];
@@ -213,10 +177,10 @@ export async function editReference(db: Knex, id: number, edit: ReferenceEdit, a
     const cols = refColumns(csl);
     if (!cols.title) throw new UnprocessableError('A reference needs a title.', [{ path: 'body.title', message: 'a reference needs a title' }]);
     if (cols.doi && cols.doi !== r.doi) {
-      const other = await trx('refs').where({ doi: cols.doi }).whereNot({ id }).first('id');
+      const other = await otherRefWithDoi(trx, cols.doi, id);
       if (other) throw new ConflictError(`DOI ${cols.doi} already belongs to reference ${other.id}.`, [{ path: 'body.doi', message: `already reference #${other.id}` }]);
     }
-    await trx('refs').where({ id }).update({ csl: JSON.stringify(csl), ...cols, version: r.version + 1, updated_at: trx.fn.now() });
+    await updateRef(trx, id, { csl, ...cols, version: r.version + 1 });
     const likely = await findDuplicate(trx, cols);
     if (likely.likely && likely.likely !== id) await offerDuplicate(trx, likely.likely, id, 'same title, year and first author');
     await recordAudit(trx, { actorId, action: 'reference.edit', entityType: 'reference', entityId: id, details: { changed, version: r.version + 1 } });
@@ -225,8 +189,8 @@ export async function editReference(db: Knex, id: number, edit: ReferenceEdit, a
 }
 
 export async function exportReferences(db: Knex, ids: number[], format: 'bibtex' | 'csl-json'): Promise<{ body: string; type: string; filename: string }> {
-  const rows = await db('refs').whereIn('id', ids).select('id', 'csl', 'first_author', 'year', 'merged_into');
-  const byId = new Map(rows.map((r: Record<string, any>) => [r.id, r]));
+  const rows = await refsByIds(db, ids);
+  const byId = new Map(rows.map((r) => [r.id, r]));
   const missing = ids.filter((i) => !byId.has(i));
   if (missing.length) throw new NotFoundError(`No reference with id ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? '…' : ''}.`);
   const records = ids.map((i) => {
@@ -237,19 +201,6 @@ export async function exportReferences(db: Knex, ids: number[], format: 'bibtex'
   if (format === 'csl-json') return { body: JSON.stringify(records, null, 2), type: 'application/vnd.citationstyles.csl+json', filename: 'chronometa-references.json' };
   return { body: toBibtex(records), type: 'application/x-bibtex', filename: 'chronometa-references.bib' };
 }
-
-/** Every single-column foreign key to refs.id in the database, found in the catalog (so later tables move too). */
-async function refForeignKeys(db: Knex | Knex.Transaction): Promise<Array<{ table: string; column: string }>> {
-  const { rows } = await db.raw(`
-    SELECT c.conrelid::regclass::text AS "table", a.attname AS "column"
-    FROM pg_constraint c
-    JOIN pg_attribute a ON a.attrelid = c.conrelid AND a.attnum = c.conkey[1]
-    WHERE c.contype = 'f' AND c.confrelid = 'refs'::regclass AND array_length(c.conkey, 1) = 1
-    ORDER BY 1, 2`);
-  return rows;
-}
-
-const quoteIdent = (s: string) => s.split('.').map((p) => `"${p.replace(/^"|"$/g, '').replace(/"/g, '""')}"`).join('.');
 
 /**
  * Merges two references: the survivor (the curator's choice or the richer record) keeps its record and gains
@@ -262,10 +213,11 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
     throw new UnprocessableError(`keep must be one of the two references (${input.a} or ${input.b}).`, [{ path: 'body.keep', message: `choose ${input.a} or ${input.b}` }]);
   }
   return db.transaction(async (trx) => {
-    const rows = await trx('refs').whereIn('id', [input.a, input.b]).forUpdate().select('*');
-    if (rows.length !== 2) throw new NotFoundError(`Reference ${rows.some((r: { id: number }) => r.id === input.a) ? input.b : input.a} does not exist.`);
+    const rows = await lockRefs(trx, [input.a, input.b]);
+    if (rows.length !== 2) throw new NotFoundError(`Reference ${rows.some((r) => r.id === input.a) ? input.b : input.a} does not exist.`);
     for (const r of rows) if (r.merged_into) throw new ConflictError(`Reference ${r.id} was already merged into reference ${r.merged_into}.`);
-    const [ra, rb] = [rows.find((r: { id: number }) => r.id === input.a), rows.find((r: { id: number }) => r.id === input.b)];
+    const ra = rows.find((r) => r.id === input.a)!;
+    const rb = rows.find((r) => r.id === input.b)!;
     let survivor = input.keep === undefined ? null : input.keep === ra.id ? ra : rb;
     if (!survivor) {
       const sa = richness(ra.csl);
@@ -278,10 +230,7 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
     for (const fk of await refForeignKeys(trx)) {
       if ((fk.table === 'refs' && fk.column === 'merged_into') || fk.table === 'ref_duplicate_candidates') continue;
       try {
-        const n = await trx.transaction(async (sp) => {
-          const res = await sp.raw(`UPDATE ${quoteIdent(fk.table)} SET ${quoteIdent(fk.column)} = ? WHERE ${quoteIdent(fk.column)} = ?`, [survivor.id, loser.id]);
-          return res.rowCount as number;
-        });
+        const n = await repointForeignKey(trx, fk, loser.id, survivor.id);
         if (n) moved[`${fk.table}.${fk.column}`] = n;
       } catch (err) {
         if ((err as { code?: string }).code === '23505') {
@@ -290,28 +239,24 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
         throw err;
       }
     }
-    const chained = await trx('refs').where({ merged_into: loser.id }).update({ merged_into: survivor.id });
+    const chained = await repointMergedInto(trx, loser.id, survivor.id);
     if (chained) moved['refs.merged_into'] = chained;
 
     // Likely-duplicate pairs: this one is settled; others that named the merged record now name the survivor.
-    const pairs = await trx('ref_duplicate_candidates').where('status', 'open').andWhere((w) => w.where('ref_a', loser.id).orWhere('ref_b', loser.id));
-    for (const p of pairs) {
+    for (const p of await openCandidatesOf(trx, loser.id)) {
       const other = p.ref_a === loser.id ? p.ref_b : p.ref_a;
-      await trx('ref_duplicate_candidates').where({ id: p.id }).update({ status: 'merged', kept_ref: survivor.id, decided_by: input.actorId, decided_at: trx.fn.now() });
+      await decideCandidate(trx, p.id, { status: 'merged', keptRef: survivor.id, decidedBy: input.actorId });
       if (other !== survivor.id) await offerDuplicate(trx, other, survivor.id, p.reason);
     }
 
-    const survivorCsl = { ...survivor.csl };
-    const survivorUpdate: Record<string, unknown> = { version: survivor.version + 1, updated_at: trx.fn.now() };
-    await trx('refs').where({ id: loser.id }).update({ merged_into: survivor.id, doi: null, version: loser.version + 1, updated_at: trx.fn.now() });
-    if (!survivor.doi && loser.doi) {
-      survivorCsl.DOI = loser.doi;
-      survivorUpdate.doi = loser.doi;
-      survivorUpdate.csl = JSON.stringify(survivorCsl);
-    }
-    const latest = await trx('screening_decisions').where({ ref_id: survivor.id }).orderBy([{ column: 'decided_at', order: 'desc' }, { column: 'id', order: 'desc' }]).first('decision');
-    survivorUpdate.screening_status = latest?.decision ?? 'unscreened';
-    await trx('refs').where({ id: survivor.id }).update(survivorUpdate);
+    await markMerged(trx, loser, survivor.id);
+    const latest = await latestDecision(trx, survivor.id);
+    const takesDoi = !survivor.doi && loser.doi;
+    await updateRef(trx, survivor.id, {
+      version: survivor.version + 1,
+      screening_status: latest?.decision ?? 'unscreened',
+      ...(takesDoi ? { doi: loser.doi, csl: { ...survivor.csl, DOI: loser.doi } } : {}),
+    });
     await recordAudit(trx, {
       actorId: input.actorId,
       action: 'reference.merge',
@@ -324,58 +269,45 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
 }
 
 export async function listDuplicateCandidates(db: Knex, q: { status: 'open' | 'merged' | 'dismissed'; page: number; pageSize: number; sort: 'created_at' | 'year'; order: 'asc' | 'desc' }) {
-  const base = db('ref_duplicate_candidates as d').where('d.status', q.status);
-  const [{ count }] = await base.clone().count<{ count: number }[]>({ count: '*' });
-  const rows = await base
-    .clone()
-    .join('refs as a', 'a.id', 'd.ref_a')
-    .leftJoin('users as u', 'u.id', 'd.decided_by')
-    .select('d.*', 'u.login as decided_login')
-    .orderBy(q.sort === 'year' ? 'a.year' : 'd.created_at', q.order)
-    .orderBy('d.id', q.order)
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
-  const ids = [...new Set(rows.flatMap((r: Record<string, any>) => [r.ref_a, r.ref_b]))];
-  const refs = ids.length ? await db('refs').whereIn('id', ids).select(SUMMARY_COLUMNS) : [];
-  const byId = new Map(refs.map((r: Record<string, any>) => [r.id, r]));
+  const { total, rows } = await listCandidates(db, q);
+  const refs = await refsByIds(db, [...new Set(rows.flatMap((r) => [r.ref_a, r.ref_b]))]);
+  const byId = new Map(refs.map((r) => [r.id, r]));
   const side = (id: number) => {
     const r = byId.get(id)!;
     return { ...summary(r), richness: Math.round(richness(r.csl) * 10) / 10, mergedInto: r.merged_into, fields: Object.keys(r.csl ?? {}).filter((k) => !k.startsWith('_')).length };
   };
   return {
-    items: rows.map((r: Record<string, any>) => ({
+    items: rows.map((r) => ({
       id: r.id,
       reason: r.reason,
       status: r.status,
-      createdAt: new Date(r.created_at).toISOString(),
-      decidedAt: r.decided_at ? new Date(r.decided_at).toISOString() : null,
-      decidedBy: r.decided_by ? { id: r.decided_by, login: r.decided_login } : null,
+      createdAt: iso(r.created_at),
+      decidedAt: isoOrNull(r.decided_at),
+      decidedBy: who(r.decided_by, r.decided_login),
       keptRef: r.kept_ref,
       a: side(r.ref_a),
       b: side(r.ref_b),
     })),
-    total: Number(count),
+    total,
     page: q.page,
     pageSize: q.pageSize,
   };
 }
 
 export async function mergeCandidate(db: Knex, candidateId: number, keep: number | undefined, actorId: number) {
-  const c = await db('ref_duplicate_candidates').where({ id: candidateId }).first();
+  const c = await findCandidate(db, candidateId);
   if (!c) throw new NotFoundError(`There is no duplicate candidate ${candidateId}.`);
   if (c.status !== 'open') throw new ConflictError(`Candidate ${candidateId} is already ${c.status}.`);
-  const result = await mergeReferences(db, { a: c.ref_a, b: c.ref_b, keep, candidateId, actorId });
-  return result;
+  return mergeReferences(db, { a: c.ref_a, b: c.ref_b, keep, candidateId, actorId });
 }
 
 export async function dismissCandidate(db: Knex, candidateId: number, actorId: number) {
   return db.transaction(async (trx) => {
-    const c = await trx('ref_duplicate_candidates').where({ id: candidateId }).forUpdate().first();
+    const c = await lockCandidate(trx, candidateId);
     if (!c) throw new NotFoundError(`There is no duplicate candidate ${candidateId}.`);
     if (c.status !== 'open') throw new ConflictError(`Candidate ${candidateId} is already ${c.status}.`);
-    await trx('ref_duplicate_candidates').where({ id: candidateId }).update({ status: 'dismissed', decided_by: actorId, decided_at: trx.fn.now() });
+    await decideCandidate(trx, candidateId, { status: 'dismissed', decidedBy: actorId });
     await recordAudit(trx, { actorId, action: 'reference.duplicate_dismissed', entityType: 'reference', entityId: c.ref_a, details: { candidate: candidateId, refs: [c.ref_a, c.ref_b] } });
     return { id: candidateId, status: 'dismissed' as const };
   });
 }
-

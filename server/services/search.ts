@@ -3,6 +3,7 @@ import type { AppContext } from '../context.js';
 import type { SearchQuery, SearchResult } from '../../shared/schemas/references.js';
 import { AppError } from '../lib/errors.js';
 import { REFERENCES_INDEX, SearchUnavailableError, type SearchIndex } from '../search/index.js';
+import { countLiveRefs, liveRefsAfter, refsForIndex, type RefSearchRow } from '../repositories/refs.js';
 import { cslAuthors } from './reference-fields.js';
 
 export class ServiceUnavailableError extends AppError {
@@ -11,20 +12,7 @@ export class ServiceUnavailableError extends AppError {
   }
 }
 
-interface RefRow {
-  id: number;
-  csl: Record<string, any>;
-  doi: string | null;
-  title: string;
-  year: number | null;
-  container: string | null;
-  screening_status: string;
-  source: string;
-  merged_into: number | null;
-  created_at: Date | string;
-}
-
-export function referenceDocument(r: RefRow) {
+export function referenceDocument(r: RefSearchRow) {
   return {
     id: r.id,
     title: r.title,
@@ -40,8 +28,6 @@ export function referenceDocument(r: RefRow) {
   };
 }
 
-const COLUMNS = ['id', 'csl', 'doi', 'title', 'year', 'container', 'screening_status', 'source', 'merged_into', 'created_at'];
-
 /**
  * Brings the index in line with PostgreSQL for these references: live ones are (re)indexed, merged ones
  * removed. A failing index is logged, not fatal: the database is the record and `npm run search:rebuild`
@@ -51,7 +37,7 @@ export async function syncReferences(ctx: Pick<AppContext, 'db' | 'search'>, ids
   if (!ctx.search || !ids.length) return;
   try {
     for (let i = 0; i < ids.length; i += 5000) {
-      const rows: RefRow[] = await ctx.db('refs').whereIn('id', ids.slice(i, i + 5000)).select(COLUMNS);
+      const rows = await refsForIndex(ctx.db, ids.slice(i, i + 5000));
       const live = rows.filter((r) => r.merged_into == null);
       const gone = ids.slice(i, i + 5000).filter((id) => !live.some((r) => r.id === id));
       await ctx.search.indexDocuments(REFERENCES_INDEX, live.map(referenceDocument));
@@ -65,16 +51,16 @@ export async function syncReferences(ctx: Pick<AppContext, 'db' | 'search'>, ids
 /** Rebuilds the references index from PostgreSQL (empties it first). */
 export async function rebuildReferenceIndex(db: Knex, search: SearchIndex, onProgress?: (done: number, total: number) => void): Promise<number> {
   await search.deleteAll(REFERENCES_INDEX);
-  const [{ count }] = await db('refs').whereNull('merged_into').count<{ count: number }[]>({ count: '*' });
+  const count = await countLiveRefs(db);
   let done = 0;
   let lastId = 0;
   for (;;) {
-    const rows: RefRow[] = await db('refs').whereNull('merged_into').where('id', '>', lastId).orderBy('id').limit(5000).select(COLUMNS);
+    const rows = await liveRefsAfter(db, lastId, 5000);
     if (!rows.length) break;
     await search.indexDocuments(REFERENCES_INDEX, rows.map(referenceDocument));
     done += rows.length;
     lastId = rows[rows.length - 1].id;
-    onProgress?.(done, Number(count));
+    onProgress?.(done, count);
   }
   return done;
 }
@@ -83,8 +69,7 @@ export async function rebuildReferenceIndex(db: Knex, search: SearchIndex, onPro
 export async function ensureReferenceIndex(ctx: Pick<AppContext, 'db' | 'search'>): Promise<void> {
   if (!ctx.search) return;
   try {
-    const [{ count }] = await ctx.db('refs').whereNull('merged_into').count<{ count: number }[]>({ count: '*' });
-    if ((await ctx.search.count(REFERENCES_INDEX)) !== Number(count)) await rebuildReferenceIndex(ctx.db, ctx.search);
+    if ((await ctx.search.count(REFERENCES_INDEX)) !== (await countLiveRefs(ctx.db))) await rebuildReferenceIndex(ctx.db, ctx.search);
   } catch (err) {
     console.error('[search] could not fill the index at start:', (err as Error).message);
   }

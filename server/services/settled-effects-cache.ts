@@ -1,7 +1,7 @@
 import type { Knex } from 'knex';
-import type { SettledEffectFilters } from '../db/effects-repo.js';
-import { currentRegistryVersion } from '../db/registry-version.js';
-import { querySynthesisRows } from '../db/synthesis-repo.js';
+import type { SettledEffectFilters } from '../repositories/effects.js';
+import { currentRegistryVersion } from '../repositories/registry-version.js';
+import { querySynthesisRows } from '../repositories/effects.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 
 interface Loaded {

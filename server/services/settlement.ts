@@ -2,40 +2,34 @@ import type { Knex } from 'knex';
 import { sheetDraftSchema, sheetSubmitSchema, type Sheet, type SheetInput } from '../../shared/schemas/extraction.js';
 import { ValidationError } from '../lib/errors.js';
 import { parseInput } from '../lib/validate.js';
-import { bumpRegistry } from '../db/registry-version.js';
-import { readSheet, writeSheet } from '../db/sheets-repo.js';
-import { recordAudit } from './audit.js';
+import { recordAudit } from '../repositories/audit.js';
+import { currentRecord, insertExtraction, insertSettlement, newStudy, readSheet, sheetTerms, studyIdsOf, updateExtraction, writeSheet } from '../repositories/extractions.js';
+import { findRef } from '../repositories/refs.js';
+import { bumpRegistry } from '../repositories/registry-version.js';
+import type { SettlementKind } from '../repositories/rows.js';
+import { resolveManipulations } from './manipulations.js';
 
-export type SettlementKind = 'matched' | 'reconciled' | 'direct' | 'reopened' | 'withdrawn' | 'edited';
+export type { SettlementKind };
+export { currentRecord };
 
 /** Checks a sheet is complete (every effect computes); throws a 400 with a path per problem. */
 export function parseCompleteSheet(sheet: unknown, where = 'sheet'): Sheet {
   return parseInput(sheetSubmitSchema, sheet, where);
 }
 
-/** The current settled record of a reference (not superseded), or undefined. */
-export async function currentRecord(db: Knex | Knex.Transaction, referenceId: number) {
-  return db('extractions')
-    .where({ reference_id: referenceId, kind: 'settled' })
-    .whereNull('superseded_by')
-    .orderBy('record_version', 'desc')
-    .first();
+/** Writes a sheet into an extraction, resolving its manipulation terms first (an unknown term is a 400). */
+export async function saveSheet(trx: Knex.Transaction, extractionId: number, sheet: Sheet, opts: { studyIds?: (number | null)[]; actorId?: number | null } = {}) {
+  const termIds = await resolveManipulations(trx, sheetTerms(sheet));
+  await writeSheet(trx, extractionId, sheet, { ...opts, termIds });
 }
 
-/** Stable study ids for a new record version: reuse the previous version's by position, create the rest. */
-async function studyIdsFor(trx: Knex.Transaction, referenceId: number, count: number, previousId: number | null): Promise<number[]> {
-  const previous: { position: number; study_id: number | null }[] = previousId
-    ? await trx('extraction_studies').where({ extraction_id: previousId }).orderBy('position').select('position', 'study_id')
-    : [];
+/**
+ * Stable study ids for `count` studies by position: the given ones where there are some (a previous version's, or
+ * the draft's own), new identities for the rest.
+ */
+export async function stableStudyIds(trx: Knex.Transaction, referenceId: number, count: number, existing: (number | null)[]): Promise<number[]> {
   const ids: number[] = [];
-  for (let i = 0; i < count; i++) {
-    const prev = previous.find((p) => p.position === i + 1)?.study_id;
-    if (prev) ids.push(prev);
-    else {
-      const [row] = await trx('studies').insert({ reference_id: referenceId }).returning('id');
-      ids.push(row.id);
-    }
-  }
+  for (let i = 0; i < count; i++) ids.push(existing[i] ?? (await newStudy(trx, referenceId)));
   return ids;
 }
 
@@ -57,36 +51,25 @@ export interface SettledRecordInput {
  */
 export async function createSettledRecord(trx: Knex.Transaction, input: SettledRecordInput) {
   const sheet = parseCompleteSheet(sheetDraftSchema.parse(input.sheet));
-  const ref = await trx('refs').where({ id: input.referenceId }).first('id');
-  if (!ref) throw new ValidationError(`No reference ${input.referenceId}.`, [{ path: 'referenceId', message: 'no such reference' }]);
+  if (!(await findRef(trx, input.referenceId))) throw new ValidationError(`No reference ${input.referenceId}.`, [{ path: 'referenceId', message: 'no such reference' }]);
   const previous = await currentRecord(trx, input.referenceId);
-  const [record] = await trx('extractions')
-    .insert({
-      reference_id: input.referenceId,
-      assignment_id: input.assignmentId ?? null,
-      kind: 'settled',
-      coder_id: null,
-      state: 'settled',
-      record_version: (previous?.record_version ?? 0) + 1,
-      supersedes_id: previous?.id ?? null,
-      notes: sheet.notes ?? '',
-      updated_by: input.actorId ?? null,
-      settled_at: trx.fn.now(),
-      submitted_at: trx.fn.now(),
-    })
-    .returning('*');
-  if (previous) await trx('extractions').where({ id: previous.id }).update({ superseded_by: record.id, updated_at: trx.fn.now() });
-  const studyIds = await studyIdsFor(trx, input.referenceId, sheet.studies.length, previous?.id ?? null);
-  await writeSheet(trx, record.id, sheet, { studyIds, actorId: input.actorId ?? null });
-  const kind = input.kind ?? 'direct';
-  await trx('settlements').insert({
+  const record = await insertExtraction(trx, {
     reference_id: input.referenceId,
     assignment_id: input.assignmentId ?? null,
-    record_id: record.id,
-    kind,
-    actor_id: input.actorId ?? null,
-    rationale: input.rationale ?? '',
+    kind: 'settled',
+    coder_id: null,
+    state: 'settled',
+    record_version: (previous?.record_version ?? 0) + 1,
+    supersedes_id: previous?.id ?? null,
+    notes: sheet.notes ?? '',
+    updated_by: input.actorId ?? null,
+    settledNow: true,
   });
+  if (previous) await updateExtraction(trx, previous.id, { superseded_by: record.id });
+  const studyIds = await stableStudyIds(trx, input.referenceId, sheet.studies.length, previous ? await studyIdsOf(trx, previous.id) : []);
+  await saveSheet(trx, record.id, sheet, { studyIds, actorId: input.actorId ?? null });
+  const kind = input.kind ?? 'direct';
+  await insertSettlement(trx, { referenceId: input.referenceId, assignmentId: input.assignmentId ?? null, recordId: record.id, kind, actorId: input.actorId ?? null, rationale: input.rationale ?? '' });
   await recordAudit(trx, {
     actorId: input.actorId ?? null,
     action: 'record.settle',
@@ -97,10 +80,10 @@ export async function createSettledRecord(trx: Knex.Transaction, input: SettledR
   const registryVersion = await bumpRegistry(trx, { kind: `settle.${kind}`, referenceId: input.referenceId, extractionId: record.id, actorId: input.actorId ?? null });
   const studies = await readSheet(trx, record.id);
   return {
-    recordId: record.id as number,
-    recordVersion: record.record_version as number,
+    recordId: record.id,
+    recordVersion: record.record_version!,
     registryVersion,
-    studyIds: studyIds,
+    studyIds,
     effectIds: studies.flatMap((s) => s.effects.map((e) => e.id)),
   };
 }

@@ -2,12 +2,14 @@ import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import type { Knex } from 'knex';
 import Papa from 'papaparse';
-import type { SettledEffectRow } from '../db/effects-repo.js';
-import { currentRegistryVersion } from '../db/registry-version.js';
-import { querySettledEffects } from '../db/effects-repo.js';
 import { NotFoundError } from '../lib/errors.js';
 import { toBibtex } from '../citations/index.js';
-import { recordAudit } from './audit.js';
+import { recordAudit } from '../repositories/audit.js';
+import { iso, type Db } from '../repositories/db.js';
+import { querySettledEffects, type SettledEffectRow } from '../repositories/effects.js';
+import { refsForCitation } from '../repositories/refs.js';
+import { currentRegistryVersion } from '../repositories/registry-version.js';
+import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows } from '../repositories/snapshots.js';
 import { synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
@@ -20,9 +22,9 @@ const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.ur
 export const SOFTWARE = { name: 'Chronometa', version: pkg.version };
 
 /** PRISMA 2020 counts for the methods paragraph, from the screening records; null when they cannot be read. */
-export async function prismaForMethods(db: Knex | Knex.Transaction): Promise<PrismaCounts | null> {
+export async function prismaForMethods(db: Db): Promise<PrismaCounts | null> {
   try {
-    const c = await prismaCounts(db as Knex);
+    const c = await prismaCounts(db);
     const reasons = Object.entries(c.excluded.byReason)
       .filter(([, n]) => n > 0)
       .sort((a, b) => b[1] - a[1])
@@ -55,24 +57,24 @@ export async function createSnapshot(db: Knex, actorId: number, request: Synthes
       const effects = await querySettledEffects(trx, request.filters);
       const output = synthesize(effects, request);
       const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
-      const refs = await trx('refs').whereIn('id', refIds).orderBy('id').select('id', 'csl', 'title', 'year', 'doi', 'first_author');
+      const refs = await refsForCitation(trx, refIds);
       const prisma = await prismaForMethods(trx);
       const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma, notRun: output.unavailable.map((u) => u.analysis) });
       const id = newId();
-      await trx('snapshots').insert({
+      await insertSnapshot(trx, {
         id,
         title: title ?? defaultTitle(request, output.metric),
         created_by: actorId,
         registry_version: registryVersion,
-        request: JSON.stringify(request),
+        request,
         metric: output.metric,
         k: output.counts.studies,
         estimate: output.result.estimate,
-        effects: JSON.stringify(effects),
-        output: JSON.stringify(output),
+        effects,
+        output,
         methods,
-        references: JSON.stringify(refs.map((r) => ({ id: r.id, title: r.title, year: r.year, doi: r.doi, firstAuthor: r.first_author, csl: r.csl }))),
-        prisma: prisma ? JSON.stringify(prisma) : null,
+        references: refs.map((r) => ({ id: r.id, title: r.title, year: r.year, doi: r.doi, firstAuthor: r.first_author, csl: r.csl })),
+        prisma,
         software: `${SOFTWARE.name} ${SOFTWARE.version}`,
       });
       await recordAudit(trx, {
@@ -104,21 +106,21 @@ export interface StoredSnapshot {
 }
 
 export async function loadSnapshot(db: Knex, id: string): Promise<StoredSnapshot> {
-  const r = await db('snapshots').leftJoin('users', 'users.id', 'snapshots.created_by').where('snapshots.id', id).first('snapshots.*', 'users.login', 'users.name');
+  const r = await findSnapshot(db, id);
   if (!r) throw new NotFoundError(`No snapshot ${id}.`);
   return {
     id: r.id,
     title: r.title,
-    createdAt: r.created_at,
+    createdAt: iso(r.created_at),
     createdBy: r.login ? { login: r.login, name: r.name } : null,
     registryVersion: Number(r.registry_version),
     software: r.software,
     methods: r.methods,
-    prisma: r.prisma,
-    request: r.request,
-    effects: r.effects,
-    output: r.output,
-    references: r.references,
+    prisma: r.prisma as PrismaCounts | null,
+    request: r.request as SynthesisRequest,
+    effects: r.effects as SettledEffectRow[],
+    output: r.output as SynthesisOutput,
+    references: r.references as StoredSnapshot['references'],
   };
 }
 
@@ -211,25 +213,11 @@ export function snapshotBibtex(s: StoredSnapshot): string {
   return records.length ? toBibtex(records) : '';
 }
 
-export async function listSnapshots(
-  db: Knex,
-  q: { page: number; pageSize: number; sort: 'created_at' | 'k' | 'estimate' | 'title'; order: 'asc' | 'desc'; createdBy?: number },
-) {
-  const base = db('snapshots').modify((b) => {
-    if (q.createdBy !== undefined) b.where('snapshots.created_by', q.createdBy);
-  });
-  const [{ count }] = await base.clone().count<{ count: string }[]>({ count: '*' });
-  const items = await base
-    .clone()
-    .leftJoin('users', 'users.id', 'snapshots.created_by')
-    .select('snapshots.id', 'snapshots.title', 'snapshots.created_at', 'snapshots.metric', 'snapshots.k', 'snapshots.estimate', 'snapshots.registry_version', 'users.login')
-    .orderBy(`snapshots.${q.sort}`, q.order)
-    .orderBy('snapshots.id', 'asc')
-    .limit(q.pageSize)
-    .offset((q.page - 1) * q.pageSize);
+export async function listSnapshots(db: Knex, q: { page: number; pageSize: number; sort: 'created_at' | 'k' | 'estimate' | 'title'; order: 'asc' | 'desc'; createdBy?: number }) {
+  const { total, rows } = await snapshotRows(db, q);
   return {
-    total: Number(count),
-    items: items.map((r: Record<string, any>) => ({
+    total,
+    items: rows.map((r) => ({
       id: r.id,
       title: r.title,
       createdAt: r.created_at,

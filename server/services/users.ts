@@ -1,19 +1,29 @@
 import type { Knex } from 'knex';
 import type { Role } from '../../shared/roles.js';
-import { addRole, findUserWithRoles, listUsers, removeRole, upsertGithubUser, type UserSort } from '../db/users-repo.js';
+import { recordAudit } from '../repositories/audit.js';
+import type { PageRequest } from '../repositories/db.js';
+import { addRole, findUserByGithubId, findUserWithRoles, listUsers as userRows, removeRole, upsertGithubUser, type GithubProfile, type UserSort } from '../repositories/users.js';
 import { ConflictError, NotFoundError } from '../lib/errors.js';
-import { recordAudit } from './audit.js';
 
-export { listUsers, type UserSort };
+export type { UserSort };
+
+export async function listUsers(db: Knex, opts: PageRequest & { sort: UserSort; order: 'asc' | 'desc'; q?: string }) {
+  const { total, rows } = await userRows(db, opts);
+  return {
+    total,
+    items: rows.map((r) => ({ id: r.id, login: r.login, name: r.name, email: r.email, createdAt: r.created_at, lastSeenAt: r.last_seen_at, roles: r.roles })),
+  };
+}
+
+/** The user behind a session, with roles; undefined when the account is gone. */
+export async function sessionUser(db: Knex, id: number) {
+  return findUserWithRoles(db, id);
+}
 
 /** Signs a GitHub identity in: creates or updates the user, gives new users the reader role, admins by config. */
-export async function signInGithubUser(
-  db: Knex,
-  profile: { githubId: string; login: string; name: string | null; email: string | null; avatarUrl: string | null },
-  adminLogins: string[],
-) {
+export async function signInGithubUser(db: Knex, profile: GithubProfile, adminLogins: string[]) {
   return db.transaction(async (trx) => {
-    const existing = await trx('users').where({ github_id: profile.githubId }).first();
+    const existing = await findUserByGithubId(trx, profile.githubId);
     const user = await upsertGithubUser(trx, profile);
     if (!existing) {
       await addRole(trx, user.id, 'reader', null);
@@ -26,27 +36,17 @@ export async function signInGithubUser(
   });
 }
 
-export async function grantRole(db: Knex, actorId: number, userId: number, role: Role) {
+async function changeRole(db: Knex, actorId: number, userId: number, role: Role, grant: boolean) {
   return db.transaction(async (trx) => {
     const user = await findUserWithRoles(trx, userId);
     if (!user) throw new NotFoundError(`No user with id ${userId}.`);
-    if (await addRole(trx, userId, role, actorId)) {
-      await recordAudit(trx, { actorId, action: 'role.granted', entityType: 'user', entityId: userId, details: { role, login: user.login } });
-    }
-    return findUserWithRoles(trx, userId);
+    if (!grant && role === 'admin' && userId === actorId) throw new ConflictError('You cannot remove your own admin role; ask another admin.');
+    const changed = grant ? await addRole(trx, userId, role, actorId) : await removeRole(trx, userId, role);
+    if (changed) await recordAudit(trx, { actorId, action: grant ? 'role.granted' : 'role.revoked', entityType: 'user', entityId: userId, details: { role, login: user.login } });
+    const after = (await findUserWithRoles(trx, userId))!;
+    return { id: after.id, login: after.login, roles: after.roles };
   });
 }
 
-export async function revokeRole(db: Knex, actorId: number, userId: number, role: Role) {
-  return db.transaction(async (trx) => {
-    const user = await findUserWithRoles(trx, userId);
-    if (!user) throw new NotFoundError(`No user with id ${userId}.`);
-    if (role === 'admin' && userId === actorId) {
-      throw new ConflictError('You cannot remove your own admin role; ask another admin.');
-    }
-    if (await removeRole(trx, userId, role)) {
-      await recordAudit(trx, { actorId, action: 'role.revoked', entityType: 'user', entityId: userId, details: { role, login: user.login } });
-    }
-    return findUserWithRoles(trx, userId);
-  });
-}
+export const grantRole = (db: Knex, actorId: number, userId: number, role: Role) => changeRole(db, actorId, userId, role, true);
+export const revokeRole = (db: Knex, actorId: number, userId: number, role: Role) => changeRole(db, actorId, userId, role, false);

@@ -1,3 +1,4 @@
+import type { EffectSheet, Sheet, StudySheet } from '../schemas/extraction.js';
 import type { ReportForm, Reported } from './compute.js';
 
 /** A coded study and its effects as stored and answered by the API (the server's and the sheet's shape). */
@@ -31,4 +32,33 @@ export interface StoredStudy {
   task?: string;
   standardMs?: number;
   effects: StoredEffect[];
+}
+
+/** A stored sheet back in the sheet shape (for comparison, copying and settling). */
+export function toSheet(studies: StoredStudy[], notes = ''): Sheet {
+  return {
+    notes,
+    studies: studies.map((s) => ({
+      label: s.label,
+      design: s.design as StudySheet['design'],
+      n1: s.n1,
+      n2: s.n2,
+      population: s.population as StudySheet['population'],
+      diagnosis: s.diagnosis,
+      modality: s.modality as StudySheet['modality'],
+      task: s.task as StudySheet['task'],
+      standardMs: s.standardMs,
+      effects: s.effects.map((e) => ({
+        label: e.label,
+        outcome: e.outcome as EffectSheet['outcome'],
+        manipulation: e.manipulation,
+        form: e.form,
+        reported: e.reported,
+        assumedR: e.assumedR,
+        page: e.page,
+        locator: e.locator,
+        quote: e.quote,
+      })),
+    })),
+  };
 }

@@ -2,7 +2,7 @@ import type { Metric } from '../stats/metrics.js';
 import type { PoolResult } from '../stats/types.js';
 import type { Dependence, Moderator, SubgroupVariable, SynthesisFilters, SynthesisRequest } from '../schemas/synthesis.js';
 
-/** One settled effect as the registry stores it (server/db/effects-repo.ts querySettledEffects). */
+/** One settled effect as the registry stores it (server/repositories/effects.ts querySettledEffects). */
 export interface SettledEffect {
   id: number;
   referenceId: number;

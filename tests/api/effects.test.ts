@@ -1,9 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { computeEffect } from '../../shared/stats/compute-effect.js';
-import { querySettledEffects } from '../../server/db/effects-repo.js';
-import { currentRegistryVersion } from '../../server/db/registry-version.js';
+import { querySettledEffects } from '../../server/repositories/effects.js';
+import { currentRegistryVersion } from '../../server/repositories/registry-version.js';
 import { createSettledRecord } from '../../server/services/settlement.js';
-import { reopenRecord, settleRecordDraft, withdrawRecord } from '../../server/services/extractions.js';
+import { reopenRecord, settleRecordDraft, withdrawRecord } from '../../server/services/records.js';
 import { anonymous, createTestApp, resetDb, signIn, type TestApp } from '../support/test-app.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 

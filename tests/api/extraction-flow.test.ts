@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { computeEffect } from '../../shared/stats/compute-effect.js';
-import { currentRegistryVersion } from '../../server/db/registry-version.js';
+import { currentRegistryVersion } from '../../server/repositories/registry-version.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 

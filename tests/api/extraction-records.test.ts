@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { currentRegistryVersion } from '../../server/db/registry-version.js';
+import { currentRegistryVersion } from '../../server/repositories/registry-version.js';
 import { createSettledRecord } from '../../server/services/settlement.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seed } from '../../seeds/03_demo_registry.js';
-import { countSettledEffects, querySettledEffects } from '../../server/db/effects-repo.js';
+import { countSettledEffects, querySettledEffects } from '../../server/repositories/effects.js';
 import { computeReported } from '../../shared/extraction/compute.js';
 import { createTestApp, resetDb, type TestApp } from '../support/test-app.js';
 

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { querySettledEffects } from '../../server/db/effects-repo.js';
+import { querySettledEffects } from '../../server/repositories/effects.js';
 import { DEFAULT_MANIPULATIONS } from '../../server/services/manipulations.js';
 import { createSettledRecord } from '../../server/services/settlement.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';

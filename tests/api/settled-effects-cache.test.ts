@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { querySynthesisRows } from '../../server/db/synthesis-repo.js';
-import { currentRegistryVersion } from '../../server/db/registry-version.js';
+import { querySynthesisRows } from '../../server/repositories/effects.js';
+import { currentRegistryVersion } from '../../server/repositories/registry-version.js';
 import { filterSettledEffects, settledEffectsAt, settledEffectsFor } from '../../server/services/settled-effects-cache.js';
 import { anonymous, createTestApp, resetDb, type TestApp } from '../support/test-app.js';
 import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';

@@ -2,8 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pool } from '../../shared/stats/index.js';
 import { seed as seedReferences } from '../../seeds/02_demo_references.js';
 import { seed as seedRegistry } from '../../seeds/03_demo_registry.js';
-import { querySettledEffects } from '../../server/db/effects-repo.js';
-import { querySynthesisRows } from '../../server/db/synthesis-repo.js';
+import { querySettledEffects, querySynthesisRows } from '../../server/repositories/effects.js';
 import { anonymous, createTestApp, resetDb, type TestApp } from '../support/test-app.js';
 
 describe('synthesis over the seeded demo registry', () => {

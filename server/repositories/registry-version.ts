@@ -1,10 +1,11 @@
 import type { Knex } from 'knex';
+import type { Db } from './db.js';
 
 /**
  * The registry version: max(id) of registry_changes, which grows in the same transaction as every change
  * to settled data (settle, reopen, withdraw, a curator's edit). Caches and snapshots key on it.
  */
-export async function currentRegistryVersion(db: Knex | Knex.Transaction): Promise<number> {
+export async function currentRegistryVersion(db: Db): Promise<number> {
   const row = await db('registry_changes').max<{ v: string | number | null }>({ v: 'id' }).first();
   return row?.v == null ? 0 : Number(row.v);
 }
@@ -31,4 +32,9 @@ export async function bumpRegistry(trx: Knex.Transaction, change: RegistryChange
     })
     .returning('id');
   return Number(row.id);
+}
+
+/** The newest registry change (its id and time), or undefined before the first. */
+export async function latestRegistryChange(db: Db): Promise<{ id: number; at: Date | string } | undefined> {
+  return db('registry_changes').orderBy('id', 'desc').first('id', 'at');
 }

@@ -1,0 +1,58 @@
+// The one mapping between an effect as coded (sheet shape) and its row in `effects`, both ways.
+import type { EffectSheet } from '../../shared/schemas/extraction.js';
+import type { ComputedEffect, ReportForm, Reported } from '../../shared/extraction/compute.js';
+import type { StoredEffect } from '../../shared/extraction/stored-sheet.js';
+import type { EffectRow } from './rows.js';
+
+export type EffectColumns = Pick<
+  EffectRow,
+  'label' | 'outcome' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'page' | 'locator' | 'quote'
+> & { reported: string };
+
+/**
+ * The columns of one coded effect. `computed` is the server's own computation from what was reported (null when
+ * it cannot be computed yet: a draft); `keep` supplies provenance the edit did not send (a curator's correction).
+ */
+export function effectColumns(e: EffectSheet, manipulationId: number | null, computed: ComputedEffect | null, keep?: Pick<EffectRow, 'page' | 'locator' | 'quote'>): EffectColumns {
+  return {
+    label: e.label ?? '',
+    outcome: e.outcome ?? null,
+    manipulation_id: manipulationId,
+    report_form: e.form ?? null,
+    reported: JSON.stringify(e.reported ?? {}),
+    metric: computed?.metric ?? null,
+    effect: computed?.effect ?? null,
+    variance: computed?.variance ?? null,
+    formula: computed?.formula ?? null,
+    assumed_r: computed ? computed.assumedR : (e.assumedR ?? null),
+    n_total: computed?.n ?? null,
+    page: e.page ?? keep?.page ?? null,
+    locator: e.locator ?? keep?.locator ?? null,
+    quote: e.quote ?? keep?.quote ?? null,
+  };
+}
+
+const u = <T>(v: T | null | undefined): T | undefined => (v === null ? undefined : v);
+
+/** A stored effect row (with its manipulation's term) in the sheet's stored shape. */
+export function storedEffect(f: EffectRow & { term: string | null }): StoredEffect {
+  return {
+    id: f.id,
+    label: f.label,
+    outcome: u(f.outcome),
+    manipulation: u(f.term),
+    form: u(f.report_form) as ReportForm | undefined,
+    reported: (f.reported ?? {}) as Reported,
+    // a stored assumed r is the value used; the form shows it as the assumption
+    assumedR: f.assumed_r == null ? undefined : Number(f.assumed_r),
+    page: u(f.page),
+    locator: u(f.locator),
+    quote: u(f.quote),
+    version: f.version,
+    withdrawnReason: f.withdrawn_at ? (f.withdrawn_reason ?? 'withdrawn') : null,
+    computed:
+      f.effect == null
+        ? null
+        : { metric: f.metric!, effect: Number(f.effect), variance: Number(f.variance), formula: f.formula!, assumedR: f.assumed_r == null ? null : Number(f.assumed_r), n: f.n_total },
+  };
+}

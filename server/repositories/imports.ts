@@ -1,0 +1,113 @@
+import type { Knex } from 'knex';
+import { countRows, pageOf, type Db, type PageRequest } from './db.js';
+import type { EntryStatus, ImportBatchRow, ImportEntryRow } from './rows.js';
+
+export type EntryCounts = Record<EntryStatus, number>;
+export type BatchWithLogin = ImportBatchRow & { login: string | null };
+
+export const emptyCounts = (): EntryCounts => ({ imported: 0, duplicate: 0, rejected: 0, pending: 0 });
+
+export function countStatuses(rows: Array<Pick<ImportEntryRow, 'status'>>): EntryCounts {
+  const c = emptyCounts();
+  for (const r of rows) c[r.status]++;
+  return c;
+}
+
+export async function insertBatch(db: Db, b: Pick<ImportBatchRow, 'format' | 'label' | 'total' | 'created_by'>): Promise<number> {
+  const [row] = await db<ImportBatchRow>('import_batches').insert(b).returning('id');
+  return row.id;
+}
+
+export async function markBatchDone(db: Db, id: number): Promise<void> {
+  await db('import_batches').where({ id }).update({ state: 'done', finished_at: db.fn.now() });
+}
+
+/** Marks a running batch done when no entry is pending; returns it when this call finished it. */
+export async function finishBatchIfDone(trx: Knex.Transaction, id: number): Promise<Pick<ImportBatchRow, 'id' | 'created_by'> | undefined> {
+  const [row] = await trx('import_batches')
+    .where({ id, state: 'running' })
+    .whereNotExists(trx('import_entries').where({ batch_id: id, status: 'pending' }).select(trx.raw('1')))
+    .update({ state: 'done', finished_at: trx.fn.now() })
+    .returning(['id', 'created_by']);
+  return row;
+}
+
+export async function findBatch(db: Db, id: number): Promise<BatchWithLogin | undefined> {
+  return db('import_batches').leftJoin('users', 'users.id', 'import_batches.created_by').where('import_batches.id', id).first('import_batches.*', 'users.login');
+}
+
+export async function insertEntries(db: Db, rows: ImportEntryRow[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += 1000) await db('import_entries').insert(rows.slice(i, i + 1000));
+}
+
+export async function entryCounts(db: Db, batchId: number): Promise<EntryCounts> {
+  return countStatuses(await db<ImportEntryRow>('import_entries').where({ batch_id: batchId }).select('status'));
+}
+
+/** Entries of a batch in file order: all of them, or one page (optionally of one status), and how many match. */
+export async function batchEntries(db: Db, batchId: number, paging?: PageRequest & { status?: EntryStatus }) {
+  const filtered = db<ImportEntryRow>('import_entries').where({ batch_id: batchId }).modify((qb) => (paging?.status ? qb.where('status', paging.status) : qb));
+  const total = await countRows(filtered);
+  const ordered = filtered.clone().orderBy('idx');
+  const rows: ImportEntryRow[] = paging ? await pageOf(ordered, paging) : await ordered;
+  return { total, rows };
+}
+
+export async function entryReferenceIds(db: Db, batchId: number, status: EntryStatus): Promise<number[]> {
+  const ids: (number | null)[] = await db<ImportEntryRow>('import_entries').where({ batch_id: batchId, status }).pluck('reference_id');
+  return ids.filter((id): id is number => id != null);
+}
+
+export async function pendingEntries(db: Db, batchId: number, indexes?: number[]): Promise<ImportEntryRow[]> {
+  return db<ImportEntryRow>('import_entries')
+    .where({ batch_id: batchId, status: 'pending' })
+    .modify((q) => (indexes ? q.whereIn('idx', indexes) : q))
+    .orderBy('idx');
+}
+
+/** Settles one pending entry (only if it is still pending, so a job run twice changes nothing). */
+export async function settleEntry(db: Db, batchId: number, idx: number, update: Partial<ImportEntryRow>): Promise<void> {
+  await db('import_entries').where({ batch_id: batchId, idx, status: 'pending' }).update({ ...update, updated_at: db.fn.now() });
+}
+
+export async function listBatches(db: Db, q: PageRequest & { sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }) {
+  const total = await countRows(db('import_batches'));
+  const rows: BatchWithLogin[] = await pageOf(
+    db('import_batches')
+      .leftJoin('users', 'users.id', 'import_batches.created_by')
+      .select('import_batches.*', 'users.login')
+      .orderBy(`import_batches.${q.sort}`, q.order)
+      .orderBy('import_batches.id', 'desc'),
+    q,
+  );
+  const ids = rows.map((r) => r.id);
+  const counts: Array<{ batch_id: number; status: EntryStatus; n: number }> = ids.length
+    ? await db('import_entries').whereIn('batch_id', ids).groupBy('batch_id', 'status').select('batch_id', 'status').count({ n: '*' })
+    : [];
+  const countsOf = (id: number) => {
+    const c = emptyCounts();
+    for (const x of counts) if (x.batch_id === id) c[x.status] = Number(x.n);
+    return c;
+  };
+  return { total, rows: rows.map((r) => ({ row: r, counts: countsOf(r.id) })) };
+}
+
+/** The import history of one reference. */
+export async function importsOfRef(db: Db, refId: number): Promise<Array<{ batch_id: number; format: string; idx: number; status: EntryStatus; created_at: Date | string }>> {
+  return db('import_entries')
+    .join('import_batches', 'import_batches.id', 'import_entries.batch_id')
+    .where('reference_id', refId)
+    .orderBy('import_batches.id')
+    .select('import_batches.id as batch_id', 'import_batches.format', 'import_entries.idx', 'import_entries.status', 'import_batches.created_at');
+}
+
+/** Import entries found to duplicate a record, by their batch's format (PRISMA "records identified"). */
+export async function duplicateEntriesByFormat(db: Db): Promise<{ source: string; n: number }[]> {
+  const rows: { source: string; n: number }[] = await db('import_entries')
+    .join('import_batches', 'import_batches.id', 'import_entries.batch_id')
+    .where('import_entries.status', 'duplicate')
+    .groupBy('import_batches.format')
+    .select('import_batches.format as source')
+    .count({ n: '*' });
+  return rows.map((r) => ({ source: r.source, n: Number(r.n) }));
+}

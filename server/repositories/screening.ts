@@ -1,0 +1,42 @@
+import type { Db } from './db.js';
+import type { ScreeningDecisionRow } from './rows.js';
+
+export async function insertDecision(db: Db, d: Pick<ScreeningDecisionRow, 'ref_id' | 'decision' | 'reason' | 'note' | 'decided_by'>): Promise<Pick<ScreeningDecisionRow, 'id' | 'decided_at'>> {
+  const [row] = await db<ScreeningDecisionRow>('screening_decisions').insert(d).returning(['id', 'decided_at']);
+  return row;
+}
+
+/** Every decision on a reference, newest first, with who made it. */
+export async function decisionsOf(db: Db, refId: number): Promise<(ScreeningDecisionRow & { login: string | null })[]> {
+  return db('screening_decisions')
+    .leftJoin('users', 'users.id', 'screening_decisions.decided_by')
+    .where('ref_id', refId)
+    .orderBy([{ column: 'decided_at', order: 'desc' }, { column: 'screening_decisions.id', order: 'desc' }])
+    .select('screening_decisions.*', 'users.login');
+}
+
+export async function latestDecision(db: Db, refId: number): Promise<Pick<ScreeningDecisionRow, 'decision'> | undefined> {
+  return db<ScreeningDecisionRow>('screening_decisions')
+    .where({ ref_id: refId })
+    .orderBy([{ column: 'decided_at', order: 'desc' }, { column: 'id', order: 'desc' }])
+    .first('decision');
+}
+
+/** Excluded live references by the reason of their latest decision. */
+export async function exclusionReasonCounts(db: Db): Promise<{ reason: string; n: number }[]> {
+  const rows: { reason: string; n: number }[] = await db
+    .from(
+      db('screening_decisions as d')
+        .join('refs as r', 'r.id', 'd.ref_id')
+        .whereNull('r.merged_into')
+        .where('r.screening_status', 'excluded')
+        .distinctOn('d.ref_id')
+        .orderBy([{ column: 'd.ref_id' }, { column: 'd.decided_at', order: 'desc' }, { column: 'd.id', order: 'desc' }])
+        .select('d.ref_id', 'd.reason')
+        .as('latest'),
+    )
+    .groupBy('reason')
+    .select('reason')
+    .count({ n: '*' });
+  return rows.map((r) => ({ reason: r.reason, n: Number(r.n) }));
+}

@@ -1,0 +1,47 @@
+import type { Knex } from 'knex';
+import type { Db } from './db.js';
+
+/** Filters over settled effects (each optional; manipulation may list several terms). */
+export interface SettledEffectFilters {
+  manipulation?: string | string[];
+  outcome?: string;
+  metric?: string;
+  population?: string;
+  modality?: string;
+  task?: string;
+  design?: string;
+  yearFrom?: number;
+  yearTo?: number;
+  referenceId?: number;
+}
+
+/**
+ * The one definition of a settled effect: an effect of the current settled record (not superseded), not
+ * withdrawn, with a computed value, of a reference that was not merged away. Every reader of settled data
+ * (the effects API, the synthesis, the atlas) starts from this.
+ */
+export function settledEffectsFrom(db: Db) {
+  return db('effects as f')
+    .join('extractions as x', 'x.id', 'f.extraction_id')
+    .join('extraction_studies as s', 's.id', 'f.extraction_study_id')
+    .join('refs as r', 'r.id', 'x.reference_id')
+    .where({ 'x.kind': 'settled', 'x.state': 'settled' })
+    .whereNull('x.superseded_by')
+    .whereNull('f.withdrawn_at')
+    .whereNull('r.merged_into')
+    .whereNotNull('f.effect');
+}
+
+/** The filters other than manipulation, on a query built from settledEffectsFrom. */
+export function applyStudyFilters(q: Knex.QueryBuilder, f: SettledEffectFilters) {
+  if (f.outcome) q.where('f.outcome', f.outcome);
+  if (f.metric) q.where('f.metric', f.metric);
+  if (f.population) q.where('s.population', f.population);
+  if (f.modality) q.where('s.modality', f.modality);
+  if (f.task) q.where('s.task', f.task);
+  if (f.design) q.where('s.design', f.design);
+  if (f.yearFrom !== undefined) q.where('r.year', '>=', f.yearFrom);
+  if (f.yearTo !== undefined) q.where('r.year', '<=', f.yearTo);
+  if (f.referenceId !== undefined) q.where('r.id', f.referenceId);
+}
+

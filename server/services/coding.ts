@@ -1,0 +1,174 @@
+// A coder's own sheets: claiming a reference, reading (blind to the other coder), saving drafts, submitting.
+import type { Knex } from 'knex';
+import { hasRole, type Role } from '../../shared/roles.js';
+import type { Sheet } from '../../shared/schemas/extraction.js';
+import { toSheet } from '../../shared/extraction/stored-sheet.js';
+import type { AppContext } from '../context.js';
+import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors.js';
+import { activeAssignmentOf, findAssignment, lockAssignment } from '../repositories/assignments.js';
+import { recordAudit } from '../repositories/audit.js';
+import { refLabel, type Db, type PageRequest } from '../repositories/db.js';
+import { insertDiscrepancies } from '../repositories/discrepancies.js';
+import {
+  findExtraction, findExtractionDetail, insertCodingSheets, listClaimable as claimableRows, listSheetsOf, lockExtraction, openSheetOf, pairSheets, readSheet,
+  studyIdsOf, updateExtraction, type ExtractionDetailRow,
+} from '../repositories/extractions.js';
+import { findRef, lockRef } from '../repositories/refs.js';
+import type { ExtractionRow, ExtractionState } from '../repositories/rows.js';
+import { contactsOf, emailsWithRole } from '../repositories/users.js';
+import { closePair } from './assignments.js';
+import { compareSheets } from './comparison.js';
+import { staleEdit } from './edit-conflicts.js';
+import { disputedMail, settledMail } from './extraction-mails.js';
+import { queueMails, type OutgoingMail } from './mail.js';
+import { createSettledRecord, parseCompleteSheet, saveSheet, stableStudyIds } from './settlement.js';
+
+export interface Actor {
+  id: number;
+  roles: Role[];
+}
+
+export async function listMyExtractions(db: Knex, userId: number, q: PageRequest & { state?: ExtractionState; sort: 'updated' | 'reference' | 'state'; order: 'asc' | 'desc' }) {
+  const { total, rows } = await listSheetsOf(db, userId, q);
+  return {
+    total,
+    items: rows.map((r) => ({
+      id: r.id, state: r.state, version: r.version, updatedAt: r.updated_at, assignmentId: r.assignment_id,
+      referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, effects: r.effects,
+    })),
+  };
+}
+
+/** Included references a contributor may claim: not being double coded, not settled, not already claimed by them. */
+export async function listClaimable(db: Knex, userId: number, q: PageRequest & { q?: string; sort: 'reference' | 'year'; order: 'asc' | 'desc' }) {
+  const { total, rows } = await claimableRows(db, userId, q);
+  return { total, items: rows.map((r) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi })) };
+}
+
+/** A contributor claims a reference to code it; a curator later pairs the claim with a second coder. */
+export async function claimReference(db: Knex, actorId: number, referenceId: number) {
+  return db.transaction(async (trx) => {
+    const ref = await lockRef(trx, referenceId);
+    if (!ref) throw new NotFoundError(`No reference ${referenceId}.`);
+    if (ref.merged_into) throw new UnprocessableError(`Reference ${referenceId} was merged into ${ref.merged_into}; claim that one.`);
+    if (ref.screening_status !== 'included') throw new UnprocessableError('Only included references are coded; screen it in first.');
+    const active = await activeAssignmentOf(trx, referenceId);
+    if (active) throw new ConflictError(`Reference ${referenceId} is already being double coded (assignment ${active.id}).`);
+    const mine = await openSheetOf(trx, referenceId, actorId);
+    if (mine) throw new ConflictError(`You already have a sheet for this reference (extraction ${mine.id}).`, { extractionId: mine.id });
+    const [x] = await insertCodingSheets(trx, [{ referenceId, assignmentId: null, coderId: actorId, actorId }]);
+    await recordAudit(trx, { actorId, action: 'extraction.claim', entityType: 'extraction', entityId: x.id, details: { referenceId } });
+    return { id: x.id };
+  });
+}
+
+/**
+ * Who may read an extraction: its coder; for a settled record, anyone (drafts of a reopened record:
+ * curators). Blind coding: while a pair is not settled, only a curator outside the pair may read a
+ * coder's sheet — the other coder is refused.
+ */
+async function assertCanRead(db: Db, actor: Actor | null, x: ExtractionRow) {
+  if (x.kind === 'settled') {
+    if (x.state === 'draft' && !(actor && hasRole(actor.roles, 'curator'))) throw new ForbiddenError('A reopened record is visible to curators until it is settled again.');
+    return;
+  }
+  if (!actor) throw new ForbiddenError('Sign in to see coding sheets.');
+  if (x.coder_id === actor.id) return;
+  const a = x.assignment_id ? await findAssignment(db, x.assignment_id) : null;
+  const settled = a?.state === 'settled' || x.state === 'settled';
+  const inPair = a && (a.coder1_id === actor.id || a.coder2_id === actor.id);
+  if (inPair && !settled) throw new ForbiddenError('Coding is blind: you can see the other coder’s sheet once the pair is settled.');
+  if (settled && hasRole(actor.roles, 'contributor')) return;
+  if (hasRole(actor.roles, 'curator')) return;
+  throw new ForbiddenError('Only its coder and curators can see this coding sheet.');
+}
+
+function extractionView(x: ExtractionDetailRow, editable: boolean) {
+  return {
+    id: x.id, kind: x.kind, state: x.state, version: x.version, recordVersion: x.record_version, assignmentId: x.assignment_id,
+    referenceId: x.reference_id, reference: { id: x.reference_id, title: x.title, label: refLabel(x), doi: x.doi, year: x.year },
+    coder: x.coder_login, updatedBy: x.updated_by_login, updatedAt: x.updated_at, submittedAt: x.submitted_at, settledAt: x.settled_at,
+    supersedesId: x.supersedes_id, supersededBy: x.superseded_by, reopenReason: x.reopen_reason, notes: x.notes, editable,
+  };
+}
+
+export async function getExtraction(db: Knex, actor: Actor | null, id: number) {
+  const x = await findExtractionDetail(db, id);
+  if (!x) throw new NotFoundError(`No extraction ${id}.`);
+  await assertCanRead(db, actor, x);
+  const editable = !!actor && x.state === 'draft' && ((x.kind === 'coding' && x.coder_id === actor.id) || (x.kind === 'settled' && hasRole(actor.roles, 'curator')));
+  return { extraction: extractionView(x, editable), studies: await readSheet(db, id) };
+}
+
+async function lockEditable(trx: Knex.Transaction, actor: Actor, id: number, version: number) {
+  const x = await lockExtraction(trx, id);
+  if (!x) throw new NotFoundError(`No extraction ${id}.`);
+  const mine = x.kind === 'coding' ? x.coder_id === actor.id : hasRole(actor.roles, 'curator');
+  if (!mine) throw new ForbiddenError(x.kind === 'coding' ? 'Only its coder can edit a coding sheet.' : 'Only curators edit a reopened record.');
+  if (x.state !== 'draft') throw new ConflictError(`This sheet is ${x.state} and can no longer be edited.`);
+  if (x.version !== version) throw await staleEdit(trx, 'This sheet', x);
+  return x;
+}
+
+/** Saves a draft (also the autosave); the server recomputes every effect. */
+export async function saveDraft(db: Knex, actor: Actor, id: number, input: { version: number; sheet: Sheet }) {
+  return db.transaction(async (trx) => {
+    const x = await lockEditable(trx, actor, id, input.version);
+    // A reopened record keeps its studies' identities by position; new studies get new ones.
+    const studyIds = x.kind === 'settled' ? await stableStudyIds(trx, x.reference_id, input.sheet.studies.length, await studyIdsOf(trx, id)) : undefined;
+    await saveSheet(trx, id, input.sheet, { studyIds, actorId: actor.id });
+    const row = await updateExtraction(trx, id, { version: x.version + 1, notes: input.sheet.notes ?? '', updated_by: actor.id });
+    await recordAudit(trx, {
+      actorId: actor.id, action: 'extraction.save', entityType: 'extraction', entityId: id,
+      details: { version: row.version, studies: input.sheet.studies.length, effects: input.sheet.studies.reduce((n, s) => n + s.effects.length, 0) },
+    });
+    return { version: row.version, updatedAt: row.updated_at, studies: await readSheet(trx, id) };
+  });
+}
+
+/**
+ * Submits a coder's sheet. When it is the second of its pair to arrive, the two are compared: matched
+ * pairs settle at once, disputed ones go to the reconciliation queue with their discrepancies.
+ */
+export async function submitExtraction(ctx: AppContext, actor: Actor, id: number, input: { version: number }) {
+  const mails: OutgoingMail[] = [];
+  const origin = ctx.env.APP_ORIGIN;
+  const result = await ctx.db.transaction(async (trx) => {
+    const peek = await findExtraction(trx, id);
+    if (!peek) throw new NotFoundError(`No extraction ${id}.`);
+    if (peek.kind !== 'coding') throw new UnprocessableError('A reopened record is settled, not submitted.');
+    // Lock the pair first so two coders submitting at once are compared exactly once.
+    const assignment = peek.assignment_id ? await lockAssignment(trx, peek.assignment_id) : null;
+    const x = await lockEditable(trx, actor, id, input.version);
+    const sheet = parseCompleteSheet(toSheet(await readSheet(trx, id), x.notes));
+    await updateExtraction(trx, id, { state: 'submitted', version: x.version + 1, updated_by: actor.id }, 'submitted');
+    await recordAudit(trx, { actorId: actor.id, action: 'extraction.submit', entityType: 'extraction', entityId: id, details: { assignmentId: assignment?.id ?? null } });
+    if (!assignment) return { state: 'submitted', pairState: null, discrepancies: 0 };
+    const other = (await pairSheets(trx, assignment.id)).find((s) => s.id !== id);
+    if (!other || other.state !== 'submitted') return { state: 'submitted', pairState: assignment.state, discrepancies: 0 };
+
+    const otherSheet = toSheet(await readSheet(trx, other.id), other.notes);
+    const [first, second] = assignment.coder1_id === x.coder_id ? [sheet, otherSheet] : [otherSheet, sheet];
+    const found = compareSheets(first, second);
+    const ref = (await findRef(trx, assignment.reference_id))!;
+    if (found.length === 0) {
+      const settled = await createSettledRecord(trx, {
+        referenceId: assignment.reference_id, sheet: first, actorId: null, kind: 'matched', assignmentId: assignment.id,
+        rationale: 'Both coders agreed on every compared field.',
+      });
+      await closePair(trx, assignment, 'settled');
+      await recordAudit(trx, { actorId: null, action: 'assignment.matched', entityType: 'assignment', entityId: assignment.id, details: { recordId: settled.recordId } });
+      for (const c of (await contactsOf(trx, [assignment.coder1_id, assignment.coder2_id])).values()) {
+        mails.push(settledMail(origin, c, ref, settled.recordId, 'Both codings agreed, so the record was settled automatically.'));
+      }
+      return { state: 'settled', pairState: 'settled', discrepancies: 0, recordId: settled.recordId };
+    }
+    await insertDiscrepancies(trx, assignment.id, found);
+    await closePair(trx, assignment, 'disputed');
+    await recordAudit(trx, { actorId: null, action: 'assignment.disputed', entityType: 'assignment', entityId: assignment.id, details: { discrepancies: found.length } });
+    for (const to of await emailsWithRole(trx, 'curator')) mails.push(disputedMail(origin, to, ref, assignment.id, found));
+    return { state: 'disputed', pairState: 'disputed', discrepancies: found.length };
+  });
+  await queueMails(ctx, mails);
+  return result;
+}

@@ -1,0 +1,54 @@
+import net from 'node:net';
+import type { Knex } from 'knex';
+import type { Env } from '../env.js';
+import { ping } from '../repositories/health.js';
+
+type PartState = { state: 'up' | 'down' | 'not configured'; ms?: number; message?: string };
+
+async function timed(check: () => Promise<void>): Promise<PartState> {
+  const start = performance.now();
+  try {
+    await check();
+    return { state: 'up', ms: Math.round(performance.now() - start) };
+  } catch (err) {
+    return { state: 'down', ms: Math.round(performance.now() - start), message: (err as Error).message };
+  }
+}
+
+async function httpReachable(url: string, timeoutMs = 2000) {
+  const res = await fetch(url, { signal: AbortSignal.timeout(timeoutMs), redirect: 'manual' });
+  await res.body?.cancel();
+}
+
+function smtpGreets(host: string, port: number, timeoutMs = 2000) {
+  return new Promise<void>((resolve, reject) => {
+    const socket = net.connect({ host, port });
+    const fail = (err: Error) => {
+      socket.destroy();
+      reject(err);
+    };
+    socket.setTimeout(timeoutMs, () => fail(new Error('timed out')));
+    socket.once('error', fail);
+    socket.once('data', (chunk) => {
+      socket.end('QUIT\r\n');
+      if (String(chunk).startsWith('220')) resolve();
+      else reject(new Error(`unexpected greeting ${String(chunk).slice(0, 40)}`));
+    });
+  });
+}
+
+const notConfigured = Promise.resolve<PartState>({ state: 'not configured' });
+
+/** Whether the database and each configured outside service answer; the app is unavailable without its database. */
+export async function checkHealth(deps: { db: Knex; env: Env }) {
+  const { env } = deps;
+  const [database, search, mail, oauth] = await Promise.all([
+    timed(() => ping(deps.db)),
+    env.MEILI_HOST ? timed(() => httpReachable(new URL('/health', env.MEILI_HOST).toString())) : notConfigured,
+    env.SMTP_HOST && env.SMTP_PORT ? timed(() => smtpGreets(env.SMTP_HOST!, env.SMTP_PORT!)) : notConfigured,
+    timed(() => httpReachable(new URL(env.GITHUB_AUTHORIZATION_URL).origin)),
+  ]);
+  const parts = { database, search, mail, oauth };
+  const allUp = Object.values(parts).every((p) => p.state !== 'down');
+  return { available: database.state === 'up', body: { status: database.state !== 'up' ? 'unavailable' : allUp ? 'ok' : 'degraded', parts } };
+}

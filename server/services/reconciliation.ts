@@ -1,0 +1,133 @@
+// The reconciliation queue: a curator settles each discrepancy of a disputed pair, then the pair.
+import type { Knex } from 'knex';
+import { effectDraftSchema, studyDraftSchema } from '../../shared/schemas/extraction.js';
+import { tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
+import { toSheet } from '../../shared/extraction/stored-sheet.js';
+import type { AppContext } from '../context.js';
+import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
+import { findPairDetail, listDisputed, lockAssignment } from '../repositories/assignments.js';
+import { recordAudit } from '../repositories/audit.js';
+import { refLabel, type PageRequest } from '../repositories/db.js';
+import { discrepanciesOf, findDiscrepancy, resolveDiscrepancyRow } from '../repositories/discrepancies.js';
+import { latestSettlementOfPair, pairSheets, readSheet, reopenedRecords } from '../repositories/extractions.js';
+import { findRef } from '../repositories/refs.js';
+import type { AssignmentRow } from '../repositories/rows.js';
+import { contactsOf } from '../repositories/users.js';
+import { closePair } from './assignments.js';
+import { mergeSheets } from './comparison.js';
+import { settledMail } from './extraction-mails.js';
+import { queueMails, type OutgoingMail } from './mail.js';
+import { resolveManipulations } from './manipulations.js';
+import { createSettledRecord } from './settlement.js';
+
+export async function listQueue(db: Knex, q: PageRequest & { sort: 'updated' | 'reference' | 'open'; order: 'asc' | 'desc' }) {
+  const [{ total, rows }, reopened] = await Promise.all([listDisputed(db, q), reopenedRecords(db, 50)]);
+  return {
+    total,
+    items: rows.map((r) => ({
+      assignmentId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, coder1: r.coder1, coder2: r.coder2,
+      openDiscrepancies: r.open_discrepancies, discrepancies: r.discrepancies, updatedAt: r.updated_at,
+    })),
+    reopened: reopened.map((r) => ({
+      recordId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, recordVersion: r.record_version, reason: r.reopen_reason, updatedAt: r.updated_at,
+    })),
+  };
+}
+
+export async function getPair(db: Knex, assignmentId: number) {
+  const a = await findPairDetail(db, assignmentId);
+  if (!a) throw new NotFoundError(`No assignment ${assignmentId}.`);
+  const [xs, discrepancies, settlement] = await Promise.all([pairSheets(db, assignmentId), discrepanciesOf(db, assignmentId), latestSettlementOfPair(db, assignmentId)]);
+  const side = async (coderId: number, coder: string) => {
+    const x = xs.find((s) => s.coder_id === coderId);
+    return x ? { extractionId: x.id, coder, state: x.state, studies: x.state === 'draft' ? [] : await readSheet(db, x.id) } : null;
+  };
+  return {
+    assignment: {
+      id: a.id, state: a.state, version: a.version, referenceId: a.reference_id,
+      reference: { id: a.reference_id, title: a.title, label: refLabel(a), doi: a.doi },
+      coder1: a.coder1, coder2: a.coder2, recordId: settlement?.record_id ?? null,
+    },
+    a: await side(a.coder1_id, a.coder1),
+    b: await side(a.coder2_id, a.coder2),
+    discrepancies: discrepancies.map((d) => ({
+      id: d.id, path: d.path, field: d.field, label: d.label, valueA: d.value_a, valueB: d.value_b, status: d.status,
+      resolution: d.resolution, resolvedValue: d.resolved_value, rationale: d.rationale, resolvedBy: d.resolved_by_login, resolvedAt: d.resolved_at,
+    })),
+  };
+}
+
+const STUDY_FIELDS = ['design', 'population', 'diagnosis', 'modality', 'task', 'n1', 'n2', 'standardMs'] as const;
+type StudyField = (typeof STUDY_FIELDS)[number];
+const isStudyField = (f: string): f is StudyField => (STUDY_FIELDS as readonly string[]).includes(f);
+
+/** Checks a curator's own value for a field has the field's type and vocabulary. */
+function checkValue(field: string, value: unknown): unknown {
+  const fail = (message: string) => new ValidationError(`value: ${message}`, [{ path: 'body.value', message }]);
+  if (field === 'studies' || field === 'effects') throw new UnprocessableError('A count is settled by taking one coder’s list (a or b), not by entering a value.');
+  if (isStudyField(field)) {
+    const r = studyDraftSchema.shape[field].safeParse(value);
+    if (!r.success) throw fail(r.error.issues[0].message);
+    return r.data ?? null;
+  }
+  if (field === 'outcome' || field === 'manipulation') {
+    const r = effectDraftSchema.shape[field].safeParse(value);
+    if (!r.success || r.data === undefined) throw fail(r.success ? 'enter a value' : r.error.issues[0].message);
+    return r.data;
+  }
+  if (field === 'effect') {
+    const r = effectDraftSchema.pick({ form: true, reported: true, assumedR: true }).safeParse(value);
+    if (!r.success) throw fail(r.error.issues[0].message);
+    if (!r.data.form) throw fail('choose how the result was reported');
+    const c = tryComputeReported(r.data.form, r.data.reported as Reported, r.data.assumedR ?? null);
+    if (!c.ok) throw new ValidationError(`value.reported: ${c.error}`, [{ path: `body.value.reported${c.field ? `.${c.field}` : ''}`, message: c.error! }]);
+    return { form: r.data.form, reported: r.data.reported, assumedR: r.data.assumedR ?? null, metric: c.result!.metric, effect: c.result!.effect, variance: c.result!.variance };
+  }
+  throw fail(`no field ${field}`);
+}
+
+async function lockDisputed(trx: Knex.Transaction, assignmentId: number, doing: string): Promise<AssignmentRow> {
+  const a = await lockAssignment(trx, assignmentId);
+  if (!a) throw new NotFoundError(`No assignment ${assignmentId}.`);
+  if (a.state !== 'disputed') throw new ConflictError(`This pair is ${a.state}; only disputed pairs are ${doing}.`);
+  return a;
+}
+
+export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId: number, discrepancyId: number, input: { resolution: 'a' | 'b' | 'value'; value?: unknown; rationale: string }) {
+  return db.transaction(async (trx) => {
+    await lockDisputed(trx, assignmentId, 'reconciled');
+    const d = await findDiscrepancy(trx, assignmentId, discrepancyId);
+    if (!d) throw new NotFoundError(`No discrepancy ${discrepancyId} in assignment ${assignmentId}.`);
+    if (input.resolution === 'value' && d.field === 'manipulation') await resolveManipulations(trx, [String(input.value)]);
+    const value = input.resolution === 'a' ? d.value_a : input.resolution === 'b' ? d.value_b : checkValue(d.field, input.value);
+    const row = await resolveDiscrepancyRow(trx, d.id, { resolution: input.resolution, value, rationale: input.rationale, actorId });
+    await recordAudit(trx, { actorId, action: 'discrepancy.resolve', entityType: 'discrepancy', entityId: d.id, details: { assignmentId, path: d.path, resolution: input.resolution, value, rationale: input.rationale } });
+    return { id: row.id, status: row.status, resolution: row.resolution, resolvedValue: row.resolved_value, rationale: row.rationale };
+  });
+}
+
+/** Settles a disputed pair once every discrepancy is resolved: coder A's sheet with each resolution applied. */
+export async function settlePair(ctx: AppContext, actorId: number, assignmentId: number, input: { rationale: string }) {
+  const mails: OutgoingMail[] = [];
+  const out = await ctx.db.transaction(async (trx) => {
+    const a = await lockDisputed(trx, assignmentId, 'settled here');
+    const ds = await discrepanciesOf(trx, assignmentId);
+    const open = ds.filter((d) => d.status !== 'resolved');
+    if (open.length) throw new UnprocessableError(`${open.length} discrepanc${open.length === 1 ? 'y is' : 'ies are'} still open: ${open.map((d) => d.label).join('; ')}.`, open.map((d) => ({ id: d.id, path: d.path })));
+    const xs = await pairSheets(trx, assignmentId);
+    const sheetOf = async (coderId: number) => {
+      const x = xs.find((s) => s.coder_id === coderId)!;
+      return toSheet(await readSheet(trx, x.id), x.notes);
+    };
+    const merged = mergeSheets(await sheetOf(a.coder1_id), await sheetOf(a.coder2_id), ds.map((d) => ({ path: d.path, field: d.field, value: d.resolved_value, structural: d.resolution === 'value' ? null : d.resolution })));
+    const rationale = [input.rationale, ...ds.map((d) => `${d.label}: ${d.resolution === 'value' ? 'own value' : `coder ${d.resolution!.toUpperCase()}`} — ${d.rationale}`)].filter(Boolean).join('\n');
+    const settled = await createSettledRecord(trx, { referenceId: a.reference_id, sheet: merged, actorId, kind: 'reconciled', assignmentId, rationale });
+    await closePair(trx, a, 'settled');
+    await recordAudit(trx, { actorId, action: 'assignment.settle', entityType: 'assignment', entityId: assignmentId, details: { recordId: settled.recordId, rationale: input.rationale } });
+    const ref = (await findRef(trx, a.reference_id))!;
+    for (const c of (await contactsOf(trx, [a.coder1_id, a.coder2_id])).values()) mails.push(settledMail(ctx.env.APP_ORIGIN, c, ref, settled.recordId, 'A curator reconciled the two codings.'));
+    return settled;
+  });
+  await queueMails(ctx, mails);
+  return out;
+}
