@@ -1,7 +1,7 @@
 // npm run search:rebuild — empties the references index and fills it again from PostgreSQL.
 import { createDb } from '../server/db/knex.js';
 import { readEnv } from '../server/env.js';
-import { createSearchIndex } from '../server/search/index.js';
+import { createSearchIndex } from '../server/adapters/search.js';
 import { rebuildReferenceIndex } from '../server/services/search.js';
 
 let env;

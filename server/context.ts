@@ -1,39 +1,34 @@
-import type { Knex } from 'knex';
 import pg from 'pg';
 import type { Env } from './env.js';
 import { createDb } from './db/knex.js';
-import { JobQueue } from './jobs/queue.js';
-import { createSearchIndex, type SearchIndex } from './search/index.js';
+import { createDoiResolver } from './adapters/citations.js';
+import { JobQueue } from './adapters/jobs.js';
+import { createMailer } from './adapters/mail.js';
+import { createSearchIndex } from './adapters/search.js';
+import type { Deps } from './services/deps.js';
 
-/** Everything a router or worker needs; built once per process (or per test app). */
-export interface AppContext {
+/** The composition root's object: configuration and every adapter, built once per process (or per test app). */
+export interface AppContext extends Deps {
   env: Env;
-  db: Knex;
-  jobs: JobQueue;
   /** Connections for the session store (connect-pg-simple). */
   sessionPool: pg.Pool;
-  /** The search index (Meilisearch client); null when MEILI_HOST is not configured. */
-  search: SearchIndex | null;
 }
 
 export function createContext(env: Env): AppContext {
-  const db = createDb(env.DATABASE_URL);
-  const jobs = new JobQueue(env.DATABASE_URL);
-  const sessionPool = new pg.Pool({ connectionString: env.DATABASE_URL, max: 4 });
-  const search = createSearchIndex(env.MEILI_HOST, env.MEILI_API_KEY);
-  return { env, db, jobs, sessionPool, search };
-}
-
-/** Starts background workers (each feature registers its own in server/jobs/workers.ts). */
-export async function startBackground(ctx: AppContext): Promise<void> {
-  if (ctx.env.JOBS_ENABLED !== 'true') return;
-  await ctx.jobs.start();
-  const { registerWorkers } = await import('./jobs/workers.js');
-  await registerWorkers(ctx);
+  return {
+    env,
+    db: createDb(env.DATABASE_URL),
+    jobs: env.JOBS_ENABLED === 'true' ? new JobQueue(env.DATABASE_URL) : null,
+    sessionPool: new pg.Pool({ connectionString: env.DATABASE_URL, max: 4 }),
+    search: createSearchIndex(env.MEILI_HOST, env.MEILI_API_KEY),
+    mailer: createMailer(env),
+    doi: createDoiResolver({ baseUrl: env.DOI_RESOLVER_URL, timeoutMs: env.DOI_TIMEOUT_MS }),
+    appOrigin: env.APP_ORIGIN,
+  };
 }
 
 export async function closeContext(ctx: AppContext): Promise<void> {
-  await ctx.jobs.stop().catch(() => undefined);
+  await ctx.jobs?.stop().catch(() => undefined);
   await ctx.sessionPool.end().catch(() => undefined);
   await ctx.db.destroy();
 }

@@ -1,6 +1,7 @@
 import { buildApp } from './app.js';
-import { closeContext, createContext, startBackground } from './context.js';
+import { closeContext, createContext } from './context.js';
 import { readEnv } from './env.js';
+import { startWorkers } from './workers.js';
 
 let env;
 try {
@@ -10,7 +11,7 @@ try {
   process.exit(1);
 }
 const ctx = createContext(env);
-await startBackground(ctx);
+await startWorkers(ctx);
 const app = buildApp(ctx);
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`Chronometa is running at ${env.APP_ORIGIN}`);

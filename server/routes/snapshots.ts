@@ -9,7 +9,7 @@ import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCs
 /** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
 export function snapshotsRouter(ctx: AppContext) {
   const router = Router();
-  const origin = ctx.env.APP_ORIGIN;
+  const origin = ctx.appOrigin;
   const load = (params: unknown) => loadSnapshot(ctx.db, parseInput(snapshotIdSchema, params, 'path').id);
   const attachment = (name: string) => `attachment; filename="${name}"`;
 

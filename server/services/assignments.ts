@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import { hasRole } from '../../shared/roles.js';
-import type { AppContext } from '../context.js';
+import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
 import { activeAssignmentOf, insertAssignment, listAssignments as assignmentRows, listCandidates as candidateRows, setAssignmentState } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -13,7 +13,7 @@ import { assignmentMail } from './extraction-mails.js';
 import { queueMails } from './mail.js';
 
 /** A curator pairs two coders on a reference; each gets a blind coding sheet (a coder's earlier claim joins the pair). */
-export async function createAssignment(ctx: AppContext, actorId: number, input: { referenceId: number; coder1Id: number; coder2Id: number }) {
+export async function createAssignment(ctx: MailingDeps, actorId: number, input: { referenceId: number; coder1Id: number; coder2Id: number }) {
   const result = await ctx.db.transaction(async (trx) => {
     const ref = await findRef(trx, input.referenceId);
     if (!ref) throw new NotFoundError(`No reference ${input.referenceId}.`);
@@ -37,7 +37,7 @@ export async function createAssignment(ctx: AppContext, actorId: number, input: 
   });
   await queueMails(
     ctx,
-    result.coders.map((c) => assignmentMail(ctx.env.APP_ORIGIN, { email: c.email, login: c.login, name: null }, result.ref, result.extractions.find((e) => e.coder_id === c.id)!.id)),
+    result.coders.map((c) => assignmentMail(ctx.appOrigin, { email: c.email, login: c.login, name: null }, result.ref, result.extractions.find((e) => e.coder_id === c.id)!.id)),
   );
   return { id: result.assignment.id, extractionIds: result.extractions.map((e) => e.id) };
 }

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { hasRole, type Role } from '../../shared/roles.js';
 import type { Sheet } from '../../shared/schemas/extraction.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
-import type { AppContext } from '../context.js';
+import type { MailingDeps } from './deps.js';
 import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { activeAssignmentOf, findAssignment, lockAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -130,9 +130,9 @@ export async function saveDraft(db: Knex, actor: Actor, id: number, input: { ver
  * Submits a coder's sheet. When it is the second of its pair to arrive, the two are compared: matched
  * pairs settle at once, disputed ones go to the reconciliation queue with their discrepancies.
  */
-export async function submitExtraction(ctx: AppContext, actor: Actor, id: number, input: { version: number }) {
+export async function submitExtraction(ctx: MailingDeps, actor: Actor, id: number, input: { version: number }) {
   const mails: OutgoingMail[] = [];
-  const origin = ctx.env.APP_ORIGIN;
+  const origin = ctx.appOrigin;
   const result = await ctx.db.transaction(async (trx) => {
     const peek = await findExtraction(trx, id);
     if (!peek) throw new NotFoundError(`No extraction ${id}.`);

@@ -1,6 +1,6 @@
 // Splits an import file into entries and turns each into CSL-JSON or a rejection a person understands.
 import { normaliseDoi } from '../../shared/schemas/references.js';
-import { parseEntry } from '../citations/index.js';
+import { parseEntry } from '../adapters/citations.js';
 import { cslTitle, cslYear, type Csl } from './reference-fields.js';
 
 export interface RawEntry {

@@ -1,7 +1,5 @@
 import type { Knex } from 'knex';
-import type { AppContext } from '../context.js';
 import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportFormat, type ImportResult } from '../../shared/schemas/references.js';
-import { resolveDoi, setDoiResolver } from '../citations/index.js';
 import { NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
@@ -11,6 +9,7 @@ import {
 } from '../repositories/imports.js';
 import { findRefByDoi, insertRefs, insertRefUnlessDoiTaken, liveRefsWithTitleKeys, refIdsByDoi } from '../repositories/refs.js';
 import type { EntryStatus, ImportEntryRow } from '../repositories/rows.js';
+import type { Deps, SearchDeps } from './deps.js';
 import { describeEntry, parseDoiList, parseEntries } from './import-parsing.js';
 import { authorKey, cleanCsl, refColumns, type Csl, type RefColumns } from './reference-fields.js';
 import { findDuplicate, offerDuplicate } from './references.js';
@@ -31,7 +30,7 @@ const fingerprint = (c: Pick<RefColumns, 'title_key' | 'year' | 'first_author'>)
  * still import, and a file imported twice creates nothing the second time.
  */
 export async function importText(
-  ctx: Pick<AppContext, 'db' | 'search'>,
+  ctx: SearchDeps,
   input: { format: 'bibtex' | 'ris'; text: string; label?: string; userId: number | null },
 ): Promise<ImportResult> {
   const parsed = parseEntries(input.format, input.text);
@@ -134,7 +133,7 @@ export async function importText(
 }
 
 /** A DOI list: a batch whose entries are resolved by background jobs; answers at once with the batch. */
-export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' | 'env'>, input: { text: string; label?: string; userId: number | null }): Promise<ImportResult> {
+export async function importDois(ctx: Pick<Deps, 'db' | 'search' | 'jobs' | 'doi'>, input: { text: string; label?: string; userId: number | null }): Promise<ImportResult> {
   const list = parseDoiList(input.text);
   const seen = new Map<string, number>();
   const batchId = await ctx.db.transaction(async (trx) => {
@@ -152,7 +151,7 @@ export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' 
   });
   const pending = (await pendingEntries(ctx.db, batchId)).map((e) => e.idx);
   if (!pending.length) await finishIfDone(ctx.db, batchId);
-  else if (ctx.env.JOBS_ENABLED === 'true') {
+  else if (ctx.jobs) {
     for (let i = 0; i < pending.length; i += DOI_CHUNK) {
       await ctx.jobs.send(DOI_QUEUE, { batchId, entries: pending.slice(i, i + DOI_CHUNK) }, { retryLimit: 2 });
     }
@@ -166,8 +165,7 @@ export async function importDois(ctx: Pick<AppContext, 'db' | 'search' | 'jobs' 
 }
 
 /** The `doi.resolve` job: resolves pending entries of a batch; safe to run twice (only pending entries are touched). */
-export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 'env'>, job: { batchId: number; entries: number[] }): Promise<void> {
-  setDoiResolver(ctx.env.DOI_RESOLVER_URL);
+export async function resolveDoiEntries(ctx: Pick<Deps, 'db' | 'search' | 'doi'>, job: { batchId: number; entries: number[] }): Promise<void> {
   const batch = await findBatch(ctx.db, job.batchId);
   if (!batch) return;
   const rows = await pendingEntries(ctx.db, job.batchId, job.entries);
@@ -180,7 +178,7 @@ export async function resolveDoiEntries(ctx: Pick<AppContext, 'db' | 'search' | 
       const where = `Line ${row.idx}`;
       let update: Partial<EntryRow>;
       try {
-        const csl = cleanCsl(await resolveDoi(doi, ctx.env.DOI_TIMEOUT_MS));
+        const csl = cleanCsl(await ctx.doi(doi));
         csl.DOI = csl.DOI ?? doi;
         update = await ctx.db.transaction(async (trx) => {
           const cols = refColumns(csl);

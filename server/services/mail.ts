@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
-import type { AppContext } from '../context.js';
-import { MAIL_JOB, MAIL_RETRY_LIMIT } from '../mail/worker.js';
+import type { Deps } from './deps.js';
+import { MAIL_JOB, MAIL_RETRY_LIMIT } from './mail-delivery.js';
 import type { PageRequest } from '../repositories/db.js';
 import { insertMail, listMailLog as mailRows, updateMail } from '../repositories/mail-log.js';
 import type { MailStatus } from '../repositories/rows.js';
@@ -19,18 +19,18 @@ export interface OutgoingMail {
  * Call after the transaction that caused them has committed. When the queue is not running the mails
  * stay `queued` in the log (visible to admins).
  */
-export async function queueMails(ctx: AppContext, mails: OutgoingMail[]): Promise<number[]> {
+export async function queueMails(deps: Pick<Deps, 'db' | 'jobs'>, mails: OutgoingMail[]): Promise<number[]> {
   const ids: number[] = [];
   for (const m of mails) {
     if (!m.to) continue;
-    const id = await insertMail(ctx.db, m);
+    const id = await insertMail(deps.db, m);
     ids.push(id);
-    if (ctx.env.JOBS_ENABLED !== 'true') continue;
+    if (!deps.jobs) continue;
     try {
-      const jobId = await ctx.jobs.send(MAIL_JOB, { mailId: id }, { retryLimit: MAIL_RETRY_LIMIT, retryDelay: 1, retryBackoff: true });
-      await updateMail(ctx.db, id, { job_id: jobId });
+      const jobId = await deps.jobs.send(MAIL_JOB, { mailId: id }, { retryLimit: MAIL_RETRY_LIMIT, retryDelay: 1, retryBackoff: true });
+      await updateMail(deps.db, id, { job_id: jobId });
     } catch (err) {
-      await updateMail(ctx.db, id, { last_error: `not queued: ${(err as Error).message}`.slice(0, 1000) });
+      await updateMail(deps.db, id, { last_error: `not queued: ${(err as Error).message}`.slice(0, 1000) });
     }
   }
   return ids;

@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { effectDraftSchema, studyDraftSchema } from '../../shared/schemas/extraction.js';
 import { tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
-import type { AppContext } from '../context.js';
+import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
 import { findPairDetail, listDisputed, lockAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -107,7 +107,7 @@ export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId
 }
 
 /** Settles a disputed pair once every discrepancy is resolved: coder A's sheet with each resolution applied. */
-export async function settlePair(ctx: AppContext, actorId: number, assignmentId: number, input: { rationale: string }) {
+export async function settlePair(ctx: MailingDeps, actorId: number, assignmentId: number, input: { rationale: string }) {
   const mails: OutgoingMail[] = [];
   const out = await ctx.db.transaction(async (trx) => {
     const a = await lockDisputed(trx, assignmentId, 'settled here');
@@ -125,7 +125,7 @@ export async function settlePair(ctx: AppContext, actorId: number, assignmentId:
     await closePair(trx, a, 'settled');
     await recordAudit(trx, { actorId, action: 'assignment.settle', entityType: 'assignment', entityId: assignmentId, details: { recordId: settled.recordId, rationale: input.rationale } });
     const ref = (await findRef(trx, a.reference_id))!;
-    for (const c of (await contactsOf(trx, [a.coder1_id, a.coder2_id])).values()) mails.push(settledMail(ctx.env.APP_ORIGIN, c, ref, settled.recordId, 'A curator reconciled the two codings.'));
+    for (const c of (await contactsOf(trx, [a.coder1_id, a.coder2_id])).values()) mails.push(settledMail(ctx.appOrigin, c, ref, settled.recordId, 'A curator reconciled the two codings.'));
     return settled;
   });
   await queueMails(ctx, mails);

@@ -5,7 +5,7 @@ import type { EffectSheet } from '../../shared/schemas/extraction.js';
 import { OUTCOMES, METRIC_LABELS } from '../../shared/vocabulary/outcomes.js';
 import { METRIC_OF_FORM, tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
-import type { AppContext } from '../context.js';
+import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors.js';
 import { findAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -66,7 +66,7 @@ export async function reopenRecord(db: Knex, actorId: number, recordId: number, 
 }
 
 /** Settles a reopened draft version (curators). */
-export async function settleRecordDraft(ctx: AppContext, actorId: number, recordId: number, input: { rationale: string; version?: number }) {
+export async function settleRecordDraft(ctx: MailingDeps, actorId: number, recordId: number, input: { rationale: string; version?: number }) {
   const mails: OutgoingMail[] = [];
   const out = await ctx.db.transaction(async (trx) => {
     const x = await lockCurrentSettled(trx, recordId);
@@ -81,7 +81,7 @@ export async function settleRecordDraft(ctx: AppContext, actorId: number, record
     if (a) {
       const ref = (await findRef(trx, x.reference_id))!;
       const how = `A curator settled version ${x.record_version} after reopening it (${x.reopen_reason}).`;
-      for (const c of (await contactsOf(trx, [a.coder1_id, a.coder2_id])).values()) mails.push(settledMail(ctx.env.APP_ORIGIN, c, ref, recordId, how));
+      for (const c of (await contactsOf(trx, [a.coder1_id, a.coder2_id])).values()) mails.push(settledMail(ctx.appOrigin, c, ref, recordId, how));
     }
     return { recordId, recordVersion: x.record_version!, registryVersion };
   });

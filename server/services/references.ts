@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 import type { ReferenceEdit, ReferenceListQuery } from '../../shared/schemas/references.js';
-import { toBibtex } from '../citations/index.js';
+import { toBibtex } from '../adapters/citations.js';
 import { ConflictError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, type Db } from '../repositories/db.js';

@@ -1,8 +1,8 @@
 import type { Knex } from 'knex';
-import type { AppContext } from '../context.js';
+import type { SearchDeps } from './deps.js';
 import type { SearchQuery, SearchResult } from '../../shared/schemas/references.js';
 import { AppError } from '../lib/errors.js';
-import { REFERENCES_INDEX, SearchUnavailableError, type SearchIndex } from '../search/index.js';
+import { REFERENCES_INDEX, SearchUnavailableError, type SearchIndex } from '../adapters/search.js';
 import { countLiveRefs, liveRefsAfter, refsForIndex, type RefSearchRow } from '../repositories/refs.js';
 import { cslAuthors } from './reference-fields.js';
 
@@ -33,7 +33,7 @@ export function referenceDocument(r: RefSearchRow) {
  * removed. A failing index is logged, not fatal: the database is the record and `npm run search:rebuild`
  * (or the next start) repairs the index.
  */
-export async function syncReferences(ctx: Pick<AppContext, 'db' | 'search'>, ids: number[]): Promise<void> {
+export async function syncReferences(ctx: SearchDeps, ids: number[]): Promise<void> {
   if (!ctx.search || !ids.length) return;
   try {
     for (let i = 0; i < ids.length; i += 5000) {
@@ -66,7 +66,7 @@ export async function rebuildReferenceIndex(db: Knex, search: SearchIndex, onPro
 }
 
 /** At start: fills an index that does not hold what the database holds (a fresh or restarted search server). */
-export async function ensureReferenceIndex(ctx: Pick<AppContext, 'db' | 'search'>): Promise<void> {
+export async function ensureReferenceIndex(ctx: SearchDeps): Promise<void> {
   if (!ctx.search) return;
   try {
     if ((await ctx.search.count(REFERENCES_INDEX)) !== (await countLiveRefs(ctx.db))) await rebuildReferenceIndex(ctx.db, ctx.search);

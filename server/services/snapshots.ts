@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import type { Knex } from 'knex';
 import Papa from 'papaparse';
 import { NotFoundError } from '../lib/errors.js';
-import { toBibtex } from '../citations/index.js';
+import { toBibtex } from '../adapters/citations.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
 import { querySettledEffects, type SettledEffectRow } from '../repositories/effects.js';

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { deliverMail } from '../../server/mail/worker.js';
+import { deliverMail } from '../../server/services/mail-delivery.js';
 import { queueMails } from '../../server/services/mail.js';
 import { createTestApp, resetDb, signIn, type TestApp } from '../support/test-app.js';
 

@@ -1,5 +1,5 @@
 import type { TestApp } from './test-app.js';
-import { REFERENCES_INDEX } from '../../server/search/index.js';
+import { REFERENCES_INDEX } from '../../server/adapters/search.js';
 
 /** Empties the references index (the fake keeps it in memory across test files). */
 export async function clearSearch(t: TestApp): Promise<void> {

@@ -1,8 +1,9 @@
 import request from 'supertest';
 import type { Knex } from 'knex';
 import { buildApp } from '../../server/app.js';
-import { closeContext, createContext, startBackground, type AppContext } from '../../server/context.js';
+import { closeContext, createContext, type AppContext } from '../../server/context.js';
 import { readEnv } from '../../server/env.js';
+import { startWorkers } from '../../server/workers.js';
 import { ensureDemoPeople } from '../../seeds/01_demo_people.js';
 
 export interface TestApp {
@@ -15,7 +16,7 @@ export interface TestApp {
 export async function createTestApp(opts: { jobs?: boolean; env?: Record<string, string> } = {}): Promise<TestApp> {
   const env = readEnv({ ...process.env, JOBS_ENABLED: opts.jobs ? 'true' : 'false', ...opts.env });
   const ctx = createContext(env);
-  await startBackground(ctx);
+  await startWorkers(ctx);
   const app = buildApp(ctx);
   return { app, ctx, close: () => closeContext(ctx) };
 }

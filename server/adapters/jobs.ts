@@ -2,7 +2,7 @@ import PgBoss from 'pg-boss';
 
 export type JobHandler<T> = (data: T, job: { id: string; retryCount: number }) => Promise<void>;
 
-/** Background work in PostgreSQL (pg-boss): DOI resolution, mail, re-indexing. */
+/** Background work in PostgreSQL (pg-boss): DOI resolution, mail, re-indexing. One per process, when JOBS_ENABLED. */
 export class JobQueue {
   private readonly boss: PgBoss;
   private readonly queues = new Set<string>();

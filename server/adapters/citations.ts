@@ -1,24 +1,17 @@
-// citation-js set up once for the server: BibTeX, RIS and DOI input, BibTeX output, and a DOI resolver
-// whose base URL is configuration (the DOI plugin itself always fetches https://doi.org).
+// citation-js set up once for the server: BibTeX, RIS and DOI input, BibTeX output, and DOI resolvers whose
+// base URL is configuration (the DOI plugin itself always fetches https://doi.org).
 import { Cite, plugins, util } from '@citation-js/core';
 import '@citation-js/plugin-bibtex';
 import '@citation-js/plugin-ris';
 import * as doiPlugin from '@citation-js/plugin-doi';
 
 const CSL_ACCEPT = 'application/vnd.citationstyles.csl+json';
-let resolverBase = 'https://doi.org';
 
-const parseDoiJson: (data: unknown) => Record<string, unknown> = ((doiPlugin as any).parsers.json.default ?? (doiPlugin as any).parsers.json.parse) as never;
+const parseDoiJson = (doiPlugin.parsers.json.default ?? doiPlugin.parsers.json.parse)!;
 
-/** Where "https://doi.org/<doi>" requests actually go. */
-export function setDoiResolver(base: string): void {
-  resolverBase = base.replace(/\/+$/, '');
-}
-
-const rewrite = (url: string) => url.replace(/^https?:\/\/(?:dx\.)?doi\.org/i, resolverBase);
-
+/** Fetches one DOI record; the URL is already the configured resolver's (see createDoiResolver). */
 async function fetchCsl(url: string): Promise<Record<string, unknown>> {
-  const text: string = await util.fetchFileAsync(rewrite(url), { checkContentType: true, headers: { Accept: CSL_ACCEPT } });
+  const text: string = await util.fetchFileAsync(url, { checkContentType: true, headers: { Accept: CSL_ACCEPT } });
   if (text === '[]') return {};
   return parseDoiJson(JSON.parse(text));
 }
@@ -49,18 +42,28 @@ export class DoiLookupError extends Error {
   }
 }
 
-/** Resolves one DOI to CSL-JSON through citation-js, giving up after `timeoutMs`. */
-export async function resolveDoi(doi: string, timeoutMs: number): Promise<Record<string, unknown>> {
+export type Csl = Record<string, unknown>;
+export type DoiResolver = (doi: string) => Promise<Csl>;
+
+/**
+ * A DOI resolver at a configured base URL (https://doi.org in production, the local stand-in in development and
+ * tests): resolves one DOI to CSL-JSON through citation-js's DOI parser, giving up after `timeoutMs`.
+ */
+export function createDoiResolver(config: { baseUrl: string; timeoutMs: number }): DoiResolver {
+  const base = config.baseUrl.replace(/\/+$/, '');
+  return (doi) => resolveDoi(`${base}/${doi.split('/').map(encodeURIComponent).join('/')}`, config.timeoutMs);
+}
+
+async function resolveDoi(url: string, timeoutMs: number): Promise<Csl> {
   let timer: NodeJS.Timeout | undefined;
   const timeout = new Promise<never>((_r, reject) => {
     timer = setTimeout(() => reject(new DoiLookupError(`the DOI resolver did not answer within ${(timeoutMs / 1000).toFixed(1)} s`, 'timeout')), timeoutMs);
   });
   try {
-    // The URL is built here and typed as a DOI API address, so DOIs with characters citation-js's own DOI
-    // pattern does not accept (parentheses are fine, `{` or `$` are not) still go through the plugin.
-    const url = `https://doi.org/${doi.split('/').map(encodeURIComponent).join('/')}`;
+    // Typed as a DOI API address, so DOIs with characters citation-js's own DOI pattern does not accept
+    // (parentheses are fine, `{` or `$` are not) still go through the plugin.
     const chain = plugins.input.chainAsync(url, { target: '@csl/list+object', generateGraph: false, forceType: '@doi/api' });
-    const list = (await Promise.race([chain, timeout])) as Record<string, unknown>[];
+    const list = (await Promise.race([chain, timeout])) as Csl[];
     const record = list?.[0];
     if (!record || !record.title) throw new DoiLookupError('the resolver returned a record without a title', 'bad_record');
     return record;

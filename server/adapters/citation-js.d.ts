@@ -1,9 +1,9 @@
-// citation-js ships no type declarations; these cover what server/citations uses.
+// citation-js ships no type declarations; these cover what server/adapters/citations.ts uses.
 declare module '@citation-js/core' {
   export class Cite {
     constructor(data?: unknown, options?: Record<string, unknown>);
     static async(data: unknown, options?: Record<string, unknown>): Promise<Cite>;
-    data: Array<Record<string, any>>;
+    data: Array<Record<string, unknown>>;
     format(format: string, options?: Record<string, unknown>): string | object;
   }
   export const plugins: {
@@ -19,7 +19,7 @@ declare module '@citation-js/core' {
   };
 }
 declare module '@citation-js/plugin-doi' {
-  export const parsers: Record<string, any>;
+  export const parsers: { json: { default?: (data: unknown) => Record<string, unknown>; parse?: (data: unknown) => Record<string, unknown> } };
 }
 declare module '@citation-js/plugin-bibtex';
 declare module '@citation-js/plugin-ris';
