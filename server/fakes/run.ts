@@ -1,7 +1,7 @@
 // Starts every local stand-in for a hosted service on loopback, on the ports given by the environment.
 import type { Server } from 'node:http';
 import { startOAuthProvider } from './oauth-provider.js';
-import { startSearchIndex } from './search-index.js';
+import { startSearchIndex } from './search-index/http.js';
 import { startDoiResolver } from './doi-resolver.js';
 import { startFakeSmtp } from './smtp.js';
 
