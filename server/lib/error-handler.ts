@@ -1,16 +1,17 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
+import type { ApiError } from '../../shared/schemas/common.js';
 import { AppError } from './errors.js';
 
+const refusal = (code: string, message: string, details?: unknown): ApiError => ({ error: { code, message, ...(details !== undefined ? { details } : {}) } });
+
 export const notFoundApi: RequestHandler = (req, res) => {
-  res.status(404).json({ error: { code: 'not_found', message: `No API route ${req.method} ${req.path}.` } });
+  res.status(404).json(refusal('not_found', `No API route ${req.method} ${req.path}.`));
 };
 
 export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (err instanceof AppError) {
-      res.status(err.status).json({
-        error: { code: err.code, message: err.message, ...(err.details !== undefined ? { details: err.details } : {}) },
-      });
+      res.status(err.status).json(refusal(err.code, err.message, err.details));
       return;
     }
     // body-parser, multer and similar middleware set an HTTP status on their errors.
@@ -22,12 +23,10 @@ export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
           : err.type === 'entity.too.large'
             ? 'The request body is too large.'
             : String(err.message || 'Bad request.');
-      res.status(status).json({ error: { code: err.code && typeof err.code === 'string' ? err.code.toLowerCase() : 'bad_request', message } });
+      res.status(status).json(refusal(err.code && typeof err.code === 'string' ? err.code.toLowerCase() : 'bad_request', message));
       return;
     }
     console.error(err);
-    res.status(500).json({
-      error: { code: 'internal', message: exposeInternals ? String(err?.stack ?? err) : 'Something went wrong on the server.' },
-    });
+    res.status(500).json(refusal('internal', exposeInternals ? String(err?.stack ?? err) : 'Something went wrong on the server.'));
   };
 }

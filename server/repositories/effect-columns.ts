@@ -1,6 +1,6 @@
 // The one mapping between an effect as coded (sheet shape) and its row in `effects`, both ways.
 import type { EffectSheet } from '../../shared/schemas/extraction.js';
-import type { ComputedEffect, ReportForm, Reported } from '../../shared/extraction/compute.js';
+import type { ComputedEffect, Reported } from '../../shared/extraction/compute.js';
 import type { StoredEffect } from '../../shared/extraction/stored-sheet.js';
 import type { EffectRow } from './rows.js';
 
@@ -41,7 +41,7 @@ export function storedEffect(f: EffectRow & { term: string | null }): StoredEffe
     label: f.label,
     outcome: u(f.outcome),
     manipulation: u(f.term),
-    form: u(f.report_form) as ReportForm | undefined,
+    form: u(f.report_form),
     reported: (f.reported ?? {}) as Reported,
     // a stored assumed r is the value used; the form shows it as the assumption
     assumedR: f.assumed_r == null ? undefined : Number(f.assumed_r),

@@ -1,4 +1,6 @@
 import type { Knex } from 'knex';
+import type { SettledEffectRow } from '../../shared/schemas/registry.js';
+import type { Metric } from '../../shared/stats/metrics.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 import { countRows, refLabel, type Db } from './db.js';
 import { manipulationsByTerm } from './manipulations.js';
@@ -8,36 +10,7 @@ import type { EffectColumns } from './effect-columns.js';
 
 export { settledEffectsFrom, applyStudyFilters, type SettledEffectFilters };
 
-export interface SettledEffectRow {
-  id: number;
-  referenceId: number;
-  /** stable across reopened versions of the settled record: group dependent effects by it */
-  studyId: number;
-  studyLabel: string;
-  /** first author + year, e.g. "Okafor 2019" */
-  referenceLabel: string;
-  year: number | null;
-  outcome: string;
-  manipulation: string;
-  manipulationLabel: string;
-  metric: string;
-  effect: number;
-  variance: number;
-  formula: string;
-  assumedR: number | null;
-  n: number | null;
-  design: string | null;
-  population: string | null;
-  diagnosis: string | null;
-  modality: string | null;
-  task: string | null;
-  standardMs: number | null;
-  label: string;
-  doi: string | null;
-  title: string;
-  recordId: number;
-  recordVersion: number;
-}
+export type { SettledEffectRow };
 
 export interface SettledEffectPaging {
   page: number;
@@ -71,7 +44,7 @@ function settledBase(db: Db, f: SettledEffectFilters) {
 interface JoinedRow {
   id: number;
   outcome: string;
-  metric: string;
+  metric: Metric;
   effect: number;
   variance: number;
   formula: string;

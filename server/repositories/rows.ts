@@ -1,6 +1,13 @@
 // The rows of each table as the pg driver returns them (bigint and numeric parsed to numbers in db/knex.ts;
 // jsonb parsed; timestamps as Date). Repositories read and write these; services see the repositories' shapes.
+import type { ReportForm } from '../../shared/extraction/compute.js';
 import type { Role } from '../../shared/roles.js';
+import type { Metric } from '../../shared/stats/metrics.js';
+import type { Design } from '../../shared/vocabulary/designs.js';
+import type { Modality } from '../../shared/vocabulary/modalities.js';
+import type { OutcomeKind } from '../../shared/vocabulary/outcomes.js';
+import type { Population } from '../../shared/vocabulary/populations.js';
+import type { Task } from '../../shared/vocabulary/tasks.js';
 
 export type Timestamp = Date | string;
 export type Json = Record<string, unknown>;
@@ -175,13 +182,13 @@ export interface ExtractionStudyRow {
   study_id: number | null;
   position: number;
   label: string;
-  design: string | null;
+  design: Design | null;
   n1: number | null;
   n2: number | null;
-  population: string | null;
+  population: Population | null;
   diagnosis: string | null;
-  modality: string | null;
-  task: string | null;
+  modality: Modality | null;
+  task: Task | null;
   standard_ms: number | null;
 }
 
@@ -191,11 +198,11 @@ export interface EffectRow {
   extraction_study_id: number;
   position: number;
   label: string;
-  outcome: string | null;
+  outcome: OutcomeKind | null;
   manipulation_id: number | null;
-  report_form: string | null;
+  report_form: ReportForm | null;
   reported: Json;
-  metric: string | null;
+  metric: Metric | null;
   effect: number | null;
   variance: number | null;
   formula: string | null;

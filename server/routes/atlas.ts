@@ -1,17 +1,9 @@
 import { Router } from 'express';
-import { z } from 'zod';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
-import { atlasSlugSchema } from '../../shared/schemas/synthesis.js';
+import { atlasReferencesQuerySchema, atlasSlugSchema } from '../../shared/schemas/synthesis.js';
 import { RegistryCache } from '../services/registry-cache.js';
 import { atlasLanding, atlasManipulation, atlasManipulationPooled, atlasOutcome, atlasReferences } from '../services/atlas.js';
-
-const refsQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
-  sort: z.enum(['year', 'label', 'title', 'effects']).default('year'),
-  order: z.enum(['asc', 'desc']).default('asc'),
-});
 
 /** What is known, by manipulation and by outcome kind; for anyone, cached by registry version. */
 export function atlasRouter(ctx: AppContext) {
@@ -36,7 +28,7 @@ export function atlasRouter(ctx: AppContext) {
 
   router.get('/atlas/manipulations/:slug/references', async (req, res) => {
     const term = slug(req.params);
-    const q = parseInput(refsQuery, req.query, 'query');
+    const q = parseInput(atlasReferencesQuerySchema, req.query, 'query');
     send(res, await cache.get(ctx.db, `mr:${term}:${JSON.stringify(q)}`, () => atlasReferences(ctx.db, { manipulation: term }, q)));
   });
 
@@ -47,7 +39,7 @@ export function atlasRouter(ctx: AppContext) {
 
   router.get('/atlas/outcomes/:slug/references', async (req, res) => {
     const kind = slug(req.params);
-    const q = parseInput(refsQuery, req.query, 'query');
+    const q = parseInput(atlasReferencesQuerySchema, req.query, 'query');
     send(res, await cache.get(ctx.db, `or:${kind}:${JSON.stringify(q)}`, () => atlasReferences(ctx.db, { outcome: kind }, q)));
   });
 

@@ -1,8 +1,8 @@
 import { Router } from 'express';
 import type { createPassport } from '../auth/passport.js';
-import rateLimit from 'express-rate-limit';
 import { z } from 'zod';
 import type { AppContext } from '../context.js';
+import { perMinuteLimit } from '../lib/rate-limit.js';
 
 const returnToSchema = z
   .string()
@@ -13,17 +13,7 @@ const returnToSchema = z
 /** The OAuth web flow at passport's usual paths: /auth/github → provider → /auth/github/callback. */
 export function authRouter(ctx: AppContext, passport: ReturnType<typeof createPassport>) {
   const router = Router();
-  router.use(
-    rateLimit({
-      windowMs: 60_000,
-      limit: ctx.env.AUTH_RATE_LIMIT_PER_MINUTE,
-      standardHeaders: 'draft-7',
-      legacyHeaders: false,
-      handler: (_req, res) => {
-        res.status(429).json({ error: { code: 'rate_limited', message: 'Too many sign-in attempts; wait a minute and try again.' } });
-      },
-    }),
-  );
+  router.use(perMinuteLimit(ctx.env.AUTH_RATE_LIMIT_PER_MINUTE, 'Too many sign-in attempts; wait a minute and try again.'));
 
   router.get('/github', (req, res, next) => {
     const returnTo = returnToSchema.safeParse(req.query.returnTo);

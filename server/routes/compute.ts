@@ -1,6 +1,6 @@
 import express, { Router } from 'express';
-import rateLimit from 'express-rate-limit';
 import type { AppContext } from '../context.js';
+import { perMinuteLimit } from '../lib/rate-limit.js';
 import { parseInput } from '../lib/validate.js';
 import { ValidationError } from '../lib/errors.js';
 import { computeEffect, pool, StatsInputError } from '../../shared/stats/index.js';
@@ -13,15 +13,7 @@ import { effectInputSchema, poolInputSchema } from '../../shared/schemas/compute
  */
 export function computeRouter(ctx: AppContext) {
   const router = Router();
-  const limiter = rateLimit({
-    windowMs: 60_000,
-    limit: ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE,
-    standardHeaders: 'draft-7',
-    legacyHeaders: false,
-    handler: (_req, res) => {
-      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many compute requests; wait a minute and try again.' } });
-    },
-  });
+  const limiter = perMinuteLimit(ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE, 'Too many compute requests; wait a minute and try again.');
   // 200,000 effects and variances as JSON text are at most ~10 MB
   const json = express.json({ limit: '20mb' });
 

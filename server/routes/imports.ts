@@ -1,7 +1,7 @@
 import express, { Router } from 'express';
+import { idParamsSchema } from '../../shared/schemas/common.js';
 import multer from 'multer';
 import path from 'node:path';
-import { z } from 'zod';
 import { IMPORT_FORMATS, importEntriesQuerySchema, importListQuerySchema, importRequestSchema, type ImportFormat } from '../../shared/schemas/references.js';
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
@@ -73,7 +73,7 @@ export function importsRouter(ctx: AppContext) {
   });
 
   router.get('/imports/:id', requireRole('contributor'), async (req, res) => {
-    const { id } = parseInput(z.object({ id: z.coerce.number().int().positive() }), req.params, 'path');
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
     const q = parseInput(importEntriesQuerySchema, req.query, 'query');
     res.json(await getImport(ctx.db, id, q.entryPage ? { page: q.entryPage, pageSize: q.entryPageSize, status: q.entryStatus } : undefined));
   });

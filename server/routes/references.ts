@@ -1,4 +1,5 @@
 import { Router } from 'express';
+import { idParam, idParamsSchema } from '../../shared/schemas/common.js';
 import multer from 'multer';
 import { open } from 'node:fs/promises';
 import path from 'node:path';
@@ -13,7 +14,6 @@ import { editReference, exportReferences, getReference, listReferences, mergeRef
 import { decide } from '../services/screening.js';
 import { syncReferences } from '../services/search.js';
 
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 export function referencesRouter(ctx: AppContext) {
   const router = Router();
@@ -47,12 +47,12 @@ export function referencesRouter(ctx: AppContext) {
   });
 
   router.get('/references/:id', async (req, res) => {
-    const { id } = parseInput(idParams, req.params, 'path');
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
     res.json(await getReference(ctx.db, id));
   });
 
   router.patch('/references/:id', requireRole('contributor'), async (req, res) => {
-    const { id } = parseInput(idParams, req.params, 'path');
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
     const edit = parseInput(referenceEditSchema, req.body);
     const result = await editReference(ctx.db, id, edit, req.user!.id);
     await syncReferences(ctx, [id]);
@@ -60,7 +60,7 @@ export function referencesRouter(ctx: AppContext) {
   });
 
   router.post('/references/:id/screening', requireRole('contributor'), async (req, res) => {
-    const { id } = parseInput(idParams, req.params, 'path');
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
     const input = parseInput(screeningDecisionSchema, req.body);
     const result = await decide(ctx.db, id, input, req.user!.id);
     await syncReferences(ctx, [id]);
@@ -68,7 +68,7 @@ export function referencesRouter(ctx: AppContext) {
   });
 
   router.post('/references/:id/attachments', requireRole('contributor'), async (req, res) => {
-    const { id } = parseInput(idParams, req.params, 'path');
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
     await new Promise<void>((resolve, reject) =>
       upload.single('file')(req, res, (err?: unknown) => {
         if (err instanceof multer.MulterError) {
@@ -88,7 +88,7 @@ export function referencesRouter(ctx: AppContext) {
   });
 
   router.get('/references/:id/attachments/:attachmentId', requireSignIn, async (req, res) => {
-    const { id, attachmentId } = parseInput(idParams.extend({ attachmentId: z.coerce.number().int().positive() }), req.params, 'path');
+    const { id, attachmentId } = parseInput(idParamsSchema.extend({ attachmentId: idParam }), req.params, 'path');
     const file = await attachmentFile(ctx.db, ctx.env.UPLOAD_DIR, id, attachmentId);
     res.setHeader('Cache-Control', 'private, no-store');
     res.setHeader('X-Content-Type-Options', 'nosniff');

@@ -16,8 +16,7 @@ export function snapshotsRouter(ctx: AppContext) {
   router.get('/snapshots', async (req, res) => {
     const q = parseInput(snapshotListQuerySchema, req.query, 'query');
     if (q.mine === 'true' && !req.user) throw new UnauthorizedError('Sign in to list your own snapshots.');
-    const result = await listSnapshots(ctx.db, { ...q, createdBy: q.mine === 'true' ? req.user!.id : undefined });
-    res.json({ ...result, page: q.page, pageSize: q.pageSize });
+    res.json(await listSnapshots(ctx.db, { ...q, createdBy: q.mine === 'true' ? req.user!.id : undefined }));
   });
 
   router.post('/snapshots', requireRole('reviewer'), async (req, res) => {

@@ -1,9 +1,9 @@
 import { Router } from 'express';
-import rateLimit from 'express-rate-limit';
 import type { AppContext } from '../context.js';
+import { perMinuteLimit } from '../lib/rate-limit.js';
 import { parseInput } from '../lib/validate.js';
 import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
-import { synthesisFacets, synthesizeRegistry } from '../services/synthesis.js';
+import { registrySynthesis, synthesisFacets } from '../services/synthesis.js';
 import { RegistryCache } from '../services/registry-cache.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
@@ -15,24 +15,14 @@ export function synthesesRouter(ctx: AppContext) {
   const answers = new RegistryCache(64);
 
   // Signed-out callers share the compute routes' per-client limit; signed-in users and tokens are not limited.
-  const anonymousLimit = rateLimit({
-    windowMs: 60_000,
-    limit: ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE,
-    standardHeaders: 'draft-7',
-    legacyHeaders: false,
-    skip: (req) => !!req.user,
-    handler: (_req, res) => {
-      res.status(429).json({ error: { code: 'rate_limited', message: 'Too many syntheses from this address; wait a minute, or sign in.' } });
-    },
-  });
+  const anonymousLimit = perMinuteLimit(ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE, 'Too many syntheses from this address; wait a minute, or sign in.', (req) => !!req.user);
 
   router.post('/syntheses', anonymousLimit, async (req, res) => {
     const request = parseInput(synthesisRequestSchema, req.body);
     let computed = false;
-    const body = await answers.get(ctx.db, JSON.stringify(request), async () => {
+    const body = await answers.get(ctx.db, JSON.stringify(request), () => {
       computed = true;
-      const { registryVersion, output } = await synthesizeRegistry(ctx.db, request);
-      return { registryVersion, ...output };
+      return registrySynthesis(ctx.db, request);
     });
     res.set('X-Synthesis-Cache', computed ? 'miss' : 'hit').type('application/json').send(body);
   });

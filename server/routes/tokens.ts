@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { z } from 'zod';
+import { idParamsSchema } from '../../shared/schemas/common.js';
 import { tokenCreateSchema } from '../../shared/schemas/users.js';
 import { createApiToken, listApiTokens, revokeApiToken } from '../services/api-tokens.js';
 import { requireSignIn } from '../auth/require-role.js';
@@ -11,7 +11,7 @@ export function tokensRouter(ctx: AppContext) {
   router.use('/tokens', requireSignIn);
 
   router.get('/tokens', async (req, res) => {
-    res.json({ items: await listApiTokens(ctx.db, req.user!.id) });
+    res.json(await listApiTokens(ctx.db, req.user!.id));
   });
 
   router.post('/tokens', async (req, res) => {
@@ -20,7 +20,7 @@ export function tokensRouter(ctx: AppContext) {
   });
 
   router.delete('/tokens/:id', async (req, res) => {
-    const { id } = parseInput(z.object({ id: z.coerce.number().int().positive() }), req.params, 'path');
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
     await revokeApiToken(ctx.db, req.user!.id, id);
     res.status(204).end();
   });

@@ -1,7 +1,9 @@
 import type { Knex } from 'knex';
 import { cohensKappaFromPairs } from '../../shared/agreement/cohens-kappa.js';
 import { icc } from '../../shared/agreement/icc.js';
+import { pageOf } from '../../shared/schemas/common.js';
 import type { Sheet } from '../../shared/schemas/extraction.js';
+import type { AgreementForReference, AgreementSummary, OverallAgreement, ReferenceAgreementPage } from '../../shared/schemas/reconciliation.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import { comparedPairs } from '../repositories/assignments.js';
 import { refLabel } from '../repositories/db.js';
@@ -55,12 +57,6 @@ async function loadPairs(db: Knex, filter: { referenceId?: number; assignmentId?
   return out;
 }
 
-export interface AgreementSummary {
-  pairs: number;
-  categorical: { field: string; items: number; percentAgreement: number | null; kappa: number | null; kappaSe: number | null }[];
-  allCategorical: { items: number; percentAgreement: number | null; kappa: number | null };
-  effectSizes: { metric: string; items: number; icc: number | null }[];
-}
 
 /** Percent agreement and Cohen's kappa per categorical field (and pooled over fields), ICC(2,1) per metric. */
 export function summarize(pairs: PairData[]): AgreementSummary {
@@ -89,7 +85,7 @@ export function summarize(pairs: PairData[]): AgreementSummary {
   };
 }
 
-export async function overallAgreement(db: Knex) {
+export async function overallAgreement(db: Knex): Promise<OverallAgreement> {
   const pairs = await loadPairs(db);
   const byCoders = new Map<string, PairData[]>();
   for (const p of pairs) {
@@ -102,7 +98,7 @@ export async function overallAgreement(db: Knex) {
   };
 }
 
-export async function referenceAgreement(db: Knex, q: { page: number; pageSize: number; sort: 'reference' | 'agreement'; order: 'asc' | 'desc' }) {
+export async function referenceAgreement(db: Knex, q: { page: number; pageSize: number; sort: 'reference' | 'agreement'; order: 'asc' | 'desc' }): Promise<ReferenceAgreementPage> {
   const pairs = await loadPairs(db);
   const items = pairs.map((p) => {
     const s = summarize([p]);
@@ -110,10 +106,10 @@ export async function referenceAgreement(db: Knex, q: { page: number; pageSize: 
   });
   const dir = q.order === 'asc' ? 1 : -1;
   items.sort((a, b) => dir * (q.sort === 'reference' ? a.referenceLabel.localeCompare(b.referenceLabel) : (a.percentAgreement ?? -1) - (b.percentAgreement ?? -1)) || a.assignmentId - b.assignmentId);
-  return { total: items.length, items: items.slice((q.page - 1) * q.pageSize, q.page * q.pageSize) };
+  return pageOf(items.slice((q.page - 1) * q.pageSize, q.page * q.pageSize), items.length, q);
 }
 
-export async function agreementForReference(db: Knex, referenceId: number) {
+export async function agreementForReference(db: Knex, referenceId: number): Promise<AgreementForReference> {
   const pairs = await loadPairs(db, { referenceId });
   return { referenceId, ...summarize(pairs) };
 }

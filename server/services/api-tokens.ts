@@ -3,7 +3,9 @@ import type { Knex } from 'knex';
 import { insertToken, ownerOfTokenHash, revokeToken, tokensOf, touchToken } from '../repositories/api-tokens.js';
 import { recordAudit } from '../repositories/audit.js';
 import { userRoles } from '../repositories/users.js';
+import type { ApiTokenList, CreatedToken } from '../../shared/schemas/users.js';
 import { NotFoundError } from '../lib/errors.js';
+import { iso, isoOrNull } from '../repositories/db.js';
 
 const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
 
@@ -15,17 +17,18 @@ export async function userForToken(db: Knex, token: string): Promise<Express.Use
   return { id: row.id, login: row.login, name: row.name, email: row.email, roles: await userRoles(db, row.id), via: 'token' };
 }
 
-export async function createApiToken(db: Knex, userId: number, name: string) {
+export async function createApiToken(db: Knex, userId: number, name: string): Promise<CreatedToken> {
   const token = `cmt_${randomBytes(24).toString('base64url')}`;
   return db.transaction(async (trx) => {
     const row = await insertToken(trx, { user_id: userId, name, token_hash: hashToken(token), prefix: token.slice(0, 10) });
     await recordAudit(trx, { actorId: userId, action: 'token.created', entityType: 'api_token', entityId: row.id, details: { name } });
-    return { id: row.id, name: row.name, prefix: row.prefix, createdAt: row.created_at, token };
+    return { id: row.id, name: row.name, prefix: row.prefix, createdAt: iso(row.created_at), token };
   });
 }
 
-export async function listApiTokens(db: Knex, userId: number) {
-  return (await tokensOf(db, userId)).map((r) => ({ id: r.id, name: r.name, prefix: r.prefix, createdAt: r.created_at, lastUsedAt: r.last_used_at, revokedAt: r.revoked_at }));
+export async function listApiTokens(db: Knex, userId: number): Promise<ApiTokenList> {
+  const rows = await tokensOf(db, userId);
+  return { items: rows.map((r) => ({ id: r.id, name: r.name, prefix: r.prefix, createdAt: iso(r.created_at), lastUsedAt: isoOrNull(r.last_used_at), revokedAt: isoOrNull(r.revoked_at) })) };
 }
 
 export async function revokeApiToken(db: Knex, userId: number, tokenId: number): Promise<void> {

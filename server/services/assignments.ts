@@ -1,10 +1,12 @@
 import type { Knex } from 'knex';
 import { hasRole } from '../../shared/roles.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import type { AssignmentPage, CandidatePage, CoderList, CreatedAssignment } from '../../shared/schemas/reconciliation.js';
 import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
 import { activeAssignmentOf, insertAssignment, listAssignments as assignmentRows, listCandidates as candidateRows, setAssignmentState } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
-import { refLabel, type PageRequest } from '../repositories/db.js';
+import { iso, refLabel, type PageRequest } from '../repositories/db.js';
 import { insertCodingSheets, joinPair, setPairSheetsState, unpairedClaims } from '../repositories/extractions.js';
 import { findRef } from '../repositories/refs.js';
 import type { AssignmentRow, AssignmentState, ExtractionState } from '../repositories/rows.js';
@@ -13,7 +15,7 @@ import { assignmentMail } from './extraction-mails.js';
 import { queueMails } from './mail.js';
 
 /** A curator pairs two coders on a reference; each gets a blind coding sheet (a coder's earlier claim joins the pair). */
-export async function createAssignment(ctx: MailingDeps, actorId: number, input: { referenceId: number; coder1Id: number; coder2Id: number }) {
+export async function createAssignment(ctx: MailingDeps, actorId: number, input: { referenceId: number; coder1Id: number; coder2Id: number }): Promise<CreatedAssignment> {
   const result = await ctx.db.transaction(async (trx) => {
     const ref = await findRef(trx, input.referenceId);
     if (!ref) throw new NotFoundError(`No reference ${input.referenceId}.`);
@@ -48,27 +50,22 @@ export async function closePair(trx: Knex.Transaction, assignment: Pick<Assignme
   await setAssignmentState(trx, assignment, state);
 }
 
-export async function listAssignments(db: Knex, q: PageRequest & { state?: AssignmentState; sort: 'id' | 'updated' | 'reference'; order: 'asc' | 'desc' }) {
+export async function listAssignments(db: Knex, q: PageRequest & { state?: AssignmentState; sort: 'id' | 'updated' | 'reference'; order: 'asc' | 'desc' }): Promise<AssignmentPage> {
   const { total, rows } = await assignmentRows(db, q);
-  return {
-    total,
-    items: rows.map((r) => ({
-      id: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, state: r.state,
-      coder1: r.coder1, coder2: r.coder2, submitted: r.submitted, openDiscrepancies: r.open_discrepancies,
-      createdAt: r.created_at, updatedAt: r.updated_at,
-    })),
-  };
+  const items = rows.map((r) => ({
+    id: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, state: r.state,
+    coder1: r.coder1, coder2: r.coder2, submitted: r.submitted, openDiscrepancies: r.open_discrepancies,
+    createdAt: iso(r.created_at), updatedAt: iso(r.updated_at),
+  }));
+  return pageOf(items, total, q);
 }
 
 /** Included references with their coding status, for a curator choosing what to assign. */
-export async function listCandidates(db: Knex, q: PageRequest & { q?: string; status?: 'unassigned' | 'any'; sort: 'reference' | 'year' | 'id'; order: 'asc' | 'desc' }) {
+export async function listCandidates(db: Knex, q: PageRequest & { q?: string; status?: 'unassigned' | 'any'; sort: 'reference' | 'year' | 'id'; order: 'asc' | 'desc' }): Promise<CandidatePage> {
   const { total, rows } = await candidateRows(db, q);
-  return {
-    total,
-    items: rows.map((r) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi, assignmentState: r.assignment_state, settled: r.settled })),
-  };
+  return pageOf(rows.map((r) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi, assignmentState: r.assignment_state, settled: r.settled })), total, q);
 }
 
-export async function listCoders(db: Knex) {
-  return (await coderRows(db)).map((r) => ({ id: r.id, login: r.login, name: r.name }));
+export async function listCoders(db: Knex): Promise<CoderList> {
+  return { items: (await coderRows(db)).map((r) => ({ id: r.id, login: r.login, name: r.name })) };
 }

@@ -3,7 +3,10 @@ import { querySettledEffects, querySynthesisRows } from '../repositories/effects
 import { findManipulation, liveVocabulary } from '../repositories/manipulations.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 import { NotFoundError } from '../lib/errors.js';
-import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import {
+  synthesisRequestSchema, type AtlasLanding, type AtlasManipulation, type AtlasOutcome, type AtlasPooled, type AtlasReferencePage, type PooledCell,
+} from '../../shared/schemas/synthesis.js';
 import { OUTCOMES, type OutcomeKind } from '../../shared/vocabulary/outcomes.js';
 import { runSynthesis, metricLabel } from '../../shared/synthesis/run.js';
 import { cautionsFor } from '../../shared/synthesis/cautions.js';
@@ -29,7 +32,7 @@ function groupBy<T>(xs: T[], key: (x: T) => string): Map<string, T[]> {
 const outcomeLabel = (o: string) => OUTCOMES[o as OutcomeKind]?.label ?? o;
 
 /** Every manipulation and outcome kind with counts of settled references, studies and effects. */
-export async function atlasLanding(db: Knex) {
+export async function atlasLanding(db: Knex): Promise<AtlasLanding> {
   const [rows, vocab] = await Promise.all([querySynthesisRows(db, {}), liveVocabulary(db)]);
   const byManip = groupBy(rows, (r) => r.manipulation);
   const byOutcome = groupBy(rows, (r) => r.outcome);
@@ -51,7 +54,7 @@ export async function atlasLanding(db: Knex) {
 const DEFAULT_REQUEST = { method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } } as const;
 
 /** The current pooled estimate of each (outcome kind, metric) cell of one manipulation's or outcome's effects. */
-function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => Record<string, string>, withFigure: boolean) {
+function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => Record<string, string>, withFigure: boolean): PooledCell[] {
   const cells = groupBy(rows, (r) => `${r.outcome}\u0000${r.manipulation}\u0000${r.metric}`);
   return [...cells.values()]
     .map((rs) => {
@@ -82,7 +85,7 @@ async function manipulationRow(db: Knex, term: string) {
   return m;
 }
 
-export async function atlasManipulation(db: Knex, term: string) {
+export async function atlasManipulation(db: Knex, term: string): Promise<AtlasManipulation> {
   const m = await manipulationRow(db, term);
   const rows = await querySynthesisRows(db, { manipulation: term });
   return {
@@ -93,18 +96,18 @@ export async function atlasManipulation(db: Knex, term: string) {
 }
 
 /** Only the pooled numbers of a manipulation (what scripts and the atlas cards need). */
-export async function atlasManipulationPooled(db: Knex, term: string) {
+export async function atlasManipulationPooled(db: Knex, term: string): Promise<AtlasPooled> {
   await manipulationRow(db, term);
   const rows = await querySynthesisRows(db, { manipulation: term });
   return { term, totals: count(rows), cells: pooledCells(rows, (r) => ({ manipulation: term, outcome: r.outcome, metric: r.metric }), false) };
 }
 
-export async function atlasOutcome(db: Knex, kind: string) {
+export async function atlasOutcome(db: Knex, kind: string): Promise<AtlasOutcome> {
   if (!(kind in OUTCOMES)) throw new NotFoundError(`No outcome kind "${kind}".`);
   const rows = await querySynthesisRows(db, { outcome: kind });
   const info = OUTCOMES[kind as OutcomeKind];
   return {
-    outcome: { kind, label: info.label, typicalReport: info.typicalReport, metrics: info.metrics, metricLabels: info.metrics.map(metricLabel) },
+    outcome: { kind, label: info.label, typicalReport: info.typicalReport, metrics: [...info.metrics], metricLabels: info.metrics.map(metricLabel) },
     totals: count(rows),
     cells: pooledCells(rows, (r) => ({ manipulation: r.manipulation, outcome: kind, metric: r.metric }), false),
   };
@@ -117,7 +120,7 @@ export async function atlasReferences(
   db: Knex,
   where: { manipulation?: string; outcome?: string },
   q: { page: number; pageSize: number; sort: RefSort; order: 'asc' | 'desc' },
-) {
+): Promise<AtlasReferencePage> {
   const rows = await querySettledEffects(db, where);
   const byRef = groupBy(rows, (r) => String(r.referenceId));
   const items = [...byRef.values()].map((rs) => ({
@@ -136,5 +139,5 @@ export async function atlasReferences(
     const y = key === 'label' ? b.label : key === 'title' ? b.title : key === 'year' ? (b.year ?? 0) : b.effects;
     return (typeof x === 'string' ? x.localeCompare(y as string) : (x as number) - (y as number)) * dir || a.id - b.id;
   });
-  return { total: items.length, page: q.page, pageSize: q.pageSize, items: items.slice((q.page - 1) * q.pageSize, q.page * q.pageSize) };
+  return pageOf(items.slice((q.page - 1) * q.pageSize, q.page * q.pageSize), items.length, q);
 }

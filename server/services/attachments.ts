@@ -2,6 +2,7 @@ import type { Knex } from 'knex';
 import { randomBytes } from 'node:crypto';
 import { mkdir, rename, rm } from 'node:fs/promises';
 import path from 'node:path';
+import type { AttachmentCreated } from '../../shared/schemas/references.js';
 import { ConflictError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso } from '../repositories/db.js';
@@ -16,7 +17,7 @@ export async function addAttachment(
   db: Knex,
   uploadDir: string,
   input: { refId: number; tmpPath: string; originalName: string; size: number; head: Buffer; actorId: number },
-) {
+): Promise<AttachmentCreated> {
   const refuse = async (err: Error) => {
     await rm(input.tmpPath, { force: true });
     throw err;

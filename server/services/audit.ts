@@ -1,15 +1,16 @@
 import { listAudit as auditRows } from '../repositories/audit.js';
-import type { Db, PageRequest } from '../repositories/db.js';
+import type { AuditPage } from '../../shared/schemas/admin.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import { iso, type Db, type PageRequest } from '../repositories/db.js';
 
 export { recordAudit, type AuditEntry } from '../repositories/audit.js';
 
-export async function listAudit(db: Db, opts: PageRequest & { entityType?: string; entityId?: string; action?: string }) {
+export async function listAudit(db: Db, opts: PageRequest & { entityType?: string; entityId?: string; action?: string }): Promise<AuditPage> {
   const { total, rows } = await auditRows(db, opts);
-  return {
-    total,
-    items: rows.map((r) => ({
+  return pageOf(
+    rows.map((r) => ({
       id: r.id,
-      at: r.at,
+      at: iso(r.at),
       actorId: r.actor_id,
       actorLogin: r.actor_login ?? null,
       action: r.action,
@@ -17,5 +18,7 @@ export async function listAudit(db: Db, opts: PageRequest & { entityType?: strin
       entityId: r.entity_id,
       details: r.details,
     })),
-  };
+    total,
+    opts,
+  );
 }

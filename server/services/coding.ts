@@ -1,13 +1,14 @@
 // A coder's own sheets: claiming a reference, reading (blind to the other coder), saving drafts, submitting.
 import type { Knex } from 'knex';
 import { hasRole, type Role } from '../../shared/roles.js';
-import type { Sheet } from '../../shared/schemas/extraction.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import type { ClaimablePage, Created, ExtractionDetail, MyExtractionPage, SavedSheet, Sheet, SubmitResult } from '../../shared/schemas/extraction.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import type { MailingDeps } from './deps.js';
 import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { activeAssignmentOf, findAssignment, lockAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
-import { refLabel, type Db, type PageRequest } from '../repositories/db.js';
+import { iso, isoOrNull, refLabel, type Db, type PageRequest } from '../repositories/db.js';
 import { insertDiscrepancies } from '../repositories/discrepancies.js';
 import {
   findExtraction, findExtractionDetail, insertCodingSheets, listClaimable as claimableRows, listSheetsOf, lockExtraction, openSheetOf, pairSheets, readSheet,
@@ -28,25 +29,23 @@ export interface Actor {
   roles: Role[];
 }
 
-export async function listMyExtractions(db: Knex, userId: number, q: PageRequest & { state?: ExtractionState; sort: 'updated' | 'reference' | 'state'; order: 'asc' | 'desc' }) {
+export async function listMyExtractions(db: Knex, userId: number, q: PageRequest & { state?: ExtractionState; sort: 'updated' | 'reference' | 'state'; order: 'asc' | 'desc' }): Promise<MyExtractionPage> {
   const { total, rows } = await listSheetsOf(db, userId, q);
-  return {
-    total,
-    items: rows.map((r) => ({
-      id: r.id, state: r.state, version: r.version, updatedAt: r.updated_at, assignmentId: r.assignment_id,
-      referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, effects: r.effects,
-    })),
-  };
+  const items = rows.map((r) => ({
+    id: r.id, state: r.state, version: r.version, updatedAt: iso(r.updated_at), assignmentId: r.assignment_id,
+    referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, effects: r.effects,
+  }));
+  return pageOf(items, total, q);
 }
 
 /** Included references a contributor may claim: not being double coded, not settled, not already claimed by them. */
-export async function listClaimable(db: Knex, userId: number, q: PageRequest & { q?: string; sort: 'reference' | 'year'; order: 'asc' | 'desc' }) {
+export async function listClaimable(db: Knex, userId: number, q: PageRequest & { q?: string; sort: 'reference' | 'year'; order: 'asc' | 'desc' }): Promise<ClaimablePage> {
   const { total, rows } = await claimableRows(db, userId, q);
-  return { total, items: rows.map((r) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi })) };
+  return pageOf(rows.map((r) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi })), total, q);
 }
 
 /** A contributor claims a reference to code it; a curator later pairs the claim with a second coder. */
-export async function claimReference(db: Knex, actorId: number, referenceId: number) {
+export async function claimReference(db: Knex, actorId: number, referenceId: number): Promise<Created> {
   return db.transaction(async (trx) => {
     const ref = await lockRef(trx, referenceId);
     if (!ref) throw new NotFoundError(`No reference ${referenceId}.`);
@@ -83,16 +82,16 @@ async function assertCanRead(db: Db, actor: Actor | null, x: ExtractionRow) {
   throw new ForbiddenError('Only its coder and curators can see this coding sheet.');
 }
 
-function extractionView(x: ExtractionDetailRow, editable: boolean) {
+function extractionView(x: ExtractionDetailRow, editable: boolean): ExtractionDetail['extraction'] {
   return {
     id: x.id, kind: x.kind, state: x.state, version: x.version, recordVersion: x.record_version, assignmentId: x.assignment_id,
     referenceId: x.reference_id, reference: { id: x.reference_id, title: x.title, label: refLabel(x), doi: x.doi, year: x.year },
-    coder: x.coder_login, updatedBy: x.updated_by_login, updatedAt: x.updated_at, submittedAt: x.submitted_at, settledAt: x.settled_at,
+    coder: x.coder_login, updatedBy: x.updated_by_login, updatedAt: iso(x.updated_at), submittedAt: isoOrNull(x.submitted_at), settledAt: isoOrNull(x.settled_at),
     supersedesId: x.supersedes_id, supersededBy: x.superseded_by, reopenReason: x.reopen_reason, notes: x.notes, editable,
   };
 }
 
-export async function getExtraction(db: Knex, actor: Actor | null, id: number) {
+export async function getExtraction(db: Knex, actor: Actor | null, id: number): Promise<ExtractionDetail> {
   const x = await findExtractionDetail(db, id);
   if (!x) throw new NotFoundError(`No extraction ${id}.`);
   await assertCanRead(db, actor, x);
@@ -111,7 +110,7 @@ async function lockEditable(trx: Knex.Transaction, actor: Actor, id: number, ver
 }
 
 /** Saves a draft (also the autosave); the server recomputes every effect. */
-export async function saveDraft(db: Knex, actor: Actor, id: number, input: { version: number; sheet: Sheet }) {
+export async function saveDraft(db: Knex, actor: Actor, id: number, input: { version: number; sheet: Sheet }): Promise<SavedSheet> {
   return db.transaction(async (trx) => {
     const x = await lockEditable(trx, actor, id, input.version);
     // A reopened record keeps its studies' identities by position; new studies get new ones.
@@ -122,7 +121,7 @@ export async function saveDraft(db: Knex, actor: Actor, id: number, input: { ver
       actorId: actor.id, action: 'extraction.save', entityType: 'extraction', entityId: id,
       details: { version: row.version, studies: input.sheet.studies.length, effects: input.sheet.studies.reduce((n, s) => n + s.effects.length, 0) },
     });
-    return { version: row.version, updatedAt: row.updated_at, studies: await readSheet(trx, id) };
+    return { version: row.version, updatedAt: iso(row.updated_at), studies: await readSheet(trx, id) };
   });
 }
 
@@ -130,10 +129,10 @@ export async function saveDraft(db: Knex, actor: Actor, id: number, input: { ver
  * Submits a coder's sheet. When it is the second of its pair to arrive, the two are compared: matched
  * pairs settle at once, disputed ones go to the reconciliation queue with their discrepancies.
  */
-export async function submitExtraction(ctx: MailingDeps, actor: Actor, id: number, input: { version: number }) {
+export async function submitExtraction(ctx: MailingDeps, actor: Actor, id: number, input: { version: number }): Promise<SubmitResult> {
   const mails: OutgoingMail[] = [];
   const origin = ctx.appOrigin;
-  const result = await ctx.db.transaction(async (trx) => {
+  const result = await ctx.db.transaction(async (trx): Promise<SubmitResult> => {
     const peek = await findExtraction(trx, id);
     if (!peek) throw new NotFoundError(`No extraction ${id}.`);
     if (peek.kind !== 'coding') throw new UnprocessableError('A reopened record is settled, not submitted.');

@@ -1,5 +1,6 @@
 import net from 'node:net';
 import type { Knex } from 'knex';
+import type { Health } from '../../shared/schemas/admin.js';
 import type { Env } from '../env.js';
 import { ping } from '../repositories/health.js';
 
@@ -40,7 +41,7 @@ function smtpGreets(host: string, port: number, timeoutMs = 2000) {
 const notConfigured = Promise.resolve<PartState>({ state: 'not configured' });
 
 /** Whether the database and each configured outside service answer; the app is unavailable without its database. */
-export async function checkHealth(deps: { db: Knex; env: Env }) {
+export async function checkHealth(deps: { db: Knex; env: Env }): Promise<{ available: boolean; body: Health }> {
   const { env } = deps;
   const [database, search, mail, oauth] = await Promise.all([
     timed(() => ping(deps.db)),

@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
-import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportFormat, type ImportResult } from '../../shared/schemas/references.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportPage, type ImportResult } from '../../shared/schemas/references.js';
 import { NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
@@ -221,7 +222,7 @@ async function finishIfDone(db: Knex, batchId: number) {
 function batchView(row: BatchWithLogin, counts: EntryCounts): ImportBatchView {
   return {
     id: row.id,
-    format: row.format as ImportFormat,
+    format: row.format,
     label: row.label,
     state: row.state,
     total: row.total,
@@ -253,7 +254,7 @@ export async function getImport(db: Knex, id: number, paging?: PageRequest & { s
   return { batch: batchView(row, counts), entries: view, entriesTotal: total };
 }
 
-export async function listImports(db: Knex, q: PageRequest & { sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }) {
+export async function listImports(db: Knex, q: PageRequest & { sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }): Promise<ImportPage> {
   const { total, rows } = await listBatches(db, q);
-  return { items: rows.map((r) => batchView(r.row, r.counts)), total, page: q.page, pageSize: q.pageSize };
+  return pageOf(rows.map((r) => batchView(r.row, r.counts)), total, q);
 }

@@ -1,7 +1,9 @@
 import type { Knex } from 'knex';
+import type { MailLogPage } from '../../shared/schemas/admin.js';
+import { pageOf } from '../../shared/schemas/common.js';
 import type { Deps } from './deps.js';
 import { MAIL_JOB, MAIL_RETRY_LIMIT } from './mail-delivery.js';
-import type { PageRequest } from '../repositories/db.js';
+import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
 import { insertMail, listMailLog as mailRows, updateMail } from '../repositories/mail-log.js';
 import type { MailStatus } from '../repositories/rows.js';
 
@@ -36,13 +38,11 @@ export async function queueMails(deps: Pick<Deps, 'db' | 'jobs'>, mails: Outgoin
   return ids;
 }
 
-export async function listMailLog(db: Knex, opts: PageRequest & { status?: MailStatus; order: 'asc' | 'desc' }) {
+export async function listMailLog(db: Knex, opts: PageRequest & { status?: MailStatus; order: 'asc' | 'desc' }): Promise<MailLogPage> {
   const { total, rows } = await mailRows(db, opts);
-  return {
-    total,
-    items: rows.map((r) => ({
-      id: Number(r.id), kind: r.kind, to: r.to_address, subject: r.subject, status: r.status, attempts: r.attempts,
-      lastError: r.last_error, createdAt: r.created_at, sentAt: r.sent_at,
-    })),
-  };
+  const items = rows.map((r) => ({
+    id: Number(r.id), kind: r.kind, to: r.to_address, subject: r.subject, status: r.status, attempts: r.attempts,
+    lastError: r.last_error, createdAt: iso(r.created_at), sentAt: isoOrNull(r.sent_at),
+  }));
+  return pageOf(items, total, opts);
 }

@@ -1,4 +1,6 @@
 import type { Knex } from 'knex';
+import { pageOf } from '../../shared/schemas/common.js';
+import type { Manipulation, ManipulationPage, ManipulationResult } from '../../shared/schemas/registry.js';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import type { Db, PageRequest } from '../repositories/db.js';
@@ -19,18 +21,7 @@ export async function resolveManipulations(db: Db, terms: string[]): Promise<Map
   return ids;
 }
 
-export interface ManipulationView {
-  id: number;
-  term: string;
-  label: string;
-  description: string;
-  retired: boolean;
-  retiredAt: string | null;
-  version: number;
-  settledEffects: number;
-}
-
-function toManipulation(r: ManipulationRow & { settled_effects?: number }): ManipulationView {
+function toManipulation(r: ManipulationRow & { settled_effects?: number }): Manipulation {
   return {
     id: r.id,
     term: r.term,
@@ -43,22 +34,22 @@ function toManipulation(r: ManipulationRow & { settled_effects?: number }): Mani
   };
 }
 
-export async function listManipulations(db: Knex, opts: PageRequest & { includeRetired: boolean; sort: 'term' | 'label' | 'effects'; order: 'asc' | 'desc' }) {
+export async function listManipulations(db: Knex, opts: PageRequest & { includeRetired: boolean; sort: 'term' | 'label' | 'effects'; order: 'asc' | 'desc' }): Promise<ManipulationPage> {
   const { total, rows } = await manipulationRows(db, opts);
-  return { total, items: rows.map(toManipulation) };
+  return pageOf(rows.map(toManipulation), total, opts);
 }
 
-export async function createManipulation(db: Knex, actorId: number, input: { term: string; label: string; description: string }) {
+export async function createManipulation(db: Knex, actorId: number, input: { term: string; label: string; description: string }): Promise<ManipulationResult> {
   return db.transaction(async (trx) => {
     const exists = await findManipulation(trx, input.term);
     if (exists) throw new ConflictError(`The term "${input.term}" is already in the vocabulary.`);
     const row = await insertManipulation(trx, { ...input, updated_by: actorId });
     await recordAudit(trx, { actorId, action: 'manipulation.create', entityType: 'manipulation', entityId: row.id, details: input });
-    return toManipulation(row);
+    return { manipulation: toManipulation(row) };
   });
 }
 
-export async function updateManipulation(db: Knex, actorId: number, term: string, input: { version: number; label?: string; description?: string; retired?: boolean }) {
+export async function updateManipulation(db: Knex, actorId: number, term: string, input: { version: number; label?: string; description?: string; retired?: boolean }): Promise<ManipulationResult> {
   return db.transaction(async (trx) => {
     const row = await lockManipulation(trx, term);
     if (!row) throw new NotFoundError(`No manipulation "${term}".`);
@@ -70,6 +61,6 @@ export async function updateManipulation(db: Knex, actorId: number, term: string
     await recordAudit(trx, { actorId, action: 'manipulation.update', entityType: 'manipulation', entityId: row.id, details: { term, ...input } });
     // The label travels with settled effects in analyses and exports.
     if (input.label !== undefined && input.label !== row.label) await bumpRegistry(trx, { kind: 'manipulation.relabel', actorId, details: { term } });
-    return toManipulation(updated);
+    return { manipulation: toManipulation(updated) };
   });
 }

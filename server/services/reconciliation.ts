@@ -1,13 +1,15 @@
 // The reconciliation queue: a curator settles each discrepancy of a disputed pair, then the pair.
 import type { Knex } from 'knex';
+import { pageOf } from '../../shared/schemas/common.js';
 import { effectDraftSchema, studyDraftSchema } from '../../shared/schemas/extraction.js';
+import type { PairDetail, PairSide, ReconciliationQueue, ResolvedDiscrepancy, SettledRecord } from '../../shared/schemas/reconciliation.js';
 import { tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
 import { findPairDetail, listDisputed, lockAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
-import { refLabel, type PageRequest } from '../repositories/db.js';
+import { iso, isoOrNull, refLabel, type PageRequest } from '../repositories/db.js';
 import { discrepanciesOf, findDiscrepancy, resolveDiscrepancyRow } from '../repositories/discrepancies.js';
 import { latestSettlementOfPair, pairSheets, readSheet, reopenedRecords } from '../repositories/extractions.js';
 import { findRef } from '../repositories/refs.js';
@@ -20,25 +22,25 @@ import { queueMails, type OutgoingMail } from './mail.js';
 import { resolveManipulations } from './manipulations.js';
 import { createSettledRecord } from './settlement.js';
 
-export async function listQueue(db: Knex, q: PageRequest & { sort: 'updated' | 'reference' | 'open'; order: 'asc' | 'desc' }) {
+export async function listQueue(db: Knex, q: PageRequest & { sort: 'updated' | 'reference' | 'open'; order: 'asc' | 'desc' }): Promise<ReconciliationQueue> {
   const [{ total, rows }, reopened] = await Promise.all([listDisputed(db, q), reopenedRecords(db, 50)]);
+  const items = rows.map((r) => ({
+    assignmentId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, coder1: r.coder1, coder2: r.coder2,
+    openDiscrepancies: r.open_discrepancies, discrepancies: r.discrepancies, updatedAt: iso(r.updated_at),
+  }));
   return {
-    total,
-    items: rows.map((r) => ({
-      assignmentId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, coder1: r.coder1, coder2: r.coder2,
-      openDiscrepancies: r.open_discrepancies, discrepancies: r.discrepancies, updatedAt: r.updated_at,
-    })),
+    ...pageOf(items, total, q),
     reopened: reopened.map((r) => ({
-      recordId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, recordVersion: r.record_version, reason: r.reopen_reason, updatedAt: r.updated_at,
+      recordId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, recordVersion: r.record_version, reason: r.reopen_reason, updatedAt: iso(r.updated_at),
     })),
   };
 }
 
-export async function getPair(db: Knex, assignmentId: number) {
+export async function getPair(db: Knex, assignmentId: number): Promise<PairDetail> {
   const a = await findPairDetail(db, assignmentId);
   if (!a) throw new NotFoundError(`No assignment ${assignmentId}.`);
   const [xs, discrepancies, settlement] = await Promise.all([pairSheets(db, assignmentId), discrepanciesOf(db, assignmentId), latestSettlementOfPair(db, assignmentId)]);
-  const side = async (coderId: number, coder: string) => {
+  const side = async (coderId: number, coder: string): Promise<PairSide | null> => {
     const x = xs.find((s) => s.coder_id === coderId);
     return x ? { extractionId: x.id, coder, state: x.state, studies: x.state === 'draft' ? [] : await readSheet(db, x.id) } : null;
   };
@@ -52,7 +54,7 @@ export async function getPair(db: Knex, assignmentId: number) {
     b: await side(a.coder2_id, a.coder2),
     discrepancies: discrepancies.map((d) => ({
       id: d.id, path: d.path, field: d.field, label: d.label, valueA: d.value_a, valueB: d.value_b, status: d.status,
-      resolution: d.resolution, resolvedValue: d.resolved_value, rationale: d.rationale, resolvedBy: d.resolved_by_login, resolvedAt: d.resolved_at,
+      resolution: d.resolution, resolvedValue: d.resolved_value, rationale: d.rationale, resolvedBy: d.resolved_by_login, resolvedAt: isoOrNull(d.resolved_at),
     })),
   };
 }
@@ -93,7 +95,7 @@ async function lockDisputed(trx: Knex.Transaction, assignmentId: number, doing: 
   return a;
 }
 
-export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId: number, discrepancyId: number, input: { resolution: 'a' | 'b' | 'value'; value?: unknown; rationale: string }) {
+export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId: number, discrepancyId: number, input: { resolution: 'a' | 'b' | 'value'; value?: unknown; rationale: string }): Promise<ResolvedDiscrepancy> {
   return db.transaction(async (trx) => {
     await lockDisputed(trx, assignmentId, 'reconciled');
     const d = await findDiscrepancy(trx, assignmentId, discrepancyId);
@@ -102,12 +104,12 @@ export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId
     const value = input.resolution === 'a' ? d.value_a : input.resolution === 'b' ? d.value_b : checkValue(d.field, input.value);
     const row = await resolveDiscrepancyRow(trx, d.id, { resolution: input.resolution, value, rationale: input.rationale, actorId });
     await recordAudit(trx, { actorId, action: 'discrepancy.resolve', entityType: 'discrepancy', entityId: d.id, details: { assignmentId, path: d.path, resolution: input.resolution, value, rationale: input.rationale } });
-    return { id: row.id, status: row.status, resolution: row.resolution, resolvedValue: row.resolved_value, rationale: row.rationale };
+    return { discrepancy: { id: row.id, status: row.status, resolution: row.resolution, resolvedValue: row.resolved_value, rationale: row.rationale } };
   });
 }
 
 /** Settles a disputed pair once every discrepancy is resolved: coder A's sheet with each resolution applied. */
-export async function settlePair(ctx: MailingDeps, actorId: number, assignmentId: number, input: { rationale: string }) {
+export async function settlePair(ctx: MailingDeps, actorId: number, assignmentId: number, input: { rationale: string }): Promise<SettledRecord> {
   const mails: OutgoingMail[] = [];
   const out = await ctx.db.transaction(async (trx) => {
     const a = await lockDisputed(trx, assignmentId, 'settled here');

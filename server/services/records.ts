@@ -1,7 +1,9 @@
 // Settled records after settlement: their history, reopening, settling a reopened version, withdrawal, and a
 // curator's correction or withdrawal of one settled effect.
 import type { Knex } from 'knex';
-import type { EffectSheet } from '../../shared/schemas/extraction.js';
+import type { EffectSheet, ExtractionDetail } from '../../shared/schemas/extraction.js';
+import type { RecordHistory, RecordVersionResult, WithdrawnRecord } from '../../shared/schemas/reconciliation.js';
+import type { EditedEffect, WithdrawnEffect } from '../../shared/schemas/registry.js';
 import { OUTCOMES, METRIC_LABELS } from '../../shared/vocabulary/outcomes.js';
 import { METRIC_OF_FORM, tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
@@ -9,6 +11,7 @@ import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors.js';
 import { findAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
+import { iso, isoOrNull } from '../repositories/db.js';
 import { effectColumns } from '../repositories/effect-columns.js';
 import { lockEffect, markEffectWithdrawn, updateEffect } from '../repositories/effects.js';
 import { findExtraction, insertExtraction, insertSettlement, lockExtraction, readSheet, recordsOf, settlementsOf, updateExtraction } from '../repositories/extractions.js';
@@ -23,16 +26,16 @@ import { queueMails, type OutgoingMail } from './mail.js';
 import { resolveManipulations } from './manipulations.js';
 import { parseCompleteSheet, saveSheet } from './settlement.js';
 
-export async function listRecords(db: Knex, referenceId: number) {
+export async function listRecords(db: Knex, referenceId: number): Promise<RecordHistory> {
   const [rows, settlements] = await Promise.all([recordsOf(db, referenceId), settlementsOf(db, referenceId)]);
   return {
-    records: rows.map((r) => ({ id: r.id, state: r.state, recordVersion: r.record_version, current: r.superseded_by == null, supersededBy: r.superseded_by, reopenReason: r.reopen_reason, settledAt: r.settled_at, createdAt: r.created_at, updatedBy: r.updated_by })),
-    settlements: settlements.map((s) => ({ id: s.id, recordId: s.record_id, kind: s.kind, by: s.login, rationale: s.rationale, at: s.at })),
+    records: rows.map((r) => ({ id: r.id, state: r.state, recordVersion: r.record_version, current: r.superseded_by == null, supersededBy: r.superseded_by, reopenReason: r.reopen_reason, settledAt: isoOrNull(r.settled_at), createdAt: iso(r.created_at), updatedBy: r.updated_by })),
+    settlements: settlements.map((s) => ({ id: s.id, recordId: s.record_id, kind: s.kind, by: s.login, rationale: s.rationale, at: iso(s.at) })),
   };
 }
 
 /** One version of a reference's settled record (a coder's sheet is not a record). */
-export async function getRecord(db: Knex, actor: Actor | null, id: number) {
+export async function getRecord(db: Knex, actor: Actor | null, id: number): Promise<ExtractionDetail> {
   const record = await getExtraction(db, actor, id);
   if (record.extraction.kind !== 'settled') throw new NotFoundError(`No settled record ${id}.`);
   return record;
@@ -46,7 +49,7 @@ async function lockCurrentSettled(trx: Knex.Transaction, recordId: number): Prom
 }
 
 /** Reopens a settled record: a new draft version (curators edit, then settle it) replaces it in analyses; the old is kept. */
-export async function reopenRecord(db: Knex, actorId: number, recordId: number, reason: string) {
+export async function reopenRecord(db: Knex, actorId: number, recordId: number, reason: string): Promise<RecordVersionResult> {
   return db.transaction(async (trx) => {
     const x = await lockCurrentSettled(trx, recordId);
     if (x.state !== 'settled') throw new ConflictError(`Record ${recordId} is ${x.state}; only a settled record can be reopened.`);
@@ -66,7 +69,7 @@ export async function reopenRecord(db: Knex, actorId: number, recordId: number, 
 }
 
 /** Settles a reopened draft version (curators). */
-export async function settleRecordDraft(ctx: MailingDeps, actorId: number, recordId: number, input: { rationale: string; version?: number }) {
+export async function settleRecordDraft(ctx: MailingDeps, actorId: number, recordId: number, input: { rationale: string; version?: number }): Promise<RecordVersionResult> {
   const mails: OutgoingMail[] = [];
   const out = await ctx.db.transaction(async (trx) => {
     const x = await lockCurrentSettled(trx, recordId);
@@ -89,7 +92,7 @@ export async function settleRecordDraft(ctx: MailingDeps, actorId: number, recor
   return out;
 }
 
-export async function withdrawRecord(db: Knex, actorId: number, recordId: number, reason: string) {
+export async function withdrawRecord(db: Knex, actorId: number, recordId: number, reason: string): Promise<WithdrawnRecord> {
   return db.transaction(async (trx) => {
     const x = await lockCurrentSettled(trx, recordId);
     if (x.state === 'withdrawn') throw new ConflictError(`Record ${recordId} is already withdrawn.`);
@@ -111,7 +114,7 @@ async function lockSettledEffect(trx: Knex.Transaction, effectId: number): Promi
 }
 
 /** A curator's correction of one settled effect: recomputed on the server, versioned, audited, and a registry change. */
-export async function editSettledEffect(db: Knex, actorId: number, effectId: number, input: { version: number; reason: string; effect: EffectSheet }) {
+export async function editSettledEffect(db: Knex, actorId: number, effectId: number, input: { version: number; reason: string; effect: EffectSheet }): Promise<EditedEffect> {
   return db.transaction(async (trx) => {
     const { f, x } = await lockSettledEffect(trx, effectId);
     if (f.version !== input.version) throw await staleEdit(trx, `Effect ${effectId}`, f);
@@ -137,7 +140,7 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
 }
 
 /** Withdraws one settled effect (it leaves every analysis; the row and its history stay). */
-export async function withdrawEffect(db: Knex, actorId: number, effectId: number, reason: string) {
+export async function withdrawEffect(db: Knex, actorId: number, effectId: number, reason: string): Promise<WithdrawnEffect> {
   return db.transaction(async (trx) => {
     const { f, x } = await lockSettledEffect(trx, effectId);
     if (f.withdrawn_at) throw new ConflictError(`Effect ${effectId} is already withdrawn.`);
@@ -145,6 +148,6 @@ export async function withdrawEffect(db: Knex, actorId: number, effectId: number
     await insertSettlement(trx, { referenceId: x.reference_id, assignmentId: x.assignment_id, recordId: x.id, kind: 'withdrawn', actorId, rationale: `effect ${effectId}: ${reason}` });
     await recordAudit(trx, { actorId, action: 'effect.withdraw', entityType: 'effect', entityId: effectId, details: { reason } });
     const registryVersion = await bumpRegistry(trx, { kind: 'effect.withdraw', referenceId: x.reference_id, extractionId: x.id, effectId, actorId, details: { reason } });
-    return { id: effectId, withdrawn: true, registryVersion };
+    return { id: effectId, withdrawn: true as const, registryVersion };
   });
 }

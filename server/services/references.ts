@@ -1,5 +1,8 @@
 import type { Knex } from 'knex';
-import type { ReferenceEdit, ReferenceListQuery } from '../../shared/schemas/references.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import type {
+  DismissResult, DuplicatePage, MergeResult, ReferenceDetail, ReferenceEdit, ReferenceEditResult, ReferenceListQuery, ReferencePage, ReferenceSummary,
+} from '../../shared/schemas/references.js';
 import { toBibtex } from '../adapters/citations.js';
 import { ConflictError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -80,19 +83,6 @@ export async function createReference(db: Db, csl: Csl, opts: CreateReferenceOpt
 
 // ---- reading, editing, exporting and merging references
 
-export interface ReferenceSummary {
-  id: number;
-  title: string;
-  year: number | null;
-  authors: string[];
-  firstAuthor: string | null;
-  container: string | null;
-  doi: string | null;
-  source: string;
-  screeningStatus: string;
-  createdAt: string;
-}
-
 export function summary(r: RefSummaryRow): ReferenceSummary {
   return {
     id: r.id,
@@ -108,14 +98,14 @@ export function summary(r: RefSummaryRow): ReferenceSummary {
   };
 }
 
-export async function listReferences(db: Knex, q: ReferenceListQuery) {
+export async function listReferences(db: Knex, q: ReferenceListQuery): Promise<ReferencePage> {
   const { total, rows } = await listRefs(db, q);
-  return { items: rows.map(summary), total, page: q.page, pageSize: q.pageSize };
+  return pageOf(rows.map(summary), total, q);
 }
 
 const who = (id: number | null, login: string | null) => (id ? { id, login: login ?? '' } : null);
 
-export async function getReference(db: Knex, id: number) {
+export async function getReference(db: Knex, id: number): Promise<ReferenceDetail> {
   const r = await findRefWithCreator(db, id);
   if (!r) throw new NotFoundError(`There is no reference ${id}.`);
   const [screening, attachments, duplicates, imports] = await Promise.all([decisionsOf(db, id), attachmentsOf(db, id), openCandidatesOf(db, id), importsOfRef(db, id)]);
@@ -152,7 +142,7 @@ export async function getReference(db: Knex, id: number) {
 }
 
 /** Edits the bibliographic fields (optimistic: the caller sends the version it saw). */
-export async function editReference(db: Knex, id: number, edit: ReferenceEdit, actorId: number) {
+export async function editReference(db: Knex, id: number, edit: ReferenceEdit, actorId: number): Promise<ReferenceEditResult> {
   return db.transaction(async (trx) => {
     const r = await lockRef(trx, id);
     if (!r) throw new NotFoundError(`There is no reference ${id}.`);
@@ -207,7 +197,7 @@ export async function exportReferences(db: Knex, ids: number[], format: 'bibtex'
  * everything that pointed at the other (found through the catalog), the other points to it (merged_into) and
  * leaves lists and search. Written to the audit log.
  */
-export async function mergeReferences(db: Knex, input: { a: number; b: number; keep?: number; candidateId?: number; actorId: number }) {
+export async function mergeReferences(db: Knex, input: { a: number; b: number; keep?: number; candidateId?: number; actorId: number }): Promise<MergeResult> {
   if (input.a === input.b) throw new UnprocessableError('A reference cannot be merged with itself.');
   if (input.keep !== undefined && input.keep !== input.a && input.keep !== input.b) {
     throw new UnprocessableError(`keep must be one of the two references (${input.a} or ${input.b}).`, [{ path: 'body.keep', message: `choose ${input.a} or ${input.b}` }]);
@@ -268,7 +258,7 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
   });
 }
 
-export async function listDuplicateCandidates(db: Knex, q: { status: 'open' | 'merged' | 'dismissed'; page: number; pageSize: number; sort: 'created_at' | 'year'; order: 'asc' | 'desc' }) {
+export async function listDuplicateCandidates(db: Knex, q: { status: 'open' | 'merged' | 'dismissed'; page: number; pageSize: number; sort: 'created_at' | 'year'; order: 'asc' | 'desc' }): Promise<DuplicatePage> {
   const { total, rows } = await listCandidates(db, q);
   const refs = await refsByIds(db, [...new Set(rows.flatMap((r) => [r.ref_a, r.ref_b]))]);
   const byId = new Map(refs.map((r) => [r.id, r]));
@@ -276,8 +266,8 @@ export async function listDuplicateCandidates(db: Knex, q: { status: 'open' | 'm
     const r = byId.get(id)!;
     return { ...summary(r), richness: Math.round(richness(r.csl) * 10) / 10, mergedInto: r.merged_into, fields: Object.keys(r.csl ?? {}).filter((k) => !k.startsWith('_')).length };
   };
-  return {
-    items: rows.map((r) => ({
+  return pageOf(
+    rows.map((r) => ({
       id: r.id,
       reason: r.reason,
       status: r.status,
@@ -289,19 +279,18 @@ export async function listDuplicateCandidates(db: Knex, q: { status: 'open' | 'm
       b: side(r.ref_b),
     })),
     total,
-    page: q.page,
-    pageSize: q.pageSize,
-  };
+    q,
+  );
 }
 
-export async function mergeCandidate(db: Knex, candidateId: number, keep: number | undefined, actorId: number) {
+export async function mergeCandidate(db: Knex, candidateId: number, keep: number | undefined, actorId: number): Promise<MergeResult> {
   const c = await findCandidate(db, candidateId);
   if (!c) throw new NotFoundError(`There is no duplicate candidate ${candidateId}.`);
   if (c.status !== 'open') throw new ConflictError(`Candidate ${candidateId} is already ${c.status}.`);
   return mergeReferences(db, { a: c.ref_a, b: c.ref_b, keep, candidateId, actorId });
 }
 
-export async function dismissCandidate(db: Knex, candidateId: number, actorId: number) {
+export async function dismissCandidate(db: Knex, candidateId: number, actorId: number): Promise<DismissResult> {
   return db.transaction(async (trx) => {
     const c = await lockCandidate(trx, candidateId);
     if (!c) throw new NotFoundError(`There is no duplicate candidate ${candidateId}.`);

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import type { ScreeningDecisionInput } from '../../shared/schemas/references.js';
+import type { PrismaFlow, ScreeningDecisionInput, ScreeningQueue, ScreeningResult } from '../../shared/schemas/references.js';
 import { EXCLUSION_REASONS } from '../../shared/vocabulary/screening.js';
 import { ConflictError, NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -10,7 +10,7 @@ import { exclusionReasonCounts, insertDecision } from '../repositories/screening
 import { summary } from './references.js';
 
 /** Records a decision (the history keeps every one; the reference shows the latest). */
-export async function decide(db: Knex, refId: number, input: ScreeningDecisionInput, actorId: number) {
+export async function decide(db: Knex, refId: number, input: ScreeningDecisionInput, actorId: number): Promise<ScreeningResult> {
   return db.transaction(async (trx) => {
     const r = await lockRef(trx, refId);
     if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
@@ -29,7 +29,7 @@ export async function decide(db: Knex, refId: number, input: ScreeningDecisionIn
 }
 
 /** The next unscreened references, oldest first, and how many are left. */
-export async function queue(db: Knex, q: { limit: number; batch?: number }) {
+export async function queue(db: Knex, q: { limit: number; batch?: number }): Promise<ScreeningQueue> {
   const { total, rows } = await unscreenedRefs(db, q);
   return {
     items: rows.map((r) => ({ ...summary(r), abstract: typeof r.csl?.abstract === 'string' ? r.csl.abstract : null, version: r.version })),
@@ -42,7 +42,7 @@ export async function queue(db: Knex, q: { limit: number; batch?: number }) {
  * reference by its source, plus each import entry found to be a duplicate, by its batch's format).
  * Duplicates removed: those duplicate entries plus merged references. Screened: the rest that have a decision.
  */
-export async function prismaCounts(db: Db) {
+export async function prismaCounts(db: Db): Promise<PrismaFlow> {
   const [refs, dupEntries, reasons] = await Promise.all([refCounts(db), duplicateEntriesByFormat(db), exclusionReasonCounts(db)]);
   const identified: Record<string, number> = {};
   for (const r of [...refs.bySource, ...dupEntries]) identified[r.source] = (identified[r.source] ?? 0) + r.n;

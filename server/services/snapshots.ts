@@ -13,7 +13,8 @@ import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows } from '../
 import { synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
-import { METHOD_LABELS, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import { METHOD_LABELS, type CreatedSnapshot, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
 import type { SynthesisOutput } from '../../shared/synthesis/types.js';
@@ -49,7 +50,7 @@ export function defaultTitle(request: SynthesisRequest, metric: string): string 
 
 const newId = () => randomBytes(8).toString('hex');
 
-export async function createSnapshot(db: Knex, actorId: number, request: SynthesisRequest, title: string | undefined, appOrigin: string) {
+export async function createSnapshot(db: Knex, actorId: number, request: SynthesisRequest, title: string | undefined, appOrigin: string): Promise<CreatedSnapshot> {
   // One consistent view of the registry: the version, the rows and the counts belong together.
   return db.transaction(
     async (trx) => {
@@ -125,7 +126,7 @@ export async function loadSnapshot(db: Knex, id: string): Promise<StoredSnapshot
 }
 
 /** What GET /api/snapshots/:id answers: the frozen synthesis plus its provenance. */
-export function snapshotView(s: StoredSnapshot, appOrigin: string) {
+export function snapshotView(s: StoredSnapshot, appOrigin: string): SnapshotView {
   const { references, ...rest } = s;
   return {
     ...rest.output,
@@ -213,19 +214,20 @@ export function snapshotBibtex(s: StoredSnapshot): string {
   return records.length ? toBibtex(records) : '';
 }
 
-export async function listSnapshots(db: Knex, q: { page: number; pageSize: number; sort: 'created_at' | 'k' | 'estimate' | 'title'; order: 'asc' | 'desc'; createdBy?: number }) {
+export async function listSnapshots(db: Knex, q: { page: number; pageSize: number; sort: 'created_at' | 'k' | 'estimate' | 'title'; order: 'asc' | 'desc'; createdBy?: number }): Promise<SnapshotPage> {
   const { total, rows } = await snapshotRows(db, q);
-  return {
-    total,
-    items: rows.map((r) => ({
+  return pageOf(
+    rows.map((r) => ({
       id: r.id,
       title: r.title,
-      createdAt: r.created_at,
+      createdAt: iso(r.created_at),
       createdBy: r.login ?? null,
       metric: r.metric,
       k: r.k,
       estimate: r.estimate,
       registryVersion: Number(r.registry_version),
     })),
-  };
+    total,
+    q,
+  );
 }

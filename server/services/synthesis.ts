@@ -1,7 +1,7 @@
 import type { Knex } from 'knex';
 import { settledEffectsAt, settledEffectsFor } from './settled-effects-cache.js';
 import { UnprocessableError } from '../lib/errors.js';
-import type { SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
 import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
 
@@ -22,8 +22,14 @@ export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: S
   return { registryVersion, effects, output: synthesize(effects, request) };
 }
 
+/** What POST /api/syntheses answers: the synthesis and the registry version it was computed on. */
+export async function registrySynthesis(db: Knex, request: SynthesisRequest): Promise<SynthesisAnswer> {
+  const { registryVersion, output } = await synthesizeRegistry(db, request);
+  return { registryVersion, ...output };
+}
+
 /** Distinct filter values among settled effects, with counts (for the synthesis form). */
-export async function synthesisFacets(db: Knex) {
+export async function synthesisFacets(db: Knex): Promise<SynthesisFacets> {
   const rows = (await settledEffectsAt(db)).effects;
   const tally = (pick: (r: SettledEffect) => string | null) => {
     const m = new Map<string, number>();

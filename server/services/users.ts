@@ -1,18 +1,18 @@
 import type { Knex } from 'knex';
 import type { Role } from '../../shared/roles.js';
+import { pageOf } from '../../shared/schemas/common.js';
+import type { AdminUserPage, RoleChangeResult } from '../../shared/schemas/users.js';
 import { recordAudit } from '../repositories/audit.js';
-import type { PageRequest } from '../repositories/db.js';
+import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
 import { addRole, findUserByGithubId, findUserWithRoles, listUsers as userRows, removeRole, upsertGithubUser, type GithubProfile, type UserSort } from '../repositories/users.js';
 import { ConflictError, NotFoundError } from '../lib/errors.js';
 
 export type { UserSort };
 
-export async function listUsers(db: Knex, opts: PageRequest & { sort: UserSort; order: 'asc' | 'desc'; q?: string }) {
+export async function listUsers(db: Knex, opts: PageRequest & { sort: UserSort; order: 'asc' | 'desc'; q?: string }): Promise<AdminUserPage> {
   const { total, rows } = await userRows(db, opts);
-  return {
-    total,
-    items: rows.map((r) => ({ id: r.id, login: r.login, name: r.name, email: r.email, createdAt: r.created_at, lastSeenAt: r.last_seen_at, roles: r.roles })),
-  };
+  const items = rows.map((r) => ({ id: r.id, login: r.login, name: r.name, email: r.email, createdAt: iso(r.created_at), lastSeenAt: isoOrNull(r.last_seen_at), roles: r.roles }));
+  return pageOf(items, total, opts);
 }
 
 /** The user behind a session, with roles; undefined when the account is gone. */
@@ -36,7 +36,7 @@ export async function signInGithubUser(db: Knex, profile: GithubProfile, adminLo
   });
 }
 
-async function changeRole(db: Knex, actorId: number, userId: number, role: Role, grant: boolean) {
+async function changeRole(db: Knex, actorId: number, userId: number, role: Role, grant: boolean): Promise<RoleChangeResult> {
   return db.transaction(async (trx) => {
     const user = await findUserWithRoles(trx, userId);
     if (!user) throw new NotFoundError(`No user with id ${userId}.`);
@@ -44,7 +44,7 @@ async function changeRole(db: Knex, actorId: number, userId: number, role: Role,
     const changed = grant ? await addRole(trx, userId, role, actorId) : await removeRole(trx, userId, role);
     if (changed) await recordAudit(trx, { actorId, action: grant ? 'role.granted' : 'role.revoked', entityType: 'user', entityId: userId, details: { role, login: user.login } });
     const after = (await findUserWithRoles(trx, userId))!;
-    return { id: after.id, login: after.login, roles: after.roles };
+    return { user: { id: after.id, login: after.login, roles: after.roles } };
   });
 }
 

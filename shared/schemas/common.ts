@@ -1,6 +1,8 @@
 import { z } from 'zod';
 
 export const idParam = z.coerce.number().int().positive();
+/** `:id` in a path. */
+export const idParamsSchema = z.object({ id: idParam });
 
 export function pagingSchema<const S extends readonly [string, ...string[]]>(sortFields: S, defaultSort: S[number]) {
   return z.object({
@@ -11,6 +13,14 @@ export function pagingSchema<const S extends readonly [string, ...string[]]>(sor
   });
 }
 
+/** An instant as the API writes it: ISO 8601 in UTC ("2026-12-01T09:30:00.000Z"). */
+export const timestamp = z.string();
+
+/** The one shape of every paged list the API answers. */
+export function pageSchema<T extends z.ZodType>(item: T) {
+  return z.object({ items: z.array(item), total: z.number().int().min(0), page: z.number().int().min(1), pageSize: z.number().int().min(1) });
+}
+
 export interface Page<T> {
   items: T[];
   total: number;
@@ -18,7 +28,20 @@ export interface Page<T> {
   pageSize: number;
 }
 
+/** Builds a page from the rows of one page, the total and the request's paging. */
+export function pageOf<T>(items: T[], total: number, q: { page: number; pageSize: number }): Page<T> {
+  return { items, total, page: q.page, pageSize: q.pageSize };
+}
+
+/** The one envelope of every refusal: a code, a message and, for bad input, the fields at fault. */
 export const apiErrorSchema = z.object({
   error: z.object({ code: z.string(), message: z.string(), details: z.unknown().optional() }),
 });
 export type ApiError = z.infer<typeof apiErrorSchema>;
+
+/** A field problem in `error.details` of a 400. */
+export const fieldErrorSchema = z.object({ path: z.string(), message: z.string() });
+export type FieldError = z.infer<typeof fieldErrorSchema>;
+
+/** Someone named in an answer (who made a decision, uploaded a file, started an import). */
+export const actorSchema = z.object({ id: z.number().int(), login: z.string() });

@@ -6,6 +6,7 @@ import { POPULATIONS } from '../vocabulary/populations.js';
 import { TASKS } from '../vocabulary/tasks.js';
 import { REPORT_FORMS, REPORTED_KEYS, METRIC_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
 import { METRICS } from '../stats/metrics.js';
+import { pageSchema, timestamp } from './common.js';
 
 /** Empty form inputs (NaN from valueAsNumber, '' or null) mean "not reported". */
 const blank = (v: unknown) => (v === '' || v === null || (typeof v === 'number' && Number.isNaN(v)) ? undefined : v);
@@ -169,3 +170,134 @@ export function numbersAgree(a: number | null | undefined, b: number | null | un
   if (a == null || b == null) return a == null && b == null;
   return Math.abs(a - b) <= Math.max(TOLERANCE.absolute, TOLERANCE.relative * Math.max(Math.abs(a), Math.abs(b)));
 }
+
+// ---- answers about coding sheets
+
+const computedSchema = z.object({
+  metric: z.enum(METRICS),
+  effect: z.number(),
+  variance: z.number(),
+  formula: z.string(),
+  assumedR: z.number().nullable(),
+  n: z.number().int().nullable(),
+});
+
+/** A coded effect as stored and answered (the server's computation from what was reported, when it computes). */
+export const storedEffectSchema = z.object({
+  id: z.number().int(),
+  label: z.string(),
+  outcome: z.enum(OUTCOME_KINDS).optional(),
+  manipulation: z.string().optional(),
+  form: z.enum(REPORT_FORMS).optional(),
+  reported: reportedSchema,
+  assumedR: z.number().optional(),
+  page: z.string().optional(),
+  locator: z.string().optional(),
+  quote: z.string().optional(),
+  version: z.number().int(),
+  /** set when a curator withdrew this settled effect */
+  withdrawnReason: z.string().nullable().optional(),
+  computed: computedSchema.nullable(),
+});
+export type StoredEffect = z.infer<typeof storedEffectSchema>;
+
+export const storedStudySchema = z.object({
+  id: z.number().int(),
+  studyId: z.number().int().nullable(),
+  label: z.string(),
+  design: z.enum(DESIGNS).optional(),
+  n1: z.number().int().optional(),
+  n2: z.number().int().optional(),
+  population: z.enum(POPULATIONS).optional(),
+  diagnosis: z.string().optional(),
+  modality: z.enum(MODALITIES).optional(),
+  task: z.enum(TASKS).optional(),
+  standardMs: z.number().optional(),
+  effects: z.array(storedEffectSchema),
+});
+export type StoredStudy = z.infer<typeof storedStudySchema>;
+
+const referenceBriefSchema = z.object({ id: z.number().int(), title: z.string(), label: z.string(), doi: z.string().nullable() });
+export type ReferenceBrief = z.infer<typeof referenceBriefSchema>;
+
+/** GET /api/extractions/:id and GET /api/records/:id */
+export const extractionDetailSchema = z.object({
+  extraction: z.object({
+    id: z.number().int(),
+    kind: z.enum(['coding', 'settled']),
+    state: z.enum(EXTRACTION_STATES),
+    version: z.number().int(),
+    recordVersion: z.number().int().nullable(),
+    assignmentId: z.number().int().nullable(),
+    referenceId: z.number().int(),
+    reference: referenceBriefSchema.extend({ year: z.number().int().nullable() }),
+    coder: z.string().nullable(),
+    updatedBy: z.string().nullable(),
+    updatedAt: timestamp,
+    submittedAt: timestamp.nullable(),
+    settledAt: timestamp.nullable(),
+    supersedesId: z.number().int().nullable(),
+    supersededBy: z.number().int().nullable(),
+    reopenReason: z.string().nullable(),
+    notes: z.string(),
+    editable: z.boolean(),
+  }),
+  studies: z.array(storedStudySchema),
+});
+export type ExtractionDetail = z.infer<typeof extractionDetailSchema>;
+
+/** PUT /api/extractions/:id */
+export const savedSheetSchema = z.object({ version: z.number().int(), updatedAt: timestamp, studies: z.array(storedStudySchema) });
+export type SavedSheet = z.infer<typeof savedSheetSchema>;
+
+/** POST /api/extractions/:id/submit: the sheet's state, and the pair's when this was the second sheet. */
+export const submitResultSchema = z.object({
+  state: z.enum(['submitted', 'settled', 'disputed']),
+  pairState: z.enum(['coding', 'matched', 'disputed', 'settled', 'withdrawn']).nullable(),
+  discrepancies: z.number().int(),
+  recordId: z.number().int().optional(),
+});
+export type SubmitResult = z.infer<typeof submitResultSchema>;
+
+export const myExtractionsQuerySchema = z.object({
+  state: z.enum(EXTRACTION_STATES).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  sort: z.enum(['updated', 'reference', 'state']).default('updated'),
+  order: z.enum(['asc', 'desc']).default('desc'),
+});
+export type MyExtractionsQuery = z.input<typeof myExtractionsQuerySchema>;
+
+export const myExtractionSchema = z.object({
+  id: z.number().int(),
+  state: z.enum(EXTRACTION_STATES),
+  version: z.number().int(),
+  updatedAt: timestamp,
+  assignmentId: z.number().int().nullable(),
+  referenceId: z.number().int(),
+  referenceLabel: z.string(),
+  title: z.string(),
+  effects: z.number().int(),
+});
+export type MyExtraction = z.infer<typeof myExtractionSchema>;
+export const myExtractionPageSchema = pageSchema(myExtractionSchema);
+export type MyExtractionPage = z.infer<typeof myExtractionPageSchema>;
+
+export const claimableQuerySchema = z.object({
+  q: z.string().trim().max(200).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(15),
+  sort: z.enum(['reference', 'year']).default('reference'),
+  order: z.enum(['asc', 'desc']).default('asc'),
+});
+export type ClaimableQuery = z.input<typeof claimableQuerySchema>;
+
+export const claimableSchema = z.object({ id: z.number().int(), title: z.string(), referenceLabel: z.string(), year: z.number().int().nullable(), doi: z.string().nullable() });
+export type Claimable = z.infer<typeof claimableSchema>;
+export const claimablePageSchema = pageSchema(claimableSchema);
+export type ClaimablePage = z.infer<typeof claimablePageSchema>;
+
+export const claimSchema = z.object({ referenceId: z.coerce.number().int().positive() });
+/** POST /api/extractions: the new sheet. */
+export const createdSchema = z.object({ id: z.number().int() });
+export type Created = z.infer<typeof createdSchema>;

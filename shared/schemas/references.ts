@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { EXCLUSION_REASONS, SCREENING_DECISIONS, SCREENING_STATUSES } from '../vocabulary/screening.js';
-import { pagingSchema } from './common.js';
+import { actorSchema, pageSchema, pagingSchema, timestamp } from './common.js';
 
 export const IMPORT_FORMATS = ['bibtex', 'ris', 'doi'] as const;
 export type ImportFormat = (typeof IMPORT_FORMATS)[number];
@@ -18,32 +18,40 @@ export type ImportRequest = z.infer<typeof importRequestSchema>;
 export const ENTRY_STATUSES = ['pending', 'imported', 'duplicate', 'rejected'] as const;
 export type EntryStatus = (typeof ENTRY_STATUSES)[number];
 
-export interface ImportEntryView {
-  index: number;
-  status: EntryStatus;
-  message?: string;
-  referenceId?: number;
-  key?: string;
-  likelyDuplicateOf?: number;
-}
-export interface ImportBatchView {
-  id: number;
-  format: ImportFormat;
-  label: string | null;
-  state: 'running' | 'done';
-  total: number;
-  processed: number;
-  counts: { imported: number; duplicate: number; rejected: number; pending: number };
-  createdAt: string;
-  finishedAt: string | null;
-  createdBy: { id: number; login: string } | null;
-}
-export interface ImportResult {
-  batch: ImportBatchView;
-  entries: ImportEntryView[];
+export const importEntryViewSchema = z.object({
+  index: z.number().int(),
+  status: z.enum(ENTRY_STATUSES),
+  message: z.string().optional(),
+  referenceId: z.number().int().optional(),
+  key: z.string().optional(),
+  likelyDuplicateOf: z.number().int().optional(),
+});
+export type ImportEntryView = z.infer<typeof importEntryViewSchema>;
+
+export const importBatchViewSchema = z.object({
+  id: z.number().int(),
+  format: z.enum(IMPORT_FORMATS),
+  label: z.string().nullable(),
+  state: z.enum(['running', 'done']),
+  total: z.number().int(),
+  processed: z.number().int(),
+  counts: z.object({ imported: z.number().int(), duplicate: z.number().int(), rejected: z.number().int(), pending: z.number().int() }),
+  createdAt: timestamp,
+  finishedAt: timestamp.nullable(),
+  createdBy: actorSchema.nullable(),
+});
+export type ImportBatchView = z.infer<typeof importBatchViewSchema>;
+
+/** POST /api/imports and GET /api/imports/:id */
+export const importResultSchema = z.object({
+  batch: importBatchViewSchema,
+  entries: z.array(importEntryViewSchema),
   /** How many entries match (all of them, or those of the requested status). */
-  entriesTotal?: number;
-}
+  entriesTotal: z.number().int().optional(),
+});
+export type ImportResult = z.infer<typeof importResultSchema>;
+export const importPageSchema = pageSchema(importBatchViewSchema);
+export type ImportPage = z.infer<typeof importPageSchema>;
 
 export const importListQuerySchema = pagingSchema(['created_at', 'format', 'total'] as const, 'created_at').extend({
   order: z.enum(['asc', 'desc']).default('desc'),
@@ -123,21 +131,23 @@ export const searchQuerySchema = z.object({
 });
 export type SearchQuery = z.infer<typeof searchQuerySchema>;
 
-export interface SearchHit {
-  id: number;
-  title: string;
-  year: number | null;
-  authors: string[];
-  doi: string | null;
-  container: string | null;
-  screeningStatus: string;
-}
-export interface SearchResult {
-  hits: SearchHit[];
-  total: number;
-  facets: { screening_status: Record<string, number>; year: Record<string, number> };
-  processingTimeMs?: number;
-}
+export const searchHitSchema = z.object({
+  id: z.number().int(),
+  title: z.string(),
+  year: z.number().int().nullable(),
+  authors: z.array(z.string()),
+  doi: z.string().nullable(),
+  container: z.string().nullable(),
+  screeningStatus: z.string(),
+});
+export type SearchHit = z.infer<typeof searchHitSchema>;
+export const searchResultSchema = z.object({
+  hits: z.array(searchHitSchema),
+  total: z.number().int(),
+  facets: z.object({ screening_status: z.record(z.string(), z.number()), year: z.record(z.string(), z.number()) }),
+  processingTimeMs: z.number().optional(),
+});
+export type SearchResult = z.infer<typeof searchResultSchema>;
 
 export const exportQuerySchema = z.object({
   format: z.enum(['bibtex', 'csl-json']),
@@ -159,3 +169,112 @@ export function normaliseDoi(raw: string | null | undefined): string | null {
     .toLowerCase();
   return DOI_PATTERN.test(s) ? s : null;
 }
+
+// ---- answers about references
+
+export const referenceSummarySchema = z.object({
+  id: z.number().int(),
+  title: z.string(),
+  year: z.number().int().nullable(),
+  authors: z.array(z.string()),
+  firstAuthor: z.string().nullable(),
+  container: z.string().nullable(),
+  doi: z.string().nullable(),
+  source: z.string(),
+  screeningStatus: z.enum(SCREENING_STATUSES),
+  createdAt: timestamp,
+});
+export type ReferenceSummary = z.infer<typeof referenceSummarySchema>;
+export const referencePageSchema = pageSchema(referenceSummarySchema);
+export type ReferencePage = z.infer<typeof referencePageSchema>;
+
+export const screeningEntrySchema = z.object({
+  id: z.number().int(),
+  decision: z.enum(SCREENING_DECISIONS),
+  reason: z.string().nullable(),
+  note: z.string().nullable(),
+  decidedAt: timestamp,
+  decidedBy: actorSchema.nullable(),
+  refId: z.number().int(),
+});
+export type ScreeningEntry = z.infer<typeof screeningEntrySchema>;
+
+export const attachmentSchema = z.object({
+  id: z.number().int(),
+  filename: z.string(),
+  sizeBytes: z.number().int(),
+  mime: z.string(),
+  createdAt: timestamp,
+  uploadedBy: actorSchema.nullable(),
+});
+export type Attachment = z.infer<typeof attachmentSchema>;
+
+/** GET /api/references/:id */
+export const referenceDetailSchema = z.object({
+  reference: referenceSummarySchema.extend({
+    csl: z.record(z.string(), z.unknown()),
+    mergedInto: z.number().int().nullable(),
+    version: z.number().int(),
+    updatedAt: timestamp,
+    createdBy: actorSchema.nullable(),
+    abstract: z.string().nullable(),
+  }),
+  screening: z.array(screeningEntrySchema),
+  attachments: z.array(attachmentSchema),
+  duplicates: z.array(z.object({ candidateId: z.number().int(), otherId: z.number().int(), reason: z.string() })),
+  imports: z.array(z.object({ batchId: z.number().int(), format: z.string(), index: z.number().int(), status: z.enum(ENTRY_STATUSES), at: timestamp })),
+});
+export type ReferenceDetail = z.infer<typeof referenceDetailSchema>;
+
+/** PATCH /api/references/:id */
+export const referenceEditResultSchema = z.object({ id: z.number().int(), version: z.number().int(), changed: z.array(z.string()) });
+export type ReferenceEditResult = z.infer<typeof referenceEditResultSchema>;
+
+/** POST /api/references/:id/screening */
+export const screeningResultSchema = screeningEntrySchema.omit({ decidedBy: true }).extend({ screeningStatus: z.enum(SCREENING_DECISIONS) });
+export type ScreeningResult = z.infer<typeof screeningResultSchema>;
+
+/** GET /api/screening/queue */
+export const screeningQueueSchema = z.object({
+  items: z.array(referenceSummarySchema.extend({ abstract: z.string().nullable(), version: z.number().int() })),
+  remaining: z.number().int(),
+});
+export type ScreeningQueue = z.infer<typeof screeningQueueSchema>;
+export type ScreeningQueueItem = ScreeningQueue['items'][number];
+
+/** GET /api/screening/counts: the PRISMA 2020 flow numbers. */
+export const prismaCountsSchema = z.object({
+  identified: z.object({ total: z.number().int(), bySource: z.record(z.string(), z.number().int()) }),
+  duplicatesRemoved: z.object({ total: z.number().int(), importDuplicates: z.number().int(), merged: z.number().int() }),
+  afterDuplicates: z.number().int(),
+  screened: z.number().int(),
+  awaitingScreening: z.number().int(),
+  excluded: z.object({ total: z.number().int(), byReason: z.record(z.string(), z.number().int()) }),
+  included: z.number().int(),
+});
+export type PrismaFlow = z.infer<typeof prismaCountsSchema>;
+
+const candidateSideSchema = referenceSummarySchema.extend({ richness: z.number(), mergedInto: z.number().int().nullable(), fields: z.number().int() });
+export const duplicateCandidateSchema = z.object({
+  id: z.number().int(),
+  reason: z.string(),
+  status: z.enum(['open', 'merged', 'dismissed']),
+  createdAt: timestamp,
+  decidedAt: timestamp.nullable(),
+  decidedBy: actorSchema.nullable(),
+  keptRef: z.number().int().nullable(),
+  a: candidateSideSchema,
+  b: candidateSideSchema,
+});
+export type DuplicateCandidate = z.infer<typeof duplicateCandidateSchema>;
+export const duplicatePageSchema = pageSchema(duplicateCandidateSchema);
+export type DuplicatePage = z.infer<typeof duplicatePageSchema>;
+
+/** POST /api/references/merge and /api/duplicates/:id/merge */
+export const mergeResultSchema = z.object({ kept: z.number().int(), merged: z.number().int(), moved: z.record(z.string(), z.number().int()) });
+export type MergeResult = z.infer<typeof mergeResultSchema>;
+export const dismissResultSchema = z.object({ id: z.number().int(), status: z.literal('dismissed') });
+export type DismissResult = z.infer<typeof dismissResultSchema>;
+/** POST /api/references/:id/attachments */
+export const attachmentCreatedSchema = attachmentSchema.omit({ uploadedBy: true });
+export type AttachmentCreated = z.infer<typeof attachmentCreatedSchema>;

@@ -1,6 +1,11 @@
 import { z } from 'zod';
 import { METHODS } from '../stats/types.js';
 import { METRICS } from '../stats/metrics.js';
+import type { PoolResult } from '../stats/types.js';
+import type { PrismaCounts } from '../synthesis/methods.js';
+import type { Caution, PlotFigure, SynthesisOutput } from '../synthesis/types.js';
+import { pageSchema, timestamp } from './common.js';
+import { settledEffectRowSchema } from './registry.js';
 
 const term = z.string().trim().min(1).max(120);
 const year = z.coerce.number().int().min(1800).max(2200);
@@ -80,3 +85,135 @@ export const snapshotListQuerySchema = z.object({
 export const snapshotCreateSchema = synthesisRequestSchema.extend({ title: z.string().trim().min(1).max(200).optional() });
 
 export const atlasSlugSchema = z.object({ slug: z.string().trim().min(1).max(120) });
+
+// ---- answers (the engine's own output types come from shared/synthesis and shared/stats, wrapped here)
+
+/** POST /api/syntheses: the engine's output and the registry version it was computed on. */
+export const synthesisAnswerSchema = z.custom<SynthesisOutput>().and(z.object({ registryVersion: z.number().int() }));
+export type SynthesisAnswer = z.infer<typeof synthesisAnswerSchema>;
+
+const facetSchema = z.object({ value: z.string(), count: z.number().int(), label: z.string().optional() });
+export type Facet = z.infer<typeof facetSchema>;
+/** GET /api/syntheses/facets: the filter values among settled effects, with counts. */
+export const synthesisFacetsSchema = z.object({
+  effects: z.number().int(),
+  manipulations: z.array(facetSchema),
+  outcomes: z.array(facetSchema),
+  metrics: z.array(facetSchema),
+  populations: z.array(facetSchema),
+  modalities: z.array(facetSchema),
+  tasks: z.array(facetSchema),
+  designs: z.array(facetSchema),
+  years: z.object({ min: z.number().int(), max: z.number().int() }).nullable(),
+});
+export type SynthesisFacets = z.infer<typeof synthesisFacetsSchema>;
+
+// ---- the atlas
+
+export const atlasCountsSchema = z.object({ effects: z.number().int(), studies: z.number().int(), references: z.number().int() });
+export type AtlasCounts = z.infer<typeof atlasCountsSchema>;
+
+/** The current pooled estimate of one (outcome kind, manipulation, metric) cell. */
+export const pooledCellSchema = z.object({
+  outcome: z.string(),
+  outcomeLabel: z.string(),
+  manipulation: z.string(),
+  manipulationLabel: z.string(),
+  metric: z.string(),
+  metricLabel: z.string(),
+  filters: z.record(z.string(), z.string()),
+  counts: atlasCountsSchema,
+  pooled: z.custom<Pick<PoolResult, 'estimate' | 'ci_lower' | 'ci_upper' | 'pi_lower' | 'pi_upper' | 'tau2' | 'I2' | 'Q_p' | 'p' | 'level' | 'method'>>(),
+  cautions: z.array(z.custom<Caution>()),
+  forest: z.custom<PlotFigure>().optional(),
+});
+export type PooledCell = z.infer<typeof pooledCellSchema>;
+
+/** GET /api/atlas */
+export const atlasLandingSchema = z.object({
+  totals: atlasCountsSchema,
+  manipulations: z.array(atlasCountsSchema.extend({ term: z.string(), label: z.string(), description: z.string(), outcomes: z.array(z.string()) })),
+  outcomes: z.array(atlasCountsSchema.extend({ kind: z.string(), label: z.string(), typicalReport: z.string(), metrics: z.array(z.string()) })),
+});
+export type AtlasLanding = z.infer<typeof atlasLandingSchema>;
+
+/** GET /api/atlas/manipulations/:slug */
+export const atlasManipulationSchema = z.object({
+  manipulation: z.object({ term: z.string(), label: z.string(), description: z.string(), retired: z.boolean() }),
+  totals: atlasCountsSchema,
+  cells: z.array(pooledCellSchema),
+});
+export type AtlasManipulation = z.infer<typeof atlasManipulationSchema>;
+
+/** GET /api/atlas/manipulations/:slug/pooled */
+export const atlasPooledSchema = z.object({ term: z.string(), totals: atlasCountsSchema, cells: z.array(pooledCellSchema) });
+export type AtlasPooled = z.infer<typeof atlasPooledSchema>;
+
+/** GET /api/atlas/outcomes/:slug */
+export const atlasOutcomeSchema = z.object({
+  outcome: z.object({ kind: z.string(), label: z.string(), typicalReport: z.string(), metrics: z.array(z.string()), metricLabels: z.array(z.string()) }),
+  totals: atlasCountsSchema,
+  cells: z.array(pooledCellSchema),
+});
+export type AtlasOutcome = z.infer<typeof atlasOutcomeSchema>;
+
+export const atlasReferencesQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  sort: z.enum(['year', 'label', 'title', 'effects']).default('year'),
+  order: z.enum(['asc', 'desc']).default('asc'),
+});
+export type AtlasReferencesQuery = z.input<typeof atlasReferencesQuerySchema>;
+
+export const atlasReferenceSchema = z.object({
+  id: z.number().int(),
+  label: z.string(),
+  title: z.string(),
+  year: z.number().int().nullable(),
+  doi: z.string().nullable(),
+  studies: z.number().int(),
+  effects: z.number().int(),
+});
+export type AtlasReference = z.infer<typeof atlasReferenceSchema>;
+export const atlasReferencePageSchema = pageSchema(atlasReferenceSchema);
+export type AtlasReferencePage = z.infer<typeof atlasReferencePageSchema>;
+
+// ---- snapshots
+
+export const snapshotSummarySchema = z.object({
+  id: z.string(),
+  title: z.string(),
+  createdAt: timestamp,
+  createdBy: z.string().nullable(),
+  metric: z.string(),
+  k: z.number().int(),
+  estimate: z.number(),
+  registryVersion: z.number().int(),
+});
+export type SnapshotSummary = z.infer<typeof snapshotSummarySchema>;
+export const snapshotPageSchema = pageSchema(snapshotSummarySchema);
+export type SnapshotPage = z.infer<typeof snapshotPageSchema>;
+
+/** POST /api/snapshots */
+export const createdSnapshotSchema = z.object({ id: z.string(), url: z.string(), apiUrl: z.string(), registryVersion: z.number().int() });
+export type CreatedSnapshot = z.infer<typeof createdSnapshotSchema>;
+
+export const snapshotReferenceSchema = z.object({ id: z.number().int(), title: z.string(), year: z.number().int().nullable(), doi: z.string().nullable(), firstAuthor: z.string().nullable() });
+
+/** GET /api/snapshots/:id (and export.json): the frozen synthesis with its provenance. */
+export const snapshotViewSchema = z.custom<SynthesisOutput>().and(
+  z.object({
+    id: z.string(),
+    title: z.string(),
+    url: z.string(),
+    createdAt: timestamp,
+    createdBy: z.object({ login: z.string(), name: z.string().nullable() }).nullable(),
+    registryVersion: z.number().int(),
+    software: z.string(),
+    methods: z.string(),
+    prisma: z.custom<PrismaCounts>().nullable(),
+    effects: z.array(settledEffectRowSchema),
+    references: z.array(snapshotReferenceSchema),
+  }),
+);
+export type SnapshotView = z.infer<typeof snapshotViewSchema>;

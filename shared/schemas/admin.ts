@@ -1,0 +1,73 @@
+import { z } from 'zod';
+import { pageSchema, timestamp } from './common.js';
+
+export const auditQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  entityType: z.string().max(50).optional(),
+  entityId: z.string().max(50).optional(),
+  action: z.string().max(80).optional(),
+});
+
+export const auditEntrySchema = z.object({
+  id: z.number().int(),
+  at: timestamp,
+  actorId: z.number().int().nullable(),
+  actorLogin: z.string().nullable(),
+  action: z.string(),
+  entityType: z.string(),
+  entityId: z.string().nullable(),
+  details: z.record(z.string(), z.unknown()),
+});
+export type AuditEntry = z.infer<typeof auditEntrySchema>;
+export const auditPageSchema = pageSchema(auditEntrySchema);
+export type AuditPage = z.infer<typeof auditPageSchema>;
+
+export const MAIL_STATUSES = ['queued', 'sent', 'retrying', 'failed'] as const;
+
+export const mailLogQuerySchema = z.object({
+  status: z.enum(MAIL_STATUSES).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+  order: z.enum(['asc', 'desc']).default('desc'),
+});
+export const mailboxQuerySchema = z.object({
+  to: z.string().trim().max(200).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(25),
+});
+
+export const mailLogEntrySchema = z.object({
+  id: z.number().int(),
+  kind: z.string(),
+  to: z.string(),
+  subject: z.string(),
+  status: z.enum(MAIL_STATUSES),
+  attempts: z.number().int(),
+  lastError: z.string().nullable(),
+  createdAt: timestamp,
+  sentAt: timestamp.nullable(),
+});
+export type MailLogEntry = z.infer<typeof mailLogEntrySchema>;
+export const mailLogPageSchema = pageSchema(mailLogEntrySchema);
+export type MailLogPage = z.infer<typeof mailLogPageSchema>;
+
+/** A message as the configured mail catcher (MAILBOX_URL) lists it. */
+export const mailboxMessageSchema = z.object({
+  id: z.number().int(),
+  from: z.string(),
+  to: z.array(z.string()),
+  subject: z.string(),
+  text: z.string(),
+  receivedAt: timestamp,
+});
+export type MailboxMessage = z.infer<typeof mailboxMessageSchema>;
+export const mailboxPageSchema = pageSchema(mailboxMessageSchema);
+export type MailboxPage = z.infer<typeof mailboxPageSchema>;
+
+const partSchema = z.object({ state: z.enum(['up', 'down', 'not configured']), ms: z.number().optional(), message: z.string().optional() });
+export const healthSchema = z.object({
+  status: z.enum(['ok', 'degraded', 'unavailable']),
+  parts: z.object({ database: partSchema, search: partSchema, mail: partSchema, oauth: partSchema }),
+});
+export type Health = z.infer<typeof healthSchema>;
