@@ -34,6 +34,20 @@ const featureZones = features.flatMap((name) =>
   })),
 );
 
+// The house lines (DEVELOPERS.md): routes → services → repositories → tables; statistics and shared code pure;
+// the local stand-ins reached only through configuration. Each line is an import pattern a zone may not use.
+const LINES = {
+  fakes: { regex: '(^|/)fakes/', message: 'App code reaches the local stand-ins only through configuration (their URL in the environment).' },
+  repositories: { regex: '(^|/)(repositories|db)/', message: 'Routes call services; only services use repositories and the database.' },
+  servicesFromBelow: { regex: '(^|/)(services|routes)/', message: 'Repositories and adapters sit below services: they import no service or route.' },
+  composition: { regex: '^\\.\\./(context|app|workers)\\.js$', message: 'Services take their dependencies as arguments (services/deps.ts), never the app context.' },
+  routes: { regex: '(^|/)routes/', message: 'Services never see HTTP: routes import services, not the other way round.' },
+  outsideShared: { regex: '(^|/)(server|src)/', message: 'shared/ is code for both ends: it imports nothing from server/ or src/.' },
+};
+
+/** `no-restricted-imports` for one zone (a file gets one set of options, so a zone lists every line it keeps). */
+const zone = (files, lines, ignores = []) => ({ files, ignores, rules: { 'no-restricted-imports': ['error', { patterns: lines.map((l) => ({ ...l })) }] } });
+
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', '.data/**'] },
   js.configs.recommended,
@@ -45,6 +59,13 @@ export default tseslint.config(
       '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
     },
   },
+  { files: ['server/**/*.ts'], rules: { '@typescript-eslint/no-explicit-any': 'error' } },
+  zone(['server/**/*.ts'], [LINES.fakes], ['server/fakes/**']),
+  zone(['server/routes/**/*.ts'], [LINES.fakes, LINES.repositories]),
+  zone(['server/repositories/**/*.ts', 'server/adapters/**/*.ts', 'server/db/**/*.ts'], [LINES.fakes, LINES.servicesFromBelow]),
+  zone(['server/services/**/*.ts'], [LINES.fakes, LINES.composition, LINES.routes]),
+  zone(['shared/**/*.ts'], [LINES.fakes, LINES.outsideShared]),
+  // the client's zones: no server code at all (the stand-ins included), no feature importing another
   { files: ['src/**/*.{ts,tsx}'], rules: { 'no-restricted-imports': ['error', { patterns: clientPatterns }] } },
   ...featureZones,
   {

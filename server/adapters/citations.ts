@@ -42,7 +42,30 @@ export class DoiLookupError extends Error {
   }
 }
 
-export type Csl = Record<string, unknown>;
+export interface CslName {
+  family?: string;
+  given?: string;
+  literal?: string;
+}
+export interface CslDate {
+  'date-parts'?: Array<Array<string | number>>;
+  literal?: string;
+  raw?: string;
+}
+/** A CSL-JSON record: the fields the registry reads, typed; the rest kept as they came. */
+export interface Csl {
+  [field: string]: unknown;
+  id?: string;
+  title?: string | string[];
+  author?: CslName[];
+  editor?: CslName[];
+  issued?: CslDate;
+  'published-print'?: CslDate;
+  'published-online'?: CslDate;
+  'container-title'?: string | string[];
+  DOI?: string;
+  abstract?: string;
+}
 export type DoiResolver = (doi: string) => Promise<Csl>;
 
 /**

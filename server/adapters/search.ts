@@ -95,7 +95,7 @@ export class SearchIndex {
     }
   }
 
-  async search<T extends Record<string, any>>(uid: string, q: string, params: Record<string, unknown>) {
+  async search<T extends Record<string, unknown>>(uid: string, q: string, params: Record<string, unknown>) {
     try {
       return await this.withIndex(uid, (idx) => idx.search<T>(q, params as never));
     } catch (err) {

@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import type { Csl } from '../adapters/citations.js';
 import { countRows, pageOf, type Db, type PageRequest } from './db.js';
 import type { AttachmentRow, DuplicateCandidateRow, RefRow, ScreeningStatus } from './rows.js';
 
@@ -75,7 +76,7 @@ export async function liveRefsWithTitleKeys(db: Db, keys: string[]): Promise<Pic
 }
 
 export interface NewRef {
-  csl: Record<string, unknown>;
+  csl: Csl;
   cols: RefColumns;
   source: string;
   createdBy: number | null;
@@ -107,7 +108,7 @@ export async function insertRefUnlessDoiTaken(db: Db, r: NewRef): Promise<number
 export async function updateRef(
   db: Db,
   id: number,
-  patch: Partial<RefColumns> & { csl?: Record<string, unknown>; version?: number; screening_status?: ScreeningStatus; merged_into?: number },
+  patch: Partial<RefColumns> & { csl?: Csl; version?: number; screening_status?: ScreeningStatus; merged_into?: number },
 ): Promise<void> {
   const { csl, ...rest } = patch;
   await db('refs')

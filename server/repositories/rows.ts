@@ -1,6 +1,7 @@
 // The rows of each table as the pg driver returns them (bigint and numeric parsed to numbers in db/knex.ts;
 // jsonb parsed; timestamps as Date). Repositories read and write these; services see the repositories' shapes.
 import type { ReportForm } from '../../shared/extraction/compute.js';
+import type { Csl } from '../adapters/citations.js';
 import type { Role } from '../../shared/roles.js';
 import type { Metric } from '../../shared/stats/metrics.js';
 import type { Design } from '../../shared/vocabulary/designs.js';
@@ -55,7 +56,7 @@ export type ScreeningStatus = 'unscreened' | 'included' | 'excluded';
 
 export interface RefRow {
   id: number;
-  csl: Json;
+  csl: Csl;
   doi: string | null;
   title: string;
   year: number | null;

@@ -62,8 +62,8 @@ export function compareSheets(a: Sheet, b: Sheet): Discrepancy[] {
   if (a.studies.length !== b.studies.length) push('studies', 'studies', 'Number of studies', a.studies.length, b.studies.length);
   const common = Math.min(a.studies.length, b.studies.length);
   for (let i = 0; i < common; i++) {
-    const sa = a.studies[i] as Record<string, any>;
-    const sb = b.studies[i] as Record<string, any>;
+    const sa = a.studies[i];
+    const sb = b.studies[i];
     const at = `Study ${i + 1}`;
     for (const f of STUDY_CATEGORICAL) if (norm(sa[f]) !== norm(sb[f])) push(`studies.${i}.${f}`, f, `${at}: ${FIELD_LABELS[f]}`, sa[f] ?? null, sb[f] ?? null);
     for (const f of STUDY_NUMERIC) if (!numbersAgree(sa[f], sb[f])) push(`studies.${i}.${f}`, f, `${at}: ${FIELD_LABELS[f]}`, sa[f] ?? null, sb[f] ?? null);
@@ -111,14 +111,14 @@ export function mergeSheets(a: Sheet, b: Sheet, resolutions: Resolution[]): Shee
       continue;
     }
     if (parts[2] === 'effects') {
-      const e = merged.studies[i].effects[Number(parts[3])] as Record<string, any>;
+      const e = merged.studies[i].effects[Number(parts[3])] as Record<string, unknown>;
       if (r.field === 'effect') {
         const v = r.value as Partial<EffectValue>;
         e.form = v.form ?? undefined;
         e.reported = { ...(v.reported ?? {}) };
         e.assumedR = v.assumedR ?? undefined;
       } else e[r.field] = r.value ?? undefined;
-    } else (merged.studies[i] as Record<string, any>)[r.field] = r.value ?? undefined;
+    } else (merged.studies[i] as Record<string, unknown>)[r.field] = r.value ?? undefined;
   }
   return merged;
 }

@@ -2,7 +2,9 @@
 import { normaliseDoi } from '../../shared/schemas/references.js';
 import type { RefColumns } from '../repositories/refs.js';
 
-export type Csl = Record<string, any>;
+import type { Csl, CslName } from '../adapters/citations.js';
+
+export type { Csl };
 
 export type { RefColumns };
 
@@ -35,13 +37,13 @@ export function cslYear(csl: Csl): number | null {
   const issued = csl.issued ?? csl['published-print'] ?? csl['published-online'];
   const y = issued?.['date-parts']?.[0]?.[0];
   const n = typeof y === 'string' ? Number.parseInt(y, 10) : y;
-  if (Number.isInteger(n)) return n;
+  if (typeof n === 'number' && Number.isInteger(n)) return n;
   const literal = issued?.literal ?? issued?.raw;
   const m = typeof literal === 'string' ? literal.match(/\b(1[0-9]{3}|2[0-9]{3})\b/) : null;
   return m ? Number(m[1]) : null;
 }
 
-export function personName(p: Csl): string {
+export function personName(p: CslName): string {
   if (!p) return '';
   if (p.literal) return String(p.literal);
   return [p.given, p.family].filter(Boolean).join(' ');

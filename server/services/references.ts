@@ -241,11 +241,11 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
 
     await markMerged(trx, loser, survivor.id);
     const latest = await latestDecision(trx, survivor.id);
-    const takesDoi = !survivor.doi && loser.doi;
+    const takesDoi = !survivor.doi ? loser.doi : null;
     await updateRef(trx, survivor.id, {
       version: survivor.version + 1,
       screening_status: latest?.decision ?? 'unscreened',
-      ...(takesDoi ? { doi: loser.doi, csl: { ...survivor.csl, DOI: loser.doi } } : {}),
+      ...(takesDoi ? { doi: takesDoi, csl: { ...survivor.csl, DOI: takesDoi } } : {}),
     });
     await recordAudit(trx, {
       actorId: input.actorId,
