@@ -1,13 +1,26 @@
 #!/usr/bin/env bash
-# The whole test suite: a fresh PostgreSQL cluster on a free loopback port (removed afterwards), the API and
-# unit tests (vitest), then the browser tests against the built client and seeded demo data.
-# `npm test -- <vitest args>` runs only the matching vitest files.
+# The whole test suite: a fresh PostgreSQL cluster on a free loopback port (removed afterwards), the vitest
+# projects `unit` (statistics and reference checks) and `api` (routes against PostgreSQL and the stand-ins), then
+# the browser tests against the built client and seeded demo data.
+# `npm test -- <vitest args>` runs only the matching vitest files; when they are all unit or reference files
+# (or `--project unit`), no PostgreSQL is started.
 set -uo pipefail
 cd "$(dirname "$0")/.."
 source scripts/pg.sh
 
 if [ ! -x node_modules/.bin/vitest ]; then
   PLAYWRIGHT_SKIP_BROWSER_DOWNLOAD=1 npm ci --no-audit --no-fund --loglevel=error || exit 1
+fi
+
+unit_only=0
+if [ $# -gt 0 ]; then
+  unit_only=1
+  for a in "$@"; do
+    case "$a" in tests/unit/*|tests/reference/*|--project|--project=unit|unit) ;; *) unit_only=0 ;; esac
+  done
+fi
+if [ $unit_only -eq 1 ]; then
+  exec node_modules/.bin/vitest run --project unit "$@"
 fi
 pg_install_if_missing
 

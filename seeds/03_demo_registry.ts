@@ -6,23 +6,14 @@ import { ensureVocabulary } from '../server/services/manipulations.js';
 import { createReference } from '../server/services/references.js';
 import { decide } from '../server/services/screening.js';
 import { createSettledRecord, saveSheet } from '../server/services/settlement.js';
+import { mulberry32 } from '../tests/support/random.js';
 
 // An invented registry: labs, authors, journals, papers and numbers are made up; DOIs use the test prefix 10.5555.
 
-function prng(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-let rand = prng(20261201);
+let rand = mulberry32(20261201);
 // Between-study differences in true effect (labs, stimuli, samples), drawn from a stream of their own so
 // that every other seeded value stays as it was.
-let labRand = prng(424242);
+let labRand = mulberry32(424242);
 const labShift = (width: number) => (labRand() - 0.5) * 2 * width;
 const between = (lo: number, hi: number) => lo + (hi - lo) * rand();
 const int = (lo: number, hi: number) => Math.round(between(lo, hi));
@@ -228,8 +219,8 @@ async function seedPair(knex: Knex, refId: number, a: SheetInput, b: SheetInput,
 }
 
 export async function seed(knex: Knex): Promise<void> {
-  rand = prng(20261201);
-  labRand = prng(424242);
+  rand = mulberry32(20261201);
+  labRand = mulberry32(424242);
   await ensureVocabulary(knex);
   const curator = await userId(knex, 'curator');
   const c1 = await userId(knex, 'coder1');

@@ -4,17 +4,12 @@
 // 10 s; prints the 50th/95th/99th percentile latency of every response (target: p95 < 20 ms) and the rate.
 import { spawn } from 'node:child_process';
 import autocannon from 'autocannon';
+import { randomEffects } from '../support/random.js';
 
 const origin = process.env.APP_ORIGIN ?? `http://127.0.0.1:${process.env.APP_PORT}`;
 
 function body(k: number) {
-  let a = 12345;
-  const rnd = () => {
-    a = (a * 1103515245 + 12345) % 2147483648;
-    return a / 2147483648;
-  };
-  const variances = Array.from({ length: k }, () => 0.005 + 0.3 * rnd());
-  const effects = variances.map((v) => 0.3 + Math.sqrt(v + 0.08) * Math.sqrt(-2 * Math.log(rnd() || 1e-12)) * Math.cos(2 * Math.PI * rnd()));
+  const { effects, variances } = randomEffects(12345, k, { mu: 0.3, tau2: 0.08, vmin: 0.005, vmax: 0.305 });
   return JSON.stringify({ effects, variances, method: 'DL' });
 }
 

@@ -10,28 +10,12 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { pool, leaveOneOut, cumulative } from '../../shared/stats/index.js';
+import { randomEffects } from '../support/random.js';
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
+/** Heterogeneous effects (τ² = 0.08 around 0.3) as typed arrays, from the one seeded generator. */
 function heterogeneous(k: number, seed: number) {
-  const rnd = mulberry32(seed);
-  const effects = new Float64Array(k);
-  const variances = new Float64Array(k);
-  for (let i = 0; i < k; i++) {
-    variances[i] = 0.005 + 0.3 * rnd();
-    const z = Math.sqrt(-2 * Math.log(rnd() || 1e-12)) * Math.cos(2 * Math.PI * rnd());
-    effects[i] = 0.3 + Math.sqrt(variances[i] + 0.08) * z;
-  }
-  return { effects, variances };
+  const { effects, variances } = randomEffects(seed, k, { mu: 0.3, tau2: 0.08, vmin: 0.005, vmax: 0.305 });
+  return { effects: Float64Array.from(effects), variances: Float64Array.from(variances) };
 }
 
 function median(fn: () => unknown, reps: number): number {

@@ -9,23 +9,13 @@ import { readEnv } from '../../server/env.js';
 import { fakePortsFromEnv, startFakes } from '../../server/fakes/run.js';
 import { refColumns } from '../../server/services/reference-fields.js';
 import { rebuildReferenceIndex, searchReferences } from '../../server/services/search.js';
+import { mulberry32 } from '../support/random.js';
 import type { SearchQuery } from '../../shared/schemas/references.js';
 
 const N = 20_000;
 const WORDS = ['looming', 'duration', 'interval', 'bisection', 'reproduction', 'auditory', 'visual', 'tactile', 'numerosity', 'oddball', 'simultaneity', 'recalibration', 'chronostasis', 'flash', 'filled', 'empty', 'tempo', 'rhythm', 'saccade', 'attention', 'expansion', 'brightness', 'motion', 'adaptation', 'children', 'ageing', 'clinical', 'stimulus', 'window', 'order'];
 const FAMILIES = ['Varga', 'Noor', 'Okafor', 'Lindqvist', 'Serrano', 'Haddad', 'Whitcombe', 'Mbeki', 'Castellanos', 'Takahara', 'Ferreira', 'Adeyemi', 'Brandt', 'Kowalczyk', 'Oyelaran', 'Fujimori', 'Delacroix', 'Anand'];
 const STATUSES = ['unscreened', 'included', 'excluded'] as const;
-
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const env = readEnv({ ...process.env, JOBS_ENABLED: 'false' });
 const fakes = await startFakes(fakePortsFromEnv());

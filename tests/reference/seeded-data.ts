@@ -1,21 +1,5 @@
-/** Seeded data sets for the reference comparisons (mulberry32; the seeds are fixed, so every run sees the same numbers). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-export function gaussian(rnd: () => number): () => number {
-  return () => {
-    const u = rnd() || 1e-12;
-    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * rnd());
-  };
-}
+/** Seeded data sets for the reference comparisons (the seeds are fixed, so every run sees the same numbers). */
+import { mulberry32, randomEffects } from '../support/random.js';
 
 export interface DataSet {
   name: string;
@@ -25,11 +9,7 @@ export interface DataSet {
 
 /** Effects yᵢ = μ + √(vᵢ + τ²)·zᵢ with vᵢ uniform in [vmin, vmax]. */
 export function randomDataSet(name: string, seed: number, k: number, mu: number, tau2: number, vmin: number, vmax: number): DataSet {
-  const rnd = mulberry32(seed);
-  const z = gaussian(rnd);
-  const variances = Array.from({ length: k }, () => vmin + (vmax - vmin) * rnd());
-  const effects = variances.map((v) => mu + Math.sqrt(v + tau2) * z());
-  return { name, effects, variances };
+  return { name, ...randomEffects(seed, k, { mu, tau2, vmin, vmax }) };
 }
 
 /** The families the issue asks for: k from 2 to 200, identical effects, τ² truncated at 0, huge heterogeneity, tiny variances. */
