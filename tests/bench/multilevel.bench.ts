@@ -8,7 +8,7 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { poolMultilevel, robustPool } from '../../shared/stats/index.js';
-import { gaussian, mulberry32 } from '../reference/seeded-data.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 
 const K = 5_000;
 const CLUSTERS = 500;

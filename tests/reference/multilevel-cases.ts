@@ -4,7 +4,7 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { gaussian, mulberry32 } from './seeded-data.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 import { runR } from './r-reference.js';
 import { relErr } from './python-reference.js';
 import { poolMultilevel, robustPool } from '../../shared/stats/index.js';

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { pool, poolMultilevel, robustPool, StatsInputError } from '../../../shared/stats/index.js';
 import { prepareMultilevel } from '../../../shared/stats/multilevel-input.js';
 import { fitMultilevelReml, MultilevelReml } from '../../../shared/stats/multilevel-reml.js';
-import { gaussian, mulberry32 } from '../../reference/seeded-data.js';
+import { gaussian, mulberry32 } from '../../support/random.js';
 
 function seeded(seed: number, sizes: number[], sb = 0.05, sw = 0.03) {
   const rnd = mulberry32(seed);
