@@ -238,7 +238,7 @@ function batchView(row: BatchWithLogin, counts: EntryCounts): ImportBatchView {
  * A batch and its entries. Without paging the answer holds every entry (the API contract); the screen asks
  * for one page of entries at a time, optionally of one status.
  */
-export async function getImport(db: Knex, id: number, paging?: PageRequest & { status?: EntryStatus }): Promise<ImportResult & { entriesTotal: number }> {
+export async function getImport(db: Knex, id: number, paging?: PageRequest & { status?: EntryStatus }): Promise<ImportResult> {
   const row = await findBatch(db, id);
   if (!row) throw new NotFoundError(`There is no import batch ${id}.`);
   const counts = await entryCounts(db, id);

@@ -266,7 +266,7 @@ export const myExtractionsQuerySchema = z.object({
   sort: z.enum(['updated', 'reference', 'state']).default('updated'),
   order: z.enum(['asc', 'desc']).default('desc'),
 });
-export type MyExtractionsQuery = z.input<typeof myExtractionsQuerySchema>;
+export type MyExtractionsQuery = z.infer<typeof myExtractionsQuerySchema>;
 
 export const myExtractionSchema = z.object({
   id: z.number().int(),
@@ -290,7 +290,7 @@ export const claimableQuerySchema = z.object({
   sort: z.enum(['reference', 'year']).default('reference'),
   order: z.enum(['asc', 'desc']).default('asc'),
 });
-export type ClaimableQuery = z.input<typeof claimableQuerySchema>;
+export type ClaimableQuery = z.infer<typeof claimableQuerySchema>;
 
 export const claimableSchema = z.object({ id: z.number().int(), title: z.string(), referenceLabel: z.string(), year: z.number().int().nullable(), doi: z.string().nullable() });
 export type Claimable = z.infer<typeof claimableSchema>;

@@ -19,7 +19,7 @@ export const assignmentListQuerySchema = z.object({
   sort: z.enum(['id', 'updated', 'reference']).default('updated'),
   order: z.enum(['asc', 'desc']).default('desc'),
 });
-export type AssignmentListQuery = z.input<typeof assignmentListQuerySchema>;
+export type AssignmentListQuery = z.infer<typeof assignmentListQuerySchema>;
 
 export const assignmentSchema = z.object({
   id: z.number().int(),
@@ -45,7 +45,7 @@ export const candidateQuerySchema = z.object({
   sort: z.enum(['reference', 'year', 'id']).default('reference'),
   order: z.enum(['asc', 'desc']).default('asc'),
 });
-export type CandidateQuery = z.input<typeof candidateQuerySchema>;
+export type CandidateQuery = z.infer<typeof candidateQuerySchema>;
 
 export const candidateSchema = z.object({
   id: z.number().int(),
@@ -76,7 +76,7 @@ export const reconciliationQuerySchema = z.object({
   sort: z.enum(['updated', 'reference', 'open']).default('updated'),
   order: z.enum(['asc', 'desc']).default('asc'),
 });
-export type ReconciliationQuery = z.input<typeof reconciliationQuerySchema>;
+export type ReconciliationQuery = z.infer<typeof reconciliationQuerySchema>;
 
 export const disputedPairSchema = z.object({
   assignmentId: z.number().int(),
@@ -205,7 +205,7 @@ export const agreementQuerySchema = z.object({
   sort: z.enum(['reference', 'agreement']).default('agreement'),
   order: z.enum(['asc', 'desc']).default('asc'),
 });
-export type AgreementQuery = z.input<typeof agreementQuerySchema>;
+export type AgreementQuery = z.infer<typeof agreementQuerySchema>;
 
 const effectAgreementSchema = z.object({ metric: z.string(), items: z.number().int(), icc: z.number().nullable() });
 const pooledAgreementSchema = z.object({ items: z.number().int(), percentAgreement: z.number().nullable(), kappa: z.number().nullable() });

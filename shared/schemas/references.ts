@@ -47,7 +47,7 @@ export const importResultSchema = z.object({
   batch: importBatchViewSchema,
   entries: z.array(importEntryViewSchema),
   /** How many entries match (all of them, or those of the requested status). */
-  entriesTotal: z.number().int().optional(),
+  entriesTotal: z.number().int(),
 });
 export type ImportResult = z.infer<typeof importResultSchema>;
 export const importPageSchema = pageSchema(importBatchViewSchema);

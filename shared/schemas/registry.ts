@@ -79,7 +79,7 @@ export const manipulationListQuerySchema = z.object({
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(100),
 });
-export type ManipulationListQuery = z.input<typeof manipulationListQuerySchema>;
+export type ManipulationListQuery = z.infer<typeof manipulationListQuerySchema>;
 
 export const manipulationSchema = z.object({
   id: z.number().int(),

@@ -163,7 +163,7 @@ export const atlasReferencesQuerySchema = z.object({
   sort: z.enum(['year', 'label', 'title', 'effects']).default('year'),
   order: z.enum(['asc', 'desc']).default('asc'),
 });
-export type AtlasReferencesQuery = z.input<typeof atlasReferencesQuerySchema>;
+export type AtlasReferencesQuery = z.infer<typeof atlasReferencesQuerySchema>;
 
 export const atlasReferenceSchema = z.object({
   id: z.number().int(),

@@ -12,7 +12,8 @@ export const meSchema = z.object({
     effectiveRoles: z.array(roleSchema),
   }),
 });
-export type Me = z.infer<typeof meSchema>['user'];
+export type MeAnswer = z.infer<typeof meSchema>;
+export type Me = MeAnswer['user'];
 
 export const userListQuerySchema = pagingSchema(['login', 'name', 'created_at', 'last_seen_at'] as const, 'login').extend({
   q: z.string().trim().max(100).optional(),

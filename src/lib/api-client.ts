@@ -1,3 +1,5 @@
+import type { ApiError } from '../../shared/schemas/common';
+
 /** The one HTTP client: same-origin JSON with cookies; every failure becomes an ApiRequestError. */
 export class ApiRequestError extends Error {
   constructor(
@@ -41,7 +43,7 @@ export async function api<T>(path: string, opts: Options = {}): Promise<T> {
     data = undefined;
   }
   if (!res.ok) {
-    const err = (data as { error?: { code?: string; message?: string; details?: unknown } } | undefined)?.error;
+    const err = (data as Partial<ApiError> | undefined)?.error;
     throw new ApiRequestError(res.status, err?.code ?? 'http_error', err?.message ?? `The server answered ${res.status}.`, err?.details);
   }
   return data as T;

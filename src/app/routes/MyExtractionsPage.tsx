@@ -68,7 +68,7 @@ export function MyExtractionsPage() {
       </p>
       <label className="text-sm">
         State{' '}
-        <select className="rounded border border-paper-edge bg-white px-2 py-1" value={q.state ?? ''} onChange={(e) => setQ({ ...q, state: e.target.value || undefined, page: 1 })}>
+        <select className="rounded border border-paper-edge bg-white px-2 py-1" value={q.state ?? ''} onChange={(e) => setQ({ ...q, state: (e.target.value || undefined) as MyExtractionsQuery['state'], page: 1 })}>
           <option value="">all</option>
           {['draft', 'submitted', 'disputed', 'settled'].map((s) => (
             <option key={s}>{s}</option>

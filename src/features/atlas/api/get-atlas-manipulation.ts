@@ -1,13 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
-import type { Counts, PooledCell } from './types';
+import type { AtlasManipulation } from '../../../../shared/schemas/synthesis';
 
-export interface AtlasManipulation {
-  manipulation: { term: string; label: string; description: string; retired: boolean };
-  totals: Counts;
-  cells: PooledCell[];
-}
+export type { AtlasManipulation };
 
 export const getAtlasManipulation = (term: string) => api<AtlasManipulation>(`/api/atlas/manipulations/${encodeURIComponent(term)}`);
 export const atlasManipulationQueryOptions = (term: string) =>

@@ -1,13 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
-import type { Counts, PooledCell } from './types';
+import type { AtlasOutcome } from '../../../../shared/schemas/synthesis';
 
-export interface AtlasOutcome {
-  outcome: { kind: string; label: string; typicalReport: string; metrics: string[]; metricLabels: string[] };
-  totals: Counts;
-  cells: PooledCell[];
-}
+export type { AtlasOutcome };
 
 export const getAtlasOutcome = (kind: string) => api<AtlasOutcome>(`/api/atlas/outcomes/${encodeURIComponent(kind)}`);
 export const atlasOutcomeQueryOptions = (kind: string) =>

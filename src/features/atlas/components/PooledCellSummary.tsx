@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { Caution } from '../../../components/ui/Notice';
 import { digitsFor, fixed as f, interval } from '../../../lib/format';
-import type { PooledCell } from '../api/types';
+import type { PooledCell } from '../../../../shared/schemas/synthesis';
 
 
 /** The current pooled estimate of one cell, with its cautions and a link to open it as a synthesis (`openHref`). */

@@ -1,17 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { AuditPage } from '../../../../shared/schemas/admin';
 import { api, queryString } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export interface AuditItem {
-  id: number;
-  at: string;
-  actorId: number | null;
-  actorLogin: string | null;
-  action: string;
-  entityType: string;
-  entityId: string | null;
-  details: Record<string, unknown>;
-}
+export type { AuditEntry as AuditItem } from '../../../../shared/schemas/admin';
 
 export interface AuditQuery {
   page: number;
@@ -20,7 +12,7 @@ export interface AuditQuery {
   action?: string;
 }
 
-export const getAudit = (q: AuditQuery) => api<{ items: AuditItem[]; total: number }>(`/api/admin/audit${queryString({ ...q })}`);
+export const getAudit = (q: AuditQuery) => api<AuditPage>(`/api/admin/audit${queryString({ ...q })}`);
 
 export const auditQueryOptions = (q: AuditQuery) =>
   queryOptions({ queryKey: queryKeys.audit.list(q), queryFn: () => getAudit(q), placeholderData: keepPreviousData });

@@ -1,12 +1,12 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { Me } from '../../../../shared/schemas/users';
+import type { Me, MeAnswer } from '../../../../shared/schemas/users';
 import { hasRole, type Role } from '../../../../shared/roles';
 import { api, ApiRequestError } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
 export async function getMe(): Promise<Me | null> {
   try {
-    return (await api<{ user: Me }>('/api/me')).user;
+    return (await api<MeAnswer>('/api/me')).user;
   } catch (err) {
     if (err instanceof ApiRequestError && err.status === 401) return null;
     throw err;

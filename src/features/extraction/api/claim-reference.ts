@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { Created } from '../../../../shared/schemas/extraction';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export const claimReference = (referenceId: number) => api<{ id: number }>('/api/extractions', { method: 'POST', body: { referenceId } });
+export const claimReference = (referenceId: number) => api<Created>('/api/extractions', { method: 'POST', body: { referenceId } });
 
 export function useClaimReference() {
   const qc = useQueryClient();

@@ -1,10 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { SubmitResult } from '../../../../shared/schemas/extraction';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 import { registryChanged } from '../../../lib/query/registry-changed';
 
 export const submitExtraction = ({ id, version }: { id: number; version: number }) =>
-  api<{ state: string; pairState: string | null; discrepancies: number; recordId?: number }>(`/api/extractions/${id}/submit`, { method: 'POST', body: { version } });
+  api<SubmitResult>(`/api/extractions/${id}/submit`, { method: 'POST', body: { version } });
 
 export function useSubmitExtraction() {
   const qc = useQueryClient();

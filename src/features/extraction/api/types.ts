@@ -1,27 +1,2 @@
-import type { StoredEffect, StoredStudy } from '../../../../shared/extraction/stored-sheet';
-
-export type { StoredEffect, StoredStudy };
-
-export interface ExtractionDetail {
-  extraction: {
-    id: number;
-    kind: 'coding' | 'settled';
-    state: string;
-    version: number;
-    recordVersion: number | null;
-    assignmentId: number | null;
-    referenceId: number;
-    reference: { id: number; title: string; label: string; doi: string | null; year: number | null };
-    coder: string | null;
-    updatedBy: string | null;
-    updatedAt: string;
-    submittedAt: string | null;
-    settledAt: string | null;
-    supersedesId: number | null;
-    supersededBy: number | null;
-    reopenReason: string | null;
-    notes: string;
-    editable: boolean;
-  };
-  studies: StoredStudy[];
-}
+// The coding-sheet answers, defined once in shared/schemas/extraction.ts.
+export type { ExtractionDetail, StoredEffect, StoredStudy } from '../../../../shared/schemas/extraction';

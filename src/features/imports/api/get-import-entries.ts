@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { EntryStatus, ImportEntryView } from '../../../../shared/schemas/references';
+import type { EntryStatus, ImportResult } from '../../../../shared/schemas/references';
 import { api, queryString } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
@@ -11,7 +11,7 @@ export interface EntriesQuery {
 }
 
 export const getImportEntries = (id: number, q: EntriesQuery) =>
-  api<{ entries: ImportEntryView[]; entriesTotal: number }>(`/api/imports/${id}${queryString({ entryPage: q.page, entryPageSize: 100, entryStatus: q.status || undefined })}`);
+  api<ImportResult>(`/api/imports/${id}${queryString({ entryPage: q.page, entryPageSize: 100, entryStatus: q.status || undefined })}`);
 
 export const importEntriesQueryOptions = (id: number, q: EntriesQuery) =>
   queryOptions({ queryKey: queryKeys.imports.entries(id, q), queryFn: () => getImportEntries(id, q), placeholderData: keepPreviousData });

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { ImportBatchView } from '../../../../shared/schemas/references';
+import type { ImportPage } from '../../../../shared/schemas/references';
 import { api, queryString } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
@@ -10,7 +10,7 @@ export interface ImportsQuery {
   order?: 'asc' | 'desc';
 }
 
-export const getImports = (q: ImportsQuery) => api<{ items: ImportBatchView[]; total: number; page: number; pageSize: number }>(`/api/imports${queryString({ ...q })}`);
+export const getImports = (q: ImportsQuery) => api<ImportPage>(`/api/imports${queryString({ ...q })}`);
 
 export const importsQueryOptions = (q: ImportsQuery) => queryOptions({ queryKey: queryKeys.imports.list(q), queryFn: () => getImports(q), placeholderData: keepPreviousData });
 

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
-import type { Manipulation } from './get-manipulations';
+import type { ManipulationResult } from '../../../../shared/schemas/registry';
 import { queryKeys } from '../../../lib/query/keys';
 import { registryChanged } from '../../../lib/query/registry-changed';
 
 export const createManipulation = (body: { term: string; label: string; description?: string }) =>
-  api<{ manipulation: Manipulation }>('/api/manipulations', { method: 'POST', body });
+  api<ManipulationResult>('/api/manipulations', { method: 'POST', body });
 
 export function useCreateManipulation() {
   const qc = useQueryClient();

@@ -1,20 +1,13 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { ManipulationListQuery, ManipulationPage } from '../../../../shared/schemas/registry';
 import { api, queryString } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export interface Manipulation {
-  id: number;
-  term: string;
-  label: string;
-  description: string;
-  retired: boolean;
-  retiredAt: string | null;
-  version: number;
-  settledEffects: number;
-}
+export type { Manipulation } from '../../../../shared/schemas/registry';
+
 export interface ManipulationsQuery {
   includeRetired?: boolean;
-  sort?: 'term' | 'label' | 'effects';
+  sort?: ManipulationListQuery['sort'];
   order?: 'asc' | 'desc';
   page?: number;
   pageSize?: number;
@@ -25,7 +18,7 @@ export const WHOLE_VOCABULARY: ManipulationsQuery = { includeRetired: true, page
 /** The terms in use, for choosing a new value. */
 export const CURRENT_VOCABULARY: ManipulationsQuery = { pageSize: 200, sort: 'label' };
 
-export const getManipulations = (q: ManipulationsQuery) => api<{ items: Manipulation[]; total: number }>(`/api/manipulations${queryString({ ...q })}`);
+export const getManipulations = (q: ManipulationsQuery) => api<ManipulationPage>(`/api/manipulations${queryString({ ...q })}`);
 
 export const manipulationsQueryOptions = (q: ManipulationsQuery = {}) =>
   queryOptions({ queryKey: queryKeys.manipulations.list(q), queryFn: () => getManipulations(q), placeholderData: keepPreviousData, staleTime: 60_000 });

@@ -2,10 +2,10 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 import { registryChanged } from '../../../lib/query/registry-changed';
-import type { Manipulation } from './get-manipulations';
+import type { ManipulationResult } from '../../../../shared/schemas/registry';
 
 export const updateManipulation = ({ term, ...body }: { term: string; version: number; label?: string; description?: string; retired?: boolean }) =>
-  api<{ manipulation: Manipulation }>(`/api/manipulations/${term}`, { method: 'PATCH', body });
+  api<ManipulationResult>(`/api/manipulations/${term}`, { method: 'PATCH', body });
 
 export function useUpdateManipulation() {
   const qc = useQueryClient();

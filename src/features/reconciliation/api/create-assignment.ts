@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CreatedAssignment } from '../../../../shared/schemas/reconciliation';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
 export const createAssignment = (body: { referenceId: number; coder1Id: number; coder2Id: number }) =>
-  api<{ id: number; extractionIds: number[] }>('/api/assignments', { method: 'POST', body });
+  api<CreatedAssignment>('/api/assignments', { method: 'POST', body });
 
 export function useCreateAssignment() {
   const qc = useQueryClient();

@@ -1,14 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CoderList } from '../../../../shared/schemas/reconciliation';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export interface Coder {
-  id: number;
-  login: string;
-  name: string | null;
-}
+export type { Coder } from '../../../../shared/schemas/reconciliation';
 
-export const getCoders = () => api<{ items: Coder[] }>('/api/assignments/coders');
+export const getCoders = () => api<CoderList>('/api/assignments/coders');
 
 export const codersQueryOptions = () => queryOptions({ queryKey: queryKeys.assignments.coders(), queryFn: getCoders, staleTime: 60_000 });
 

@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ResolvedDiscrepancy } from '../../../../shared/schemas/reconciliation';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
 export const resolveDiscrepancy = ({ assignmentId, id, ...body }: { assignmentId: number; id: number; resolution: 'a' | 'b' | 'value'; value?: unknown; rationale: string }) =>
-  api<{ discrepancy: { id: number; status: string } }>(`/api/reconciliation/${assignmentId}/discrepancies/${id}`, { method: 'PUT', body });
+  api<ResolvedDiscrepancy>(`/api/reconciliation/${assignmentId}/discrepancies/${id}`, { method: 'PUT', body });
 
 export function useResolveDiscrepancy(assignmentId: number) {
   const qc = useQueryClient();

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ReferenceEdit } from '../../../../shared/schemas/references';
+import type { ReferenceEdit, ReferenceEditResult } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 import { registryChanged } from '../../../lib/query/registry-changed';
 
 export const editReference = ({ id, edit }: { id: number; edit: ReferenceEdit }) =>
-  api<{ id: number; version: number; changed: string[] }>(`/api/references/${id}`, { method: 'PATCH', body: edit });
+  api<ReferenceEditResult>(`/api/references/${id}`, { method: 'PATCH', body: edit });
 
 export function useEditReference() {
   const qc = useQueryClient();

@@ -1,10 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { MergeResult } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 import { registryChanged } from '../../../lib/query/registry-changed';
 
 export const mergeDuplicate = ({ candidateId, keep }: { candidateId: number; keep: number }) =>
-  api<{ kept: number; merged: number; moved: Record<string, number> }>(`/api/duplicates/${candidateId}/merge`, { body: { keep } });
+  api<MergeResult>(`/api/duplicates/${candidateId}/merge`, { body: { keep } });
 
 export function useMergeDuplicate() {
   const qc = useQueryClient();

@@ -1,11 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { AttachmentCreated } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
 export const uploadAttachment = ({ id, file }: { id: number; file: File }) => {
   const form = new FormData();
   form.append('file', file);
-  return api<{ id: number; filename: string }>(`/api/references/${id}/attachments`, { body: form });
+  return api<AttachmentCreated>(`/api/references/${id}/attachments`, { body: form });
 };
 
 export function useUploadAttachment() {

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ScreeningDecisionInput } from '../../../../shared/schemas/references';
+import type { ScreeningDecisionInput, ScreeningResult } from '../../../../shared/schemas/references';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
 export const decide = ({ refId, input }: { refId: number; input: ScreeningDecisionInput }) =>
-  api<{ id: number; refId: number; screeningStatus: string }>(`/api/references/${refId}/screening`, { body: input });
+  api<ScreeningResult>(`/api/references/${refId}/screening`, { body: input });
 
 export function useDecide() {
   const qc = useQueryClient();

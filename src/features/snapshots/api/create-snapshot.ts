@@ -1,14 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { SynthesisRequest } from '../../../../shared/schemas/synthesis';
+import type { CreatedSnapshot, SynthesisRequest } from '../../../../shared/schemas/synthesis';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export interface CreatedSnapshot {
-  id: string;
-  url: string;
-  apiUrl: string;
-  registryVersion: number;
-}
+export type { CreatedSnapshot };
 
 export const createSnapshot = (body: SynthesisRequest & { title?: string }) => api<CreatedSnapshot>('/api/snapshots', { body });
 

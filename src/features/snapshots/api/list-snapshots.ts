@@ -1,6 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { SnapshotPage } from '../../../../shared/schemas/synthesis';
 import { api, queryString } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
+
+export type { SnapshotSummary } from '../../../../shared/schemas/synthesis';
 
 export interface SnapshotListQuery {
   page: number;
@@ -10,19 +13,8 @@ export interface SnapshotListQuery {
   mine?: 'true';
 }
 
-export interface SnapshotSummary {
-  id: string;
-  title: string;
-  createdAt: string;
-  createdBy: string | null;
-  metric: string;
-  k: number;
-  estimate: number;
-  registryVersion: number;
-}
-
 export const listSnapshots = (q: SnapshotListQuery) =>
-  api<{ items: SnapshotSummary[]; total: number; page: number; pageSize: number }>(`/api/snapshots${queryString({ ...q })}`);
+  api<SnapshotPage>(`/api/snapshots${queryString({ ...q })}`);
 
 export const snapshotsQueryOptions = (q: SnapshotListQuery) =>
   queryOptions({ queryKey: queryKeys.snapshots.list(q), queryFn: () => listSnapshots(q), placeholderData: keepPreviousData });

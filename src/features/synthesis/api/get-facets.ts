@@ -1,24 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { SynthesisFacets } from '../../../../shared/schemas/synthesis';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export interface Facet {
-  value: string;
-  count: number;
-  label?: string;
-}
-
-export interface SynthesisFacets {
-  effects: number;
-  manipulations: Facet[];
-  outcomes: Facet[];
-  metrics: Facet[];
-  populations: Facet[];
-  modalities: Facet[];
-  tasks: Facet[];
-  designs: Facet[];
-  years: { min: number; max: number } | null;
-}
+export type { Facet, SynthesisFacets } from '../../../../shared/schemas/synthesis';
 
 export const getFacets = () => api<SynthesisFacets>('/api/syntheses/facets');
 

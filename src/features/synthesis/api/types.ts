@@ -1,4 +1,2 @@
-import type { SynthesisOutput } from '../../../../shared/synthesis/types';
-
-/** What POST /api/syntheses answers. */
-export type SynthesisResponse = SynthesisOutput & { registryVersion: number };
+/** What POST /api/syntheses answers (defined once in shared/schemas/synthesis.ts). */
+export type { SynthesisAnswer as SynthesisResponse } from '../../../../shared/schemas/synthesis';

@@ -1,17 +1,11 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ApiTokenList, CreatedToken } from '../../../../shared/schemas/users';
 import { api } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export interface ApiToken {
-  id: number;
-  name: string;
-  prefix: string;
-  createdAt: string;
-  lastUsedAt: string | null;
-  revokedAt: string | null;
-}
+export type { ApiToken } from '../../../../shared/schemas/users';
 
-export const getTokens = () => api<{ items: ApiToken[] }>('/api/tokens');
+export const getTokens = () => api<ApiTokenList>('/api/tokens');
 
 export const tokensQueryOptions = () => queryOptions({ queryKey: queryKeys.tokens.lists(), queryFn: getTokens });
 
@@ -19,7 +13,7 @@ export function useTokens() {
   return useQuery(tokensQueryOptions());
 }
 
-export const createToken = (body: { name: string }) => api<ApiToken & { token: string }>('/api/tokens', { body });
+export const createToken = (body: { name: string }) => api<CreatedToken>('/api/tokens', { body });
 
 export function useCreateToken() {
   const qc = useQueryClient();
