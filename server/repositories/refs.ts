@@ -4,14 +4,7 @@ import { countRows, pageOf, type Db, type PageRequest } from './db.js';
 import type { AttachmentRow, DuplicateCandidateRow, RefRow, ScreeningStatus } from './rows.js';
 
 /** The columns computed from a reference's CSL-JSON (see services/reference-fields.ts). */
-export interface RefColumns {
-  doi: string | null;
-  title: string;
-  year: number | null;
-  first_author: string | null;
-  container: string | null;
-  title_key: string;
-}
+export type RefColumns = Pick<RefRow, 'doi' | 'title' | 'year' | 'first_author' | 'container' | 'title_key'>;
 
 const SUMMARY_COLUMNS = ['id', 'csl', 'title', 'year', 'first_author', 'container', 'doi', 'source', 'screening_status', 'merged_into', 'version', 'created_at', 'updated_at', 'created_by'] as const;
 export type RefSummaryRow = Pick<RefRow, (typeof SUMMARY_COLUMNS)[number]>;

@@ -1,9 +1,7 @@
 import { z } from 'zod';
-import { pageSchema, timestamp } from './common.js';
+import { pageRequestSchema, pageSchema, timestamp } from './common.js';
 
-export const auditQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+export const auditQuerySchema = pageRequestSchema(50).extend({
   entityType: z.string().max(50).optional(),
   entityId: z.string().max(50).optional(),
   action: z.string().max(80).optional(),
@@ -25,17 +23,11 @@ export type AuditPage = z.infer<typeof auditPageSchema>;
 
 export const MAIL_STATUSES = ['queued', 'sent', 'retrying', 'failed'] as const;
 
-export const mailLogQuerySchema = z.object({
+export const mailLogQuerySchema = pageRequestSchema().extend({
   status: z.enum(MAIL_STATUSES).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
   order: z.enum(['asc', 'desc']).default('desc'),
 });
-export const mailboxQuerySchema = z.object({
-  to: z.string().trim().max(200).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
-});
+export const mailboxQuerySchema = pageRequestSchema().extend({ to: z.string().trim().max(200).optional() });
 
 export const mailLogEntrySchema = z.object({
   id: z.number().int(),

@@ -4,12 +4,23 @@ export const idParam = z.coerce.number().int().positive();
 /** `:id` in a path. */
 export const idParamsSchema = z.object({ id: idParam });
 
-export function pagingSchema<const S extends readonly [string, ...string[]]>(sortFields: S, defaultSort: S[number]) {
+/** `page` and `pageSize` of a paged list's query (pages of at most 200). */
+export function pageRequestSchema(defaultPageSize = 25) {
   return z.object({
     page: z.coerce.number().int().min(1).default(1),
-    pageSize: z.coerce.number().int().min(1).max(200).default(25),
+    pageSize: z.coerce.number().int().min(1).max(200).default(defaultPageSize),
+  });
+}
+
+/** A paged list's query sorted on the server: page, pageSize, sort (one of the fields) and order. */
+export function pagingSchema<const S extends readonly [string, ...string[]]>(
+  sortFields: S,
+  defaultSort: S[number],
+  defaults: { order?: 'asc' | 'desc'; pageSize?: number } = {},
+) {
+  return pageRequestSchema(defaults.pageSize).extend({
     sort: z.enum(sortFields).default(defaultSort as never),
-    order: z.enum(['asc', 'desc']).default('asc'),
+    order: z.enum(['asc', 'desc']).default(defaults.order ?? 'asc'),
   });
 }
 

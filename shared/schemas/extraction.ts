@@ -6,7 +6,7 @@ import { POPULATIONS } from '../vocabulary/populations.js';
 import { TASKS } from '../vocabulary/tasks.js';
 import { REPORT_FORMS, REPORTED_KEYS, METRIC_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
 import { METRICS } from '../stats/metrics.js';
-import { pageSchema, timestamp } from './common.js';
+import { pageSchema, pagingSchema, timestamp } from './common.js';
 
 /** Empty form inputs (NaN from valueAsNumber, '' or null) mean "not reported". */
 const blank = (v: unknown) => (v === '' || v === null || (typeof v === 'number' && Number.isNaN(v)) ? undefined : v);
@@ -173,7 +173,8 @@ export function numbersAgree(a: number | null | undefined, b: number | null | un
 
 // ---- answers about coding sheets
 
-const computedSchema = z.object({
+/** What the server computes of an effect from what was reported. */
+export const computedSchema = z.object({
   metric: z.enum(METRICS),
   effect: z.number(),
   variance: z.number(),
@@ -259,12 +260,8 @@ export const submitResultSchema = z.object({
 });
 export type SubmitResult = z.infer<typeof submitResultSchema>;
 
-export const myExtractionsQuerySchema = z.object({
+export const myExtractionsQuerySchema = pagingSchema(['updated', 'reference', 'state'] as const, 'updated', { order: 'desc' }).extend({
   state: z.enum(EXTRACTION_STATES).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
-  sort: z.enum(['updated', 'reference', 'state']).default('updated'),
-  order: z.enum(['asc', 'desc']).default('desc'),
 });
 export type MyExtractionsQuery = z.infer<typeof myExtractionsQuerySchema>;
 
@@ -283,12 +280,8 @@ export type MyExtraction = z.infer<typeof myExtractionSchema>;
 export const myExtractionPageSchema = pageSchema(myExtractionSchema);
 export type MyExtractionPage = z.infer<typeof myExtractionPageSchema>;
 
-export const claimableQuerySchema = z.object({
+export const claimableQuerySchema = pagingSchema(['reference', 'year'] as const, 'reference', { pageSize: 15 }).extend({
   q: z.string().trim().max(200).optional(),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(15),
-  sort: z.enum(['reference', 'year']).default('reference'),
-  order: z.enum(['asc', 'desc']).default('asc'),
 });
 export type ClaimableQuery = z.infer<typeof claimableQuerySchema>;
 

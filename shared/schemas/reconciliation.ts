@@ -1,23 +1,15 @@
 // Double coding: assignments, the reconciliation queue, settled records and inter-coder agreement.
 import { z } from 'zod';
-import { pageSchema, timestamp } from './common.js';
+import { pageSchema, pagingSchema, timestamp } from './common.js';
 import { EXTRACTION_STATES, storedStudySchema } from './extraction.js';
 
 export const ASSIGNMENT_STATES = ['coding', 'matched', 'disputed', 'settled', 'withdrawn'] as const;
 export type AssignmentState = (typeof ASSIGNMENT_STATES)[number];
 
-const paging = (defaultSize: number) => ({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(defaultSize),
-});
-
 // ---- assignments (curators)
 
-export const assignmentListQuerySchema = z.object({
+export const assignmentListQuerySchema = pagingSchema(['id', 'updated', 'reference'] as const, 'updated', { order: 'desc' }).extend({
   state: z.enum(ASSIGNMENT_STATES).optional(),
-  ...paging(25),
-  sort: z.enum(['id', 'updated', 'reference']).default('updated'),
-  order: z.enum(['asc', 'desc']).default('desc'),
 });
 export type AssignmentListQuery = z.infer<typeof assignmentListQuerySchema>;
 
@@ -38,12 +30,9 @@ export type Assignment = z.infer<typeof assignmentSchema>;
 export const assignmentPageSchema = pageSchema(assignmentSchema);
 export type AssignmentPage = z.infer<typeof assignmentPageSchema>;
 
-export const candidateQuerySchema = z.object({
+export const candidateQuerySchema = pagingSchema(['reference', 'year', 'id'] as const, 'reference').extend({
   q: z.string().trim().max(200).optional(),
   status: z.enum(['unassigned', 'any']).default('unassigned'),
-  ...paging(25),
-  sort: z.enum(['reference', 'year', 'id']).default('reference'),
-  order: z.enum(['asc', 'desc']).default('asc'),
 });
 export type CandidateQuery = z.infer<typeof candidateQuerySchema>;
 
@@ -71,11 +60,7 @@ export type CreatedAssignment = z.infer<typeof createdAssignmentSchema>;
 
 // ---- the reconciliation queue
 
-export const reconciliationQuerySchema = z.object({
-  ...paging(25),
-  sort: z.enum(['updated', 'reference', 'open']).default('updated'),
-  order: z.enum(['asc', 'desc']).default('asc'),
-});
+export const reconciliationQuerySchema = pagingSchema(['updated', 'reference', 'open'] as const, 'updated');
 export type ReconciliationQuery = z.infer<typeof reconciliationQuerySchema>;
 
 export const disputedPairSchema = z.object({
@@ -200,11 +185,7 @@ export type WithdrawnRecord = z.infer<typeof withdrawnRecordSchema>;
 
 // ---- agreement between coders
 
-export const agreementQuerySchema = z.object({
-  ...paging(25),
-  sort: z.enum(['reference', 'agreement']).default('agreement'),
-  order: z.enum(['asc', 'desc']).default('asc'),
-});
+export const agreementQuerySchema = pagingSchema(['reference', 'agreement'] as const, 'agreement');
 export type AgreementQuery = z.infer<typeof agreementQuerySchema>;
 
 const effectAgreementSchema = z.object({ metric: z.string(), items: z.number().int(), icc: z.number().nullable() });

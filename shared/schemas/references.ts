@@ -53,9 +53,7 @@ export type ImportResult = z.infer<typeof importResultSchema>;
 export const importPageSchema = pageSchema(importBatchViewSchema);
 export type ImportPage = z.infer<typeof importPageSchema>;
 
-export const importListQuerySchema = pagingSchema(['created_at', 'format', 'total'] as const, 'created_at').extend({
-  order: z.enum(['asc', 'desc']).default('desc'),
-});
+export const importListQuerySchema = pagingSchema(['created_at', 'format', 'total'] as const, 'created_at', { order: 'desc' });
 
 /** Optional paging of a batch's entries (the screen); without it GET /api/imports/:id returns them all. */
 export const importEntriesQuerySchema = z.object({
@@ -131,23 +129,6 @@ export const searchQuerySchema = z.object({
 });
 export type SearchQuery = z.infer<typeof searchQuerySchema>;
 
-export const searchHitSchema = z.object({
-  id: z.number().int(),
-  title: z.string(),
-  year: z.number().int().nullable(),
-  authors: z.array(z.string()),
-  doi: z.string().nullable(),
-  container: z.string().nullable(),
-  screeningStatus: z.string(),
-});
-export type SearchHit = z.infer<typeof searchHitSchema>;
-export const searchResultSchema = z.object({
-  hits: z.array(searchHitSchema),
-  total: z.number().int(),
-  facets: z.object({ screening_status: z.record(z.string(), z.number()), year: z.record(z.string(), z.number()) }),
-  processingTimeMs: z.number().optional(),
-});
-export type SearchResult = z.infer<typeof searchResultSchema>;
 
 export const exportQuerySchema = z.object({
   format: z.enum(['bibtex', 'csl-json']),
@@ -278,3 +259,13 @@ export type DismissResult = z.infer<typeof dismissResultSchema>;
 /** POST /api/references/:id/attachments */
 export const attachmentCreatedSchema = attachmentSchema.omit({ uploadedBy: true });
 export type AttachmentCreated = z.infer<typeof attachmentCreatedSchema>;
+
+export const searchHitSchema = referenceSummarySchema.pick({ id: true, title: true, year: true, authors: true, doi: true, container: true }).extend({ screeningStatus: z.string() });
+export type SearchHit = z.infer<typeof searchHitSchema>;
+export const searchResultSchema = z.object({
+  hits: z.array(searchHitSchema),
+  total: z.number().int(),
+  facets: z.object({ screening_status: z.record(z.string(), z.number()), year: z.record(z.string(), z.number()) }),
+  processingTimeMs: z.number().optional(),
+});
+export type SearchResult = z.infer<typeof searchResultSchema>;

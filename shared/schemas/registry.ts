@@ -2,8 +2,8 @@
 import { z } from 'zod';
 import { METRICS } from '../stats/metrics.js';
 import { REPORT_FORMS } from '../extraction/compute.js';
-import { pageSchema, timestamp } from './common.js';
-import { reportedSchema } from './extraction.js';
+import { pageSchema, pagingSchema, timestamp } from './common.js';
+import { computedSchema, reportedSchema } from './extraction.js';
 
 /** One settled effect with its study and reference (the effects API, snapshots' frozen rows). */
 export const settledEffectRowSchema = z.object({
@@ -18,12 +18,7 @@ export const settledEffectRowSchema = z.object({
   outcome: z.string(),
   manipulation: z.string(),
   manipulationLabel: z.string(),
-  metric: z.enum(METRICS),
-  effect: z.number(),
-  variance: z.number(),
-  formula: z.string(),
-  assumedR: z.number().nullable(),
-  n: z.number().int().nullable(),
+  ...computedSchema.shape,
   design: z.string().nullable(),
   population: z.string().nullable(),
   diagnosis: z.string().nullable(),
@@ -72,12 +67,8 @@ export type WithdrawnEffect = z.infer<typeof withdrawnEffectSchema>;
 
 // ---- the manipulation vocabulary
 
-export const manipulationListQuerySchema = z.object({
+export const manipulationListQuerySchema = pagingSchema(['term', 'label', 'effects'] as const, 'label', { pageSize: 100 }).extend({
   includeRetired: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
-  sort: z.enum(['term', 'label', 'effects']).default('label'),
-  order: z.enum(['asc', 'desc']).default('asc'),
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(100),
 });
 export type ManipulationListQuery = z.infer<typeof manipulationListQuerySchema>;
 

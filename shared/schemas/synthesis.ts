@@ -4,7 +4,7 @@ import { METRICS } from '../stats/metrics.js';
 import type { PoolResult } from '../stats/types.js';
 import type { PrismaCounts } from '../synthesis/methods.js';
 import type { Caution, PlotFigure, SynthesisOutput } from '../synthesis/types.js';
-import { pageSchema, timestamp } from './common.js';
+import { pageSchema, pagingSchema, timestamp } from './common.js';
 import { settledEffectRowSchema } from './registry.js';
 
 const term = z.string().trim().min(1).max(120);
@@ -74,11 +74,7 @@ export const METHOD_LABELS: Record<(typeof METHODS)[number], string> = {
 
 export const snapshotIdSchema = z.object({ id: z.string().regex(/^[a-z0-9]{10,32}$/, 'not a snapshot id') });
 
-export const snapshotListQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
-  sort: z.enum(['created_at', 'k', 'estimate', 'title']).default('created_at'),
-  order: z.enum(['asc', 'desc']).default('desc'),
+export const snapshotListQuerySchema = pagingSchema(['created_at', 'k', 'estimate', 'title'] as const, 'created_at', { order: 'desc' }).extend({
   mine: z.enum(['true', 'false']).optional(),
 });
 
@@ -157,12 +153,7 @@ export const atlasOutcomeSchema = z.object({
 });
 export type AtlasOutcome = z.infer<typeof atlasOutcomeSchema>;
 
-export const atlasReferencesQuerySchema = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(1).max(200).default(25),
-  sort: z.enum(['year', 'label', 'title', 'effects']).default('year'),
-  order: z.enum(['asc', 'desc']).default('asc'),
-});
+export const atlasReferencesQuerySchema = pagingSchema(['year', 'label', 'title', 'effects'] as const, 'year');
 export type AtlasReferencesQuery = z.infer<typeof atlasReferencesQuerySchema>;
 
 export const atlasReferenceSchema = z.object({
