@@ -8,18 +8,8 @@ import { spawnSync } from 'node:child_process';
 import { bootstrapFit, fitPsychometric, type PsychometricInput } from '../../shared/psychophysics/index.js';
 import { createFitPool, type BootstrapTask } from '../../server/psychophysics/fit-pool.js';
 import { normalTwoTailed } from '../../shared/stats/normal.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-const gauss = (rnd: () => number) => Math.sqrt(-2 * Math.log(rnd() || 1e-12)) * Math.cos(2 * Math.PI * rnd());
 const phi = (z: number) => (z < 0 ? 0.5 * normalTwoTailed(z) : 1 - 0.5 * normalTwoTailed(z));
 
 const SOAS = [-240, -180, -120, -60, 0, 60, 120, 180, 240];
@@ -28,9 +18,10 @@ const TRIALS = 40;
 /** Invented order-task counts: per participant a PSS and σ, shifted by 25 ms in the second condition. */
 function participants(count: number, seed: number): PsychometricInput[] {
   const rnd = mulberry32(seed);
+  const z = gaussian(rnd);
   const out: PsychometricInput[] = [];
   for (let p = 0; p < count; p++) {
-    const pss = 20 + 30 * gauss(rnd);
+    const pss = 20 + 30 * z();
     const sigma = 60 + 40 * rnd();
     for (const shift of [0, 25]) {
       const k = SOAS.map((x) => {

@@ -1,5 +1,5 @@
 // Invented, seeded trial counts for the psychophysics reference checks (mulberry32 streams, Bernoulli sums).
-import { mulberry32 } from './seeded-data.js';
+import { mulberry32 } from '../support/random.js';
 import { normalTwoTailed } from '../../shared/stats/normal.js';
 
 export interface CountsSet {

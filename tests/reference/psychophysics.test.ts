@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { bootstrapFit, fitPsychometric, fitSimultaneity, type PsychometricFit, type SimultaneityFit } from '../../shared/psychophysics/index.js';
 import { glmSets, lapseSets, psychometricSet, range, simultaneitySets } from './psychophysics-data.js';
 import { relErr, runReference } from './python-reference.js';
-import { mulberry32 } from './seeded-data.js';
+import { mulberry32 } from '../support/random.js';
 import { upperTail } from '../../shared/psychophysics/normal-tail.js';
 
 // The issue asks for 1e-6 relative; both sides reach the optimum to near machine precision, so the checks are tighter.

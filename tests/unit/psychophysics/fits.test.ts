@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { fitPsychometric, fitSimultaneity, PsychophysicsInputError, type PsychometricFit, type SimultaneityFit } from '../../../shared/psychophysics/index.js';
 import { normalTwoTailed } from '../../../shared/stats/normal.js';
-import { mulberry32 } from '../../reference/seeded-data.js';
+import { mulberry32 } from '../../support/random.js';
 
 const PSYCHOMETRIC_FIELDS = ['model', 'pse', 'se_pse', 'spread', 'se_spread', 'jnd', 'lapse', 'deviance', 'df', 'loglik', 'converged', 'iterations'];
 const SIMULTANEITY_FIELDS = ['centre', 'se_centre', 'width', 'se_width', 'amplitude', 'sigma', 'deviance', 'df', 'loglik', 'converged'];
