@@ -1,16 +1,5 @@
-import { ESLint } from 'eslint';
-import { beforeAll, describe, expect, it } from 'vitest';
-
-/** The lint zones of eslint.config.js, run on probe files at the paths they would have. */
-let eslint: ESLint;
-beforeAll(() => {
-  eslint = new ESLint();
-});
-
-async function restricted(filePath: string, source: string): Promise<string[]> {
-  const [result] = await eslint.lintText(`${source}\nexport const probe = 1;\n`, { filePath });
-  return result.messages.filter((m) => m.ruleId === 'no-restricted-imports').map((m) => m.message);
-}
+import { describe, expect, it } from 'vitest';
+import { lintProbe as restricted } from '../../support/lint';
 
 describe('lint: a feature never imports another feature', () => {
   it.each([

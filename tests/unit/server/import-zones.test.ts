@@ -1,16 +1,5 @@
-import { ESLint } from 'eslint';
-import { beforeAll, describe, expect, it } from 'vitest';
-
-/** The server and shared lint zones of eslint.config.js, run on probe files at the paths they would have. */
-let eslint: ESLint;
-beforeAll(() => {
-  eslint = new ESLint();
-});
-
-async function restricted(filePath: string, source: string): Promise<string[]> {
-  const [result] = await eslint.lintText(`${source}\nexport const probe = 1;\n`, { filePath });
-  return result.messages.filter((m) => m.ruleId === 'no-restricted-imports').map((m) => m.message);
-}
+import { describe, expect, it } from 'vitest';
+import { lintProbe as restricted } from '../../support/lint.js';
 
 describe('lint: the house lines', () => {
   it.each([
@@ -49,7 +38,6 @@ describe('lint: no explicit any on the server', () => {
     ['server/repositories/probe.ts', true],
     ['src/lib/probe.ts', false],
   ])('%s: refused = %s', async (filePath, refused) => {
-    const [result] = await eslint.lintText('export const loose = (x: any) => x;\n', { filePath });
-    expect(result.messages.some((m) => m.ruleId === '@typescript-eslint/no-explicit-any')).toBe(refused);
+    expect((await restricted(filePath, 'export const loose = (x: any) => x;', '@typescript-eslint/no-explicit-any')).length > 0).toBe(refused);
   });
 });
