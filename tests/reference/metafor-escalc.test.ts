@@ -3,7 +3,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { computeEffect } from '../../shared/stats/index.js';
 import { Agreement, CLOSED, report, rVector, runRSource } from './r-reference.js';
-import { gaussian, mulberry32 } from './seeded-data.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 
 type Col = number[];
 interface Escalc { yi: Col; vi: Col }

@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { metaRegression, pool, subgroups, type Method } from '../../shared/stats/index.js';
 import type { ModeratorColumn } from '../../shared/stats/index.js';
 import { Agreement, CLOSED, ITERATIVE, report, rStrings, rVector, runRSource } from './r-reference.js';
-import { mulberry32, gaussian } from './seeded-data.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 
 const METHODS = ['FE', 'DL', 'REML', 'PM'] as const;
 const TESTS = ['z', 'knha'] as const;

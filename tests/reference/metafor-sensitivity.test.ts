@@ -5,7 +5,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { begg, cumulative, leaveOneOut, trimFill, type Method } from '../../shared/stats/index.js';
 import { Agreement, CLOSED, ITERATIVE, report, rVector, runRSource } from './r-reference.js';
-import { gaussian, mulberry32 } from './seeded-data.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 
 const METHODS = ['FE', 'DL', 'REML', 'PM'] as const;
 const tolerance = (m: Method) => (m === 'FE' || m === 'DL' ? CLOSED : ITERATIVE);

@@ -1,5 +1,5 @@
 import { smdIndependent, smdPaired, smdPairedSds, dzFromDifferences } from '../../shared/stats/index.js';
-import { gaussian, mulberry32 } from './seeded-data.js';
+import { gaussian, mulberry32 } from '../support/random.js';
 
 export interface VarianceCheck {
   /** borenstein_4_28: g_rm's estimates with the variance of Borenstein et al. (2009) eq. 4.28 that the engine no longer uses */

@@ -1,6 +1,9 @@
 /** Seeded data sets for the reference comparisons (the seeds are fixed, so every run sees the same numbers). */
 import { mulberry32, randomEffects } from '../support/random.js';
 
+// The generator itself is tests/support/random.ts; re-exported for callers that still import it from here.
+export { gaussian, mulberry32 } from '../support/random.js';
+
 export interface DataSet {
   name: string;
   effects: number[];

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { lintProbe as restricted } from '../../support/lint.js';
 
-describe('lint: the house lines', () => {
+describe('lint: the house lines (and shared/stats without zod)', () => {
   it.each([
     ['server/routes/probe.ts', "import { findRef } from '../repositories/refs.js';", /Routes call services/],
     ['server/routes/probe.ts', "import { createDb } from '../db/knex.js';", /Routes call services/],
@@ -13,6 +13,8 @@ describe('lint: the house lines', () => {
     ['server/app.ts', "import { startFakes } from './fakes/run.js';", /only through configuration/],
     ['shared/schemas/probe.ts', "import type { Db } from '../../server/repositories/db.js';", /imports nothing from server/],
     ['shared/stats/probe.ts', "import { api } from '../../src/lib/api-client';", /imports nothing from server/],
+    ['shared/stats/probe.ts', "import { z } from 'zod';", /validates with plain code/],
+    ['shared/stats/probe.ts', "import { z } from 'zod/v4';", /validates with plain code/],
   ])('refuses %s: %s', async (file, source, message) => {
     const messages = await restricted(file, source);
     expect(messages.length).toBeGreaterThan(0);
@@ -27,6 +29,7 @@ describe('lint: the house lines', () => {
     ['server/fakes/probe.ts', "import { startSearchIndex } from './search-index/http.js';"],
     ['tests/api/probe.test.ts', "import { startFakes } from '../../server/fakes/run.js';"],
     ['shared/schemas/probe.ts', "import { METRICS } from '../stats/metrics.js';"],
+    ['shared/schemas/probe.ts', "import { z } from 'zod';"],
   ])('allows %s: %s', async (file, source) => {
     expect(await restricted(file, source)).toEqual([]);
   });
