@@ -14,7 +14,7 @@ export const specs: Spec[] = [
       await page.getByLabel('Outcome kind').selectOption('duration_distortion');
       await page.getByLabel('Metric').selectOption('hedges_g');
       await page.getByRole('button', { name: 'Run synthesis' }).click();
-      await page.locator(forestSvg).first().waitFor();
+      await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
       // one square per study in the drawn SVG
       const rows = await page.getByRole('table', { name: /one row per study/i }).locator('tbody tr').count();
       assert.ok(rows >= 3, `expected at least 3 studies, saw ${rows}`);
@@ -32,7 +32,7 @@ export const specs: Spec[] = [
       await signOut(page);
       await page.goto(appUrl(href));
       await page.getByRole('heading', { name: 'Luminance and duration, browser check' }).waitFor();
-      await page.locator(forestSvg).first().waitFor();
+      await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
       assert.equal(await page.getByTestId('pooled-estimate').textContent(), estimate);
       assert.equal(await page.getByRole('link', { name: /BibTeX/ }).count(), 1);
       assert.equal(await page.getByRole('button', { name: 'Save snapshot' }).count(), 0);
@@ -47,15 +47,15 @@ export const specs: Spec[] = [
       await page.goto(appUrl('/atlas'));
       await page.getByRole('link', { name: 'Numerosity' }).click();
       await page.getByRole('heading', { name: 'Numerosity', level: 1 }).waitFor();
-      await page.locator(forestSvg).first().waitFor();
+      await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
       await page.getByRole('link', { name: 'Open as a synthesis →' }).first().click();
-      await page.locator(forestSvg).first().waitFor();
+      await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
       await page.getByText(/Sign in.*as a reviewer to freeze/).waitFor();
       assert.equal(await page.getByRole('button', { name: 'Save snapshot' }).count(), 0);
       // the funnel plot's trim-and-fill points appear on request
       const box = page.getByLabel(/Show the studies trim-and-fill imputes/);
       if (await box.isEnabled()) await box.check();
-      await page.locator('figure[aria-label="Funnel plot"] svg.main-svg').first().waitFor();
+      await page.locator('figure[aria-label="Funnel plot"] svg.main-svg').first().waitFor({ timeout: 40_000 });
     },
   },
 ];
