@@ -3,7 +3,8 @@
 # projects `unit` (statistics and reference checks) and `api` (routes against PostgreSQL and the stand-ins), then
 # the browser tests against the built client and seeded demo data.
 # `npm test -- <vitest args>` runs only the matching vitest files; when they are all unit or reference files
-# (or `--project unit`), no PostgreSQL is started.
+# (or `--project unit`), no PostgreSQL is started. `E2E_ONLY=<part of a spec file name> npm test` runs only the
+# matching browser specs (no vitest).
 set -uo pipefail
 cd "$(dirname "$0")/.."
 source scripts/pg.sh
@@ -47,11 +48,14 @@ export DB_NAME=chronometa_test
 source scripts/local-env.sh
 export NODE_ENV=test UPLOAD_DIR="$RESULTS_DIR/uploads" AUTH_RATE_LIMIT_PER_MINUTE=100000 COMPUTE_RATE_LIMIT_PER_MINUTE=100000
 
+v_pass=0; v_fail=0; vitest_rc=0
+if [ -z "${E2E_ONLY:-}" ]; then
 node_modules/.bin/vitest run --reporter=default --reporter=json --outputFile="$RESULTS_DIR/vitest.json" "$@"
 vitest_rc=$?
 read -r v_pass v_fail < <(node -e '
   try { const r = require(process.argv[1]); console.log(r.numPassedTests, r.numFailedTests + (r.numTotalTestSuites && r.success === false && r.numFailedTests === 0 ? 1 : 0)); }
   catch { console.log(0, 1); }' "$PWD/$RESULTS_DIR/vitest.json")
+fi
 
 e2e_pass=0; e2e_fail=0; e2e_rc=0
 if [ $# -eq 0 ]; then
