@@ -45,6 +45,8 @@ export async function createManipulation(db: Knex, actorId: number, input: { ter
     if (exists) throw new ConflictError(`The term "${input.term}" is already in the vocabulary.`);
     const row = await insertManipulation(trx, { ...input, updated_by: actorId });
     await recordAudit(trx, { actorId, action: 'manipulation.create', entityType: 'manipulation', entityId: row.id, details: input });
+    // The atlas lists every live term, with or without effects.
+    await bumpRegistry(trx, { kind: 'manipulation.create', actorId, details: { term: input.term } });
     return { manipulation: toManipulation(row) };
   });
 }
@@ -59,8 +61,10 @@ export async function updateManipulation(db: Knex, actorId: number, term: string
     }
     const updated = await updateManipulationRow(trx, row, { label: input.label, description: input.description, retired: input.retired, actorId });
     await recordAudit(trx, { actorId, action: 'manipulation.update', entityType: 'manipulation', entityId: row.id, details: { term, ...input } });
-    // The label travels with settled effects in analyses and exports.
-    if (input.label !== undefined && input.label !== row.label) await bumpRegistry(trx, { kind: 'manipulation.relabel', actorId, details: { term } });
+    // The label travels with settled effects in analyses and exports; the atlas shows label, description and live terms.
+    const was = { label: row.label, description: row.description, retired: row.retired_at != null };
+    const changed = (['label', 'description', 'retired'] as const).filter((k) => input[k] !== undefined && input[k] !== was[k]);
+    if (changed.length) await bumpRegistry(trx, { kind: changed.includes('label') ? 'manipulation.relabel' : 'manipulation.edit', actorId, details: { term, changed } });
     return { manipulation: toManipulation(updated) };
   });
 }

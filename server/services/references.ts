@@ -6,6 +6,7 @@ import type {
 import { toBibtex } from '../adapters/citations.js';
 import { ConflictError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
+import { bumpRegistry } from '../repositories/registry-version.js';
 import { iso, isoOrNull, type Db } from '../repositories/db.js';
 import { importsOfRef } from '../repositories/imports.js';
 import {
@@ -174,6 +175,8 @@ export async function editReference(db: Knex, id: number, edit: ReferenceEdit, a
     const likely = await findDuplicate(trx, cols);
     if (likely.likely && likely.likely !== id) await offerDuplicate(trx, likely.likely, id, 'same title, year and first author');
     await recordAudit(trx, { actorId, action: 'reference.edit', entityType: 'reference', entityId: id, details: { changed, version: r.version + 1 } });
+    // Year, authors and title are filters and labels of settled effects.
+    await bumpRegistry(trx, { kind: 'reference.edit', referenceId: id, actorId, details: { changed: Object.keys(changed) } });
     return { id, version: r.version + 1, changed: Object.keys(changed) };
   });
 }
@@ -254,6 +257,7 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
       entityId: survivor.id,
       details: { kept: survivor.id, merged: loser.id, candidate: input.candidateId ?? null, moved, mergedTitle: loser.title, mergedDoi: loser.doi },
     });
+    await bumpRegistry(trx, { kind: 'reference.merge', referenceId: survivor.id, actorId: input.actorId, details: { merged: loser.id } });
     return { kept: survivor.id, merged: loser.id, moved };
   });
 }

@@ -1,10 +1,9 @@
 import type { Knex } from 'knex';
-import { latestRegistryChange } from '../repositories/registry-version.js';
+import { readRegistryVersion } from '../repositories/registry-version.js';
 
 /**
  * Serialized answers keyed by registry version: every settled change bumps the version and so retires
- * the whole cache. The key is the newest change's id and time (not the id alone), so a test database that
- * was truncated and refilled to the same id is not mistaken for the old one.
+ * the whole cache. The key is the version's stamp (its id and time).
  */
 export class RegistryCache {
   private key = '';
@@ -23,8 +22,8 @@ export class RegistryCache {
    * many requests, and a lone request still reads the version itself.
    */
   versionKey(db: Knex): Promise<string> {
-    this.inflight ??= latestRegistryChange(db)
-      .then((row) => (row ? `${row.id}@${new Date(row.at).getTime()}` : '0'))
+    this.inflight ??= readRegistryVersion(db)
+      .then((v) => v.stamp)
       .finally(() => {
         this.inflight = null;
       });

@@ -1,11 +1,12 @@
 import type { Knex } from 'knex';
 import type { SettledEffectFilters } from '../repositories/effects.js';
-import { currentRegistryVersion } from '../repositories/registry-version.js';
+import { currentRegistryVersion, readRegistryVersion } from '../repositories/registry-version.js';
 import { querySynthesisRows } from '../repositories/effects.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 
 interface Loaded {
   version: number;
+  stamp: string;
   effects: SettledEffect[];
   /** the same effects by manipulation term, each list in id order */
   byManipulation: Map<string, SettledEffect[]>;
@@ -23,7 +24,7 @@ function indexByManipulation(effects: SettledEffect[]) {
 
 interface Slot {
   loaded?: Loaded;
-  loading?: { version: number; promise: Promise<Loaded> };
+  loading?: { stamp: string; promise: Promise<Loaded> };
 }
 
 const slots = new WeakMap<Knex, Slot>();
@@ -36,15 +37,15 @@ const slots = new WeakMap<Knex, Slot>();
 export async function settledEffectsAt(db: Knex): Promise<Loaded> {
   let slot = slots.get(db);
   if (!slot) slots.set(db, (slot = {}));
-  const version = await currentRegistryVersion(db);
-  if (slot.loaded?.version === version) return slot.loaded;
-  if (slot.loading?.version !== version) {
+  const { version, stamp } = await readRegistryVersion(db);
+  if (slot.loaded?.stamp === stamp) return slot.loaded;
+  if (slot.loading?.stamp !== stamp) {
     const promise = querySynthesisRows(db, {}).then((effects) => {
-      const loaded = { version, effects, byManipulation: indexByManipulation(effects) };
+      const loaded = { version, stamp, effects, byManipulation: indexByManipulation(effects) };
       if (!slot.loaded || slot.loaded.version <= version) slot.loaded = loaded;
       return loaded;
     });
-    slot.loading = { version, promise };
+    slot.loading = { stamp, promise };
     promise.finally(() => {
       if (slot.loading?.promise === promise) slot.loading = undefined;
     }).catch(() => undefined);
