@@ -1,6 +1,6 @@
 import pg from 'pg';
 import type { Env } from './env.js';
-import { createDb } from './db/knex.js';
+import { CONNECT_TIMEOUT_MS, createDb } from './db/knex.js';
 import { createDoiResolver } from './adapters/citations.js';
 import { JobQueue } from './adapters/jobs.js';
 import { createMailer } from './adapters/mail.js';
@@ -14,12 +14,19 @@ export interface AppContext extends Deps {
   sessionPool: pg.Pool;
 }
 
+/** The session store's connections; an idle connection dropped by a PostgreSQL restart is logged and replaced. */
+function createSessionPool(connectionString: string): pg.Pool {
+  const pool = new pg.Pool({ connectionString, max: 4, connectionTimeoutMillis: CONNECT_TIMEOUT_MS });
+  pool.on('error', (err) => console.error('[sessions] idle connection lost:', err.message));
+  return pool;
+}
+
 export function createContext(env: Env): AppContext {
   return {
     env,
     db: createDb(env.DATABASE_URL),
     jobs: env.JOBS_ENABLED === 'true' ? new JobQueue(env.DATABASE_URL) : null,
-    sessionPool: new pg.Pool({ connectionString: env.DATABASE_URL, max: 4 }),
+    sessionPool: createSessionPool(env.DATABASE_URL),
     search: createSearchIndex(env.MEILI_HOST, env.MEILI_API_KEY),
     mailer: createMailer(env),
     doi: createDoiResolver({ baseUrl: env.DOI_RESOLVER_URL, timeoutMs: env.DOI_TIMEOUT_MS }),

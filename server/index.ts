@@ -3,6 +3,9 @@ import { closeContext, createContext } from './context.js';
 import { readEnv } from './env.js';
 import { startWorkers } from './workers.js';
 
+// A promise nobody awaited (a fire-and-forget write during a database restart) is logged, not fatal.
+process.on('unhandledRejection', (reason) => console.error('[unhandled rejection]', reason));
+
 let env;
 try {
   env = readEnv();

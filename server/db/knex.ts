@@ -11,8 +11,18 @@ const afterCreate = (conn: pg.Client, done: (err: Error | null, conn: pg.Client)
   conn.query('SET random_page_cost = 1.1', (err) => done(err ?? null, conn));
 };
 
+/** A refused or hung connection fails within this many milliseconds (the request then answers 503). */
+export const CONNECT_TIMEOUT_MS = 5000;
+
 export function createDb(connectionString: string, pool: Knex.PoolConfig = { min: 0, max: 10 }): Knex {
-  return knexFactory({ client: 'pg', connection: connectionString, pool: { afterCreate, ...pool } });
+  // knex marks a connection that reports an error (a PostgreSQL restart ends every connection) as disposed and
+  // replaces it; a failed connect is passed to the waiting query at once instead of being retried for a minute.
+  return knexFactory({
+    client: 'pg',
+    connection: { connectionString, connectionTimeoutMillis: CONNECT_TIMEOUT_MS },
+    acquireConnectionTimeout: 2 * CONNECT_TIMEOUT_MS,
+    pool: { afterCreate, propagateCreateError: true, ...pool },
+  });
 }
 
 export const migrationConfig: Knex.MigratorConfig = {

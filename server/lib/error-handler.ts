@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ApiError } from '../../shared/schemas/common.js';
 import { AppError } from './errors.js';
+import { isDatabaseUnavailable } from './db-unavailable.js';
 
 const refusal = (code: string, message: string, details?: unknown): ApiError => ({ error: { code, message, ...(details !== undefined ? { details } : {}) } });
 
@@ -24,6 +25,11 @@ export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
             ? 'The request body is too large.'
             : String(err.message || 'Bad request.');
       res.status(status).json(refusal(err.code && typeof err.code === 'string' ? err.code.toLowerCase() : 'bad_request', message));
+      return;
+    }
+    if (isDatabaseUnavailable(err)) {
+      console.error('[db unavailable]', String(err?.message ?? err));
+      res.status(503).set('Retry-After', '2').json(refusal('unavailable', 'The database cannot be reached just now. Try again in a few seconds.'));
       return;
     }
     console.error(err);

@@ -38,7 +38,7 @@ export function anonymous(app: TestApp['app']) {
 }
 
 /** Signs in through the whole OAuth round trip against the local provider and returns a cookie-carrying agent. */
-export async function signIn(app: TestApp['app'], login: string) {
+export async function signIn(app: TestApp['app'] | string, login: string) {
   const agent = request.agent(app);
   const start = await agent.get('/auth/github');
   if (start.status !== 302) throw new Error(`/auth/github answered ${start.status}`);
