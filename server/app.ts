@@ -30,6 +30,7 @@ import { reconciliationRouter } from './routes/reconciliation.js';
 import { agreementRouter } from './routes/agreement.js';
 import { mailboxRouter } from './routes/mailbox.js';
 import { computeRouter } from './routes/compute.js';
+import { trialsRouter } from './routes/trials.js';
 
 
 /** Builds the Express app without listening, so tests can mount it with supertest. */
@@ -133,4 +134,5 @@ const apiRouters: MountRouter[] = [
   reconciliationRouter,
   agreementRouter,
   mailboxRouter,
+  trialsRouter,
 ];

@@ -1,6 +1,7 @@
 import type { AppContext } from './context.js';
 import { registerMailWorkers } from './services/mail-delivery.js';
 import { registerReferenceWorkers } from './services/reference-workers.js';
+import { registerTrialWorkers } from './services/trials.js';
 
 /** Starts this process's background work: the job queue and each feature's workers (add a feature's here). */
 export async function startWorkers(ctx: AppContext): Promise<void> {
@@ -9,4 +10,5 @@ export async function startWorkers(ctx: AppContext): Promise<void> {
   const deps = { ...ctx, jobs: ctx.jobs };
   await registerReferenceWorkers(deps);
   await registerMailWorkers(deps);
+  await registerTrialWorkers(deps);
 }

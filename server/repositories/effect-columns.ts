@@ -2,12 +2,13 @@
 import type { EffectSheet } from '../../shared/schemas/extraction.js';
 import type { ComputedEffect, Reported } from '../../shared/extraction/compute.js';
 import type { StoredEffect } from '../../shared/extraction/stored-sheet.js';
+import type { Derivation } from '../../shared/schemas/trials.js';
 import type { EffectRow } from './rows.js';
 
 export type EffectColumns = Pick<
   EffectRow,
-  'label' | 'outcome' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'page' | 'locator' | 'quote'
-> & { reported: string };
+  'label' | 'outcome' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'page' | 'locator' | 'quote' | 'trial_set_id'
+> & { reported: string; derivation: string | null };
 
 /**
  * The columns of one coded effect. `computed` is the server's own computation from what was reported (null when
@@ -29,6 +30,8 @@ export function effectColumns(e: EffectSheet, manipulationId: number | null, com
     page: e.page ?? keep?.page ?? null,
     locator: e.locator ?? keep?.locator ?? null,
     quote: e.quote ?? keep?.quote ?? null,
+    derivation: e.derivation ? JSON.stringify(e.derivation) : null,
+    trial_set_id: e.derivation?.trialSetId ?? null,
   };
 }
 
@@ -50,6 +53,7 @@ export function storedEffect(f: EffectRow & { term: string | null }): StoredEffe
     quote: u(f.quote),
     version: f.version,
     withdrawnReason: f.withdrawn_at ? (f.withdrawn_reason ?? 'withdrawn') : null,
+    derivation: f.derivation ? (f.derivation as unknown as Derivation) : undefined,
     computed:
       f.effect == null
         ? null

@@ -216,6 +216,8 @@ export interface EffectRow {
   updated_by: number | null;
   withdrawn_at: Timestamp | null;
   withdrawn_reason: string | null;
+  derivation: Json | null;
+  trial_set_id: number | null;
   created_at: Timestamp;
   updated_at: Timestamp;
 }
@@ -283,4 +285,51 @@ export interface SnapshotRow {
   references: unknown;
   prisma: unknown;
   software: string;
+}
+
+export interface TrialSetRow {
+  id: number;
+  extraction_id: number;
+  label: string;
+  task: 'order' | 'duration' | 'simultaneity';
+  model: 'cumulative_gaussian' | 'logistic';
+  modality: Modality;
+  format: 'trials' | 'counts';
+  file_name: string;
+  row_count: number;
+  trial_count: number;
+  participant_count: number;
+  conditions: string[];
+  level_min: number;
+  level_max: number;
+  uploaded_by: number | null;
+  fit_state: 'none' | 'queued' | 'running' | 'done' | 'failed';
+  fit_done: number;
+  fit_total: number;
+  fit_resamples: number | null;
+  fit_error: string | null;
+  fit_job_id: string | null;
+  fitted_at: Timestamp | null;
+  created_at: Timestamp;
+}
+
+export interface TrialDataRow {
+  id: number;
+  trial_set_id: number;
+  line: number;
+  participant: string;
+  condition: string;
+  level: number;
+  n: number;
+  k: number;
+}
+
+export interface TrialFitRow {
+  id: number;
+  trial_set_id: number;
+  position: number;
+  participant: string;
+  condition: string;
+  converged: boolean;
+  result: Json;
 }

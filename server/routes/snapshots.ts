@@ -4,6 +4,7 @@ import { parseInput } from '../lib/validate.js';
 import { requireRole } from '../auth/require-role.js';
 import { UnauthorizedError } from '../lib/errors.js';
 import { snapshotCreateSchema, snapshotIdSchema, snapshotListQuerySchema } from '../../shared/schemas/synthesis.js';
+import { snapshotTrialsCsv } from '../services/trials.js';
 import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
 
 /** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
@@ -41,6 +42,12 @@ export function snapshotsRouter(ctx: AppContext) {
   router.get('/snapshots/:id/export.json', async (req, res) => {
     const s = await load(req.params);
     res.set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.json`)).json(snapshotView(s, origin));
+  });
+
+  router.get('/snapshots/:id/trials.csv', async (req, res) => {
+    const s = await load(req.params);
+    const csv = await snapshotTrialsCsv(ctx.db, s.effects.map((e) => e.id));
+    res.type('text/csv; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}-trials.csv`)).send(csv);
   });
 
   router.get('/snapshots/:id/references.bib', async (req, res) => {

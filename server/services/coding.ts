@@ -23,6 +23,7 @@ import { staleEdit } from './edit-conflicts.js';
 import { disputedMail, settledMail } from './extraction-mails.js';
 import { queueMails, type OutgoingMail } from './mail.js';
 import { createSettledRecord, parseCompleteSheet, saveSheet, stableStudyIds } from './settlement.js';
+import { refreshDerivations } from './trials.js';
 
 export interface Actor {
   id: number;
@@ -115,7 +116,9 @@ export async function saveDraft(db: Knex, actor: Actor, id: number, input: { ver
     const x = await lockEditable(trx, actor, id, input.version);
     // A reopened record keeps its studies' identities by position; new studies get new ones.
     const studyIds = x.kind === 'settled' ? await stableStudyIds(trx, x.reference_id, input.sheet.studies.length, await studyIdsOf(trx, id)) : undefined;
-    await saveSheet(trx, id, input.sheet, { studyIds, actorId: actor.id });
+    // A coder's effects from trial data take their numbers from the fits on this sheet.
+    const sheet = x.kind === 'coding' ? await refreshDerivations(trx, id, input.sheet) : input.sheet;
+    await saveSheet(trx, id, sheet, { studyIds, actorId: actor.id });
     const row = await updateExtraction(trx, id, { version: x.version + 1, notes: input.sheet.notes ?? '', updated_by: actor.id });
     await recordAudit(trx, {
       actorId: actor.id, action: 'extraction.save', entityType: 'extraction', entityId: id,

@@ -27,6 +27,7 @@ export function toSheet(studies: StoredStudy[], notes = ''): Sheet {
         page: e.page,
         locator: e.locator,
         quote: e.quote,
+        derivation: e.derivation,
       })),
     })),
   };

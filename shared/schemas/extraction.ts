@@ -7,6 +7,7 @@ import { TASKS } from '../vocabulary/tasks.js';
 import { REPORT_FORMS, REPORTED_KEYS, METRIC_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
 import { METRICS } from '../stats/metrics.js';
 import { pageSchema, pagingSchema, timestamp } from './common.js';
+import { derivationSchema } from './trials.js';
 
 /** Empty form inputs (NaN from valueAsNumber, '' or null) mean "not reported". */
 const blank = (v: unknown) => (v === '' || v === null || (typeof v === 'number' && Number.isNaN(v)) ? undefined : v);
@@ -36,6 +37,8 @@ export const effectDraftSchema = z.object({
   page: optText(40),
   locator: optText(120),
   quote: optText(600),
+  /** set when the effect was derived from trial data (the server refreshes its numbers from the fits) */
+  derivation: derivationSchema.optional(),
 });
 
 export const studyDraftSchema = z.object({
@@ -198,6 +201,7 @@ export const storedEffectSchema = z.object({
   version: z.number().int(),
   /** set when a curator withdrew this settled effect */
   withdrawnReason: z.string().nullable().optional(),
+  derivation: derivationSchema.optional(),
   computed: computedSchema.nullable(),
 });
 export type StoredEffect = z.infer<typeof storedEffectSchema>;

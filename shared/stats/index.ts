@@ -59,3 +59,4 @@ export { robustPool } from './robust-variance.js';
 export type { MultilevelInput, MultilevelTest, ClusterId } from './multilevel-input.js';
 export type { MultilevelResult, MultilevelCoefficient } from './multilevel-pool.js';
 export type { RobustInput, RobustResult, RobustCoefficient } from './robust-variance.js';
+export { pairedSummary } from './paired-summary.js';
