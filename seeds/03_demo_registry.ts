@@ -261,4 +261,19 @@ export async function seed(knex: Knex): Promise<void> {
       await seedPair(knex, ref.id, partial, { notes: '', studies: [] }, who, 'coding');
     }
   }
+  // Included papers nobody codes yet: contributors claim them from My coding, curators pair them.
+  for (const [i, w] of WAITING.entries()) {
+    const ref = await createReference(
+      knex,
+      { type: 'article-journal', title: w.title, DOI: `10.5555/chrono.demo.waiting.${i + 1}`, 'container-title': 'Journal of Invented Psychophysics', issued: { 'date-parts': [[w.year]] }, author: [{ family: w.family, given: w.given }] } as any,
+      { source: 'seed', createdBy: curator },
+    );
+    if (ref.created) await decide(knex, ref.id, { decision: 'included' }, curator);
+  }
 }
+
+const WAITING = [
+  { title: 'Flicker rate and the reproduction of half-second intervals', family: 'Aaltonen', given: 'Riikka', year: 2021 },
+  { title: 'Looming sounds and judged duration in older adults', family: 'Abernathy', given: 'Cole', year: 2022 },
+  { title: 'Tactile numerosity and perceived interval length', family: 'Acheampong', given: 'Efua', year: 2023 },
+];

@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import { countRows, pageOf, type Db, type PageRequest } from './db.js';
+import { claimsJson } from './extractions.js';
 import type { AssignmentRow, AssignmentState, RefRow } from './rows.js';
 
 export async function findAssignment(db: Db, id: number): Promise<AssignmentRow | undefined> {
@@ -48,7 +49,14 @@ export async function listAssignments(db: Db, q: PageRequest & { state?: Assignm
   return { total, rows };
 }
 
-/** Included references with their coding status, for a curator choosing what to assign. */
+export interface CandidateClaim {
+  extractionId: number;
+  coderId: number;
+  coder: string;
+  state: 'draft' | 'submitted';
+}
+
+/** Included references with their coding status and claims, for a curator choosing what to assign. */
 export async function listCandidates(db: Db, q: PageRequest & { q?: string; status?: 'unassigned' | 'any'; sort: 'reference' | 'year' | 'id'; order: 'asc' | 'desc' }) {
   const base = db('refs as r')
     .whereNull('r.merged_into')
@@ -62,12 +70,13 @@ export async function listCandidates(db: Db, q: PageRequest & { q?: string; stat
     });
   const total = await countRows(base);
   const sort = { reference: 'r.first_author', year: 'r.year', id: 'r.id' }[q.sort];
-  const rows: Array<Pick<RefRow, 'id' | 'title' | 'first_author' | 'year' | 'doi'> & { assignment_state: AssignmentState | null; settled: boolean }> = await pageOf(
+  const rows: Array<Pick<RefRow, 'id' | 'title' | 'first_author' | 'year' | 'doi'> & { assignment_state: AssignmentState | null; settled: boolean; claims: CandidateClaim[] }> = await pageOf(
     base
       .clone()
       .select('r.id', 'r.title', 'r.first_author', 'r.year', 'r.doi')
       .select(db.raw(`(select a.state from assignments a where a.reference_id = r.id order by a.id desc limit 1) as assignment_state`))
       .select(db.raw(`exists(select 1 from extractions x where x.reference_id = r.id and x.kind = 'settled' and x.state = 'settled' and x.superseded_by is null) as settled`))
+      .select(claimsJson(db))
       .orderBy(sort, q.order)
       .orderBy('r.id', 'asc'),
     q,

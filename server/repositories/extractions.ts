@@ -71,9 +71,29 @@ export async function openSheetOf(db: Db, referenceId: number, coderId: number):
   return db<ExtractionRow>('extractions').where({ reference_id: referenceId, kind: 'coding', coder_id: coderId }).whereNot('state', 'settled').first('id');
 }
 
-/** Draft sheets of these coders for a reference that belong to no pair yet (claims). */
-export async function unpairedClaims(db: Db, referenceId: number, coderIds: number[]): Promise<{ id: number; coder_id: number }[]> {
-  return db('extractions').where({ reference_id: referenceId, kind: 'coding', state: 'draft' }).whereNull('assignment_id').whereIn('coder_id', coderIds).select('id', 'coder_id');
+export interface ClaimRow {
+  id: number;
+  coder_id: number;
+  state: 'draft' | 'submitted';
+  login: string;
+}
+
+/** Claims of a reference: coding sheets, drafts or submitted, that belong to no pair yet. */
+export async function unpairedClaims(db: Db, referenceId: number): Promise<ClaimRow[]> {
+  return db('extractions as x')
+    .join('users as u', 'u.id', 'x.coder_id')
+    .where({ 'x.reference_id': referenceId, 'x.kind': 'coding' })
+    .whereIn('x.state', ['draft', 'submitted'])
+    .whereNull('x.assignment_id')
+    .orderBy('x.id')
+    .select('x.id', 'x.coder_id', 'x.state', 'u.login');
+}
+
+/** The claims subquery as JSON per reference (alias r), for lists that show who claimed what. */
+export function claimsJson(db: Db) {
+  return db.raw(`(select coalesce(json_agg(json_build_object('extractionId', x.id, 'coderId', x.coder_id, 'coder', u.login, 'state', x.state) order by x.id), '[]'::json)
+    from extractions x join users u on u.id = x.coder_id
+    where x.reference_id = r.id and x.kind = 'coding' and x.assignment_id is null and x.state in ('draft', 'submitted')) as claims`);
 }
 
 export async function joinPair(trx: Knex.Transaction, extractionIds: number[], assignmentId: number): Promise<void> {
@@ -120,6 +140,8 @@ export async function listClaimable(db: Db, coderId: number, q: PageRequest & { 
     .whereNotExists(db('assignments as a').whereRaw('a.reference_id = r.id').whereIn('a.state', ['coding', 'disputed']))
     .whereNotExists(db('extractions as x').whereRaw('x.reference_id = r.id').where('x.kind', 'settled').whereNull('x.superseded_by').whereIn('x.state', ['settled', 'draft']))
     .whereNotExists(db('extractions as m').whereRaw('m.reference_id = r.id').where({ 'm.kind': 'coding', 'm.coder_id': coderId }).whereNot('m.state', 'settled'))
+    // someone else's claim: a curator pairs a second coder with them instead
+    .whereNotExists(db('extractions as c').whereRaw('c.reference_id = r.id').where('c.kind', 'coding').whereNull('c.assignment_id').whereIn('c.state', ['draft', 'submitted']))
     .modify((qb) => {
       if (q.q) qb.where((w) => w.whereILike('r.title', `%${q.q}%`).orWhereILike('r.first_author', `%${q.q}%`));
     });

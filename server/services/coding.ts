@@ -9,20 +9,16 @@ import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from
 import { activeAssignmentOf, findAssignment, lockAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, refLabel, type Db, type PageRequest } from '../repositories/db.js';
-import { insertDiscrepancies } from '../repositories/discrepancies.js';
 import {
   findExtraction, findExtractionDetail, insertCodingSheets, listClaimable as claimableRows, listSheetsOf, lockExtraction, openSheetOf, pairSheets, readSheet,
   studyIdsOf, updateExtraction, type ExtractionDetailRow,
 } from '../repositories/extractions.js';
-import { findRef, lockRef } from '../repositories/refs.js';
+import { lockRef } from '../repositories/refs.js';
 import type { ExtractionRow, ExtractionState } from '../repositories/rows.js';
-import { contactsOf, emailsWithRole } from '../repositories/users.js';
-import { closePair } from './assignments.js';
-import { compareSheets } from './comparison.js';
+import { comparePair } from './assignments.js';
 import { staleEdit } from './edit-conflicts.js';
-import { disputedMail, settledMail } from './extraction-mails.js';
 import { queueMails, type OutgoingMail } from './mail.js';
-import { createSettledRecord, parseCompleteSheet, saveSheet, stableStudyIds } from './settlement.js';
+import { parseCompleteSheet, saveSheet, stableStudyIds } from './settlement.js';
 import { refreshDerivations } from './trials.js';
 
 export interface Actor {
@@ -136,40 +132,27 @@ export async function submitExtraction(ctx: MailingDeps, actor: Actor, id: numbe
   const mails: OutgoingMail[] = [];
   const origin = ctx.appOrigin;
   const result = await ctx.db.transaction(async (trx): Promise<SubmitResult> => {
-    const peek = await findExtraction(trx, id);
+    let peek = await findExtraction(trx, id);
     if (!peek) throw new NotFoundError(`No extraction ${id}.`);
     if (peek.kind !== 'coding') throw new UnprocessableError('A reopened record is settled, not submitted.');
+    // A claim may be paired while it is submitted: the reference's lock orders the two (createAssignment takes it too).
+    if (!peek.assignment_id) {
+      await lockRef(trx, peek.reference_id);
+      peek = (await findExtraction(trx, id))!;
+    }
     // Lock the pair first so two coders submitting at once are compared exactly once.
     const assignment = peek.assignment_id ? await lockAssignment(trx, peek.assignment_id) : null;
     const x = await lockEditable(trx, actor, id, input.version);
-    const sheet = parseCompleteSheet(toSheet(await readSheet(trx, id), x.notes));
+    // a sheet is submitted only complete (the 400 names each missing field)
+    parseCompleteSheet(toSheet(await readSheet(trx, id), x.notes));
     await updateExtraction(trx, id, { state: 'submitted', version: x.version + 1, updated_by: actor.id }, 'submitted');
     await recordAudit(trx, { actorId: actor.id, action: 'extraction.submit', entityType: 'extraction', entityId: id, details: { assignmentId: assignment?.id ?? null } });
     if (!assignment) return { state: 'submitted', pairState: null, discrepancies: 0 };
     const other = (await pairSheets(trx, assignment.id)).find((s) => s.id !== id);
     if (!other || other.state !== 'submitted') return { state: 'submitted', pairState: assignment.state, discrepancies: 0 };
 
-    const otherSheet = toSheet(await readSheet(trx, other.id), other.notes);
-    const [first, second] = assignment.coder1_id === x.coder_id ? [sheet, otherSheet] : [otherSheet, sheet];
-    const found = compareSheets(first, second);
-    const ref = (await findRef(trx, assignment.reference_id))!;
-    if (found.length === 0) {
-      const settled = await createSettledRecord(trx, {
-        referenceId: assignment.reference_id, sheet: first, actorId: null, kind: 'matched', assignmentId: assignment.id,
-        rationale: 'Both coders agreed on every compared field.',
-      });
-      await closePair(trx, assignment, 'settled');
-      await recordAudit(trx, { actorId: null, action: 'assignment.matched', entityType: 'assignment', entityId: assignment.id, details: { recordId: settled.recordId } });
-      for (const c of (await contactsOf(trx, [assignment.coder1_id, assignment.coder2_id])).values()) {
-        mails.push(settledMail(origin, c, ref, settled.recordId, 'Both codings agreed, so the record was settled automatically.'));
-      }
-      return { state: 'settled', pairState: 'settled', discrepancies: 0, recordId: settled.recordId };
-    }
-    await insertDiscrepancies(trx, assignment.id, found);
-    await closePair(trx, assignment, 'disputed');
-    await recordAudit(trx, { actorId: null, action: 'assignment.disputed', entityType: 'assignment', entityId: assignment.id, details: { discrepancies: found.length } });
-    for (const to of await emailsWithRole(trx, 'curator')) mails.push(disputedMail(origin, to, ref, assignment.id, found));
-    return { state: 'disputed', pairState: 'disputed', discrepancies: found.length };
+    const compared = await comparePair(trx, origin, assignment, mails);
+    return { state: compared.pairState, pairState: compared.pairState, discrepancies: compared.discrepancies, ...(compared.recordId ? { recordId: compared.recordId } : {}) };
   });
   await queueMails(ctx, mails);
   return result;

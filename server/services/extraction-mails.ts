@@ -10,12 +10,19 @@ interface RefInfo {
   year: number | null;
 }
 
-export function assignmentMail(appOrigin: string, coder: Contact, ref: RefInfo, extractionId: number): OutgoingMail {
+/** `claim` is the state of the coder's own earlier claim that the pair adopted, if any. */
+export function assignmentMail(appOrigin: string, coder: Contact, ref: RefInfo, extractionId: number, claim: 'draft' | 'submitted' | null = null): OutgoingMail {
+  const yours =
+    claim === 'submitted'
+      ? 'Your submitted sheet joins the pair as it is; it is compared with the second coding as soon as both are in.'
+      : claim === 'draft'
+        ? 'Your draft joins the pair with everything you entered.'
+        : 'A second coder codes it independently; you will not see each other\'s sheet until it is settled.';
   return {
     kind: 'assignment',
     to: coder.email ?? '',
     subject: `Chronometa: please code ${refLabel(ref)}`,
-    body: `Hello ${coder.login},\n\nYou have been asked to code "${ref.title}" (${refLabel(ref)}) for the registry. A second coder codes it independently; you will not see each other's sheet until it is settled.\n\nOpen your sheet: ${appOrigin}/extractions/${extractionId}\n`,
+    body: `Hello ${coder.login},\n\nYou have been paired with a second coder on "${ref.title}" (${refLabel(ref)}) for the registry. ${yours} Coding is blind: neither of you sees the other's sheet until it is settled.\n\nOpen your sheet: ${appOrigin}/extractions/${extractionId}\n`,
   };
 }
 

@@ -36,6 +36,9 @@ export const candidateQuerySchema = pagingSchema(['reference', 'year', 'id'] as 
 });
 export type CandidateQuery = z.infer<typeof candidateQuerySchema>;
 
+export const claimSchema = z.object({ extractionId: z.number().int(), coderId: z.number().int(), coder: z.string(), state: z.enum(['draft', 'submitted']) });
+export type Claim = z.infer<typeof claimSchema>;
+
 export const candidateSchema = z.object({
   id: z.number().int(),
   title: z.string(),
@@ -44,6 +47,8 @@ export const candidateSchema = z.object({
   doi: z.string().nullable(),
   assignmentState: z.enum(ASSIGNMENT_STATES).nullable(),
   settled: z.boolean(),
+  /** coding sheets of this reference in no pair yet; an assignment adopts them */
+  claims: z.array(claimSchema),
 });
 export type Candidate = z.infer<typeof candidateSchema>;
 export const candidatePageSchema = pageSchema(candidateSchema);
@@ -55,7 +60,15 @@ export const coderListSchema = z.object({ items: z.array(coderSchema) });
 export type CoderList = z.infer<typeof coderListSchema>;
 
 /** POST /api/assignments */
-export const createdAssignmentSchema = z.object({ id: z.number().int(), extractionIds: z.array(z.number().int()) });
+export const createdAssignmentSchema = z.object({
+  id: z.number().int(),
+  extractionIds: z.array(z.number().int()),
+  /** coding after a fresh pairing; settled or disputed when two submitted claims were compared at once */
+  state: z.enum(ASSIGNMENT_STATES),
+  /** the claims the pair took over, with the state each kept */
+  adopted: z.array(claimSchema),
+  discrepancies: z.number().int(),
+});
 export type CreatedAssignment = z.infer<typeof createdAssignmentSchema>;
 
 // ---- the reconciliation queue

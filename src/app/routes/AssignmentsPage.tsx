@@ -2,6 +2,7 @@ import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { createAssignmentSchema } from '../../../shared/schemas/extraction';
+import type { CreatedAssignment } from '../../../shared/schemas/reconciliation';
 import { Link } from 'react-router-dom';
 import { Button } from '../../components/ui/Button';
 import { FieldError } from '../../components/ui/Field';
@@ -25,11 +26,20 @@ const assignmentSchema = (referenceId: number) =>
     .transform((v) => ({ referenceId, coder1Id: Number(v.coder1Id), coder2Id: Number(v.coder2Id) }))
     .pipe(taking<{ referenceId: number; coder1Id: number; coder2Id: number }>()(createAssignmentSchema));
 
-function AssignRow({ c }: { c: Candidate }) {
+function assignedNote(a: CreatedAssignment): string {
+  const took = a.adopted.length ? ` The pair took over ${a.adopted.map((x) => `@${x.coder}’s ${x.state} sheet`).join(' and ')}.` : '';
+  if (a.state === 'settled') return `✓ Paired.${took} Both submitted sheets agreed, so the record is settled.`;
+  if (a.state === 'disputed') return `≠ Paired.${took} The submitted sheets differ in ${a.discrepancies} field${a.discrepancies === 1 ? '' : 's'}: the pair is in the reconciliation queue.`;
+  return `✓ Assigned; both coders are e-mailed.${took}`;
+}
+
+function AssignRow({ c, onAssigned }: { c: Candidate; onAssigned: (note: string) => void }) {
   const { data: coders } = useCoders();
   const create = useCreateAssignment();
   const schema = useMemo(() => assignmentSchema(c.id), [c.id]);
-  const form = useForm({ resolver: formResolver(schema), defaultValues: { coder1Id: '', coder2Id: '' }, mode: 'onChange' });
+  // A claimant codes in the pair: their sheet joins it as it is.
+  const claimants = c.claims.map((x) => String(x.coderId));
+  const form = useForm({ resolver: formResolver(schema), defaultValues: { coder1Id: claimants[0] ?? '', coder2Id: claimants[1] ?? '' }, mode: 'onChange' });
   const { errors } = form.formState;
   const done = create.isSuccess;
   const coderSelect = (name: 'coder1Id' | 'coder2Id', label: string, placeholder: string) => (
@@ -56,11 +66,30 @@ function AssignRow({ c }: { c: Candidate }) {
       </td>
       <td className="reading text-xs">{c.title}</td>
       <td>{c.settled ? <StateBadge state="settled" /> : c.assignmentState ? <StateBadge state={c.assignmentState} /> : <span className="text-xs text-ink-faint">not coded</span>}</td>
+      <td data-testid={`claims-${c.id}`}>
+        {c.claims.length === 0 ? (
+          <span className="text-xs text-ink-faint">none</span>
+        ) : (
+          <ul className="text-xs">
+            {c.claims.map((x) => (
+              <li key={x.extractionId}>
+                @{x.coder} <StateBadge state={x.state} />
+              </li>
+            ))}
+          </ul>
+        )}
+      </td>
       <td>
         <form
           className="flex flex-wrap items-center gap-1 text-sm"
           noValidate
-          onSubmit={form.handleSubmit((body) => create.mutate(body, { onError: (err) => showServerErrors(err, form.setError, ['coder1Id', 'coder2Id']) }))}
+          onSubmit={form.handleSubmit((body) =>
+            create.mutate(body, {
+              // the row leaves the list of unassigned references, so the outcome is said above the table
+              onSuccess: (created) => onAssigned(`${c.referenceLabel}: ${assignedNote(created)}`),
+              onError: (err) => showServerErrors(err, form.setError, ['coder1Id', 'coder2Id']),
+            }),
+          )}
         >
           {coderSelect('coder1Id', 'First coder', 'first coder')}
           {coderSelect('coder2Id', 'Second coder', 'second coder')}
@@ -68,7 +97,6 @@ function AssignRow({ c }: { c: Candidate }) {
             Assign
           </Button>
           <FieldError id={`assign-${c.id}-error`} message={message} className="text-xs text-refusal" />
-          {done && <span className="text-xs">✓ Assigned; both coders are e-mailed</span>}
         </form>
         {create.error && !message && <ErrorNote error={create.error} />}
       </td>
@@ -80,6 +108,7 @@ export function AssignmentsPage() {
   const [cq, setCq] = useState<CandidatesQuery>({ status: 'unassigned', page: 1, pageSize: 15, sort: 'reference', order: 'asc' });
   const [aq, setAq] = useState<AssignmentsQuery>({ page: 1, pageSize: 15, sort: 'updated', order: 'desc' });
   const candidates = useCandidates(cq);
+  const [assigned, setAssigned] = useState<string | null>(null);
   const assignments = useAssignments(aq);
   return (
     <RequireRole role="curator">
@@ -94,6 +123,11 @@ export function AssignmentsPage() {
           <input type="checkbox" checked={cq.status === 'any'} onChange={(e) => setCq({ ...cq, status: e.target.checked ? 'any' : 'unassigned', page: 1 })} /> also show coded references
         </label>
       </div>
+      {assigned && (
+        <p role="status" className="mt-2 text-sm">
+          {assigned}
+        </p>
+      )}
       <ErrorNote error={candidates.error} />
       {candidates.isLoading && <Loading what="Loading references" />}
       {candidates.data && candidates.data.total === 0 && <EmptyState>No included reference is waiting. Screen references in (Screening) to code them here.</EmptyState>}
@@ -105,12 +139,13 @@ export function AssignmentsPage() {
                 <SortHeader field="reference" label="Reference" sort={cq.sort} order={cq.order} onSort={(sort, order) => setCq({ ...cq, sort, order })} />
                 <th>Title</th>
                 <th>Status</th>
+                <th>Claims</th>
                 <th>Coders</th>
               </tr>
             </thead>
             <tbody>
               {candidates.data.items.map((c) => (
-                <AssignRow key={c.id} c={c} />
+                <AssignRow key={c.id} c={c} onAssigned={setAssigned} />
               ))}
             </tbody>
           </table>

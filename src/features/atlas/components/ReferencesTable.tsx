@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { SortHeader } from '../../../components/ui/SortHeader';
@@ -28,7 +29,9 @@ export function ReferencesTable({ scope, slug }: { scope: 'manipulations' | 'out
         <tbody>
           {data.items.map((r) => (
             <tr key={r.id}>
-              <td>{r.label}</td>
+              <td>
+                <Link to={`/references/${r.id}`}>{r.label}</Link>
+              </td>
               <td className="reading">{r.title}</td>
               <td className="num">{r.year ?? '—'}</td>
               <td className="num">{r.studies}</td>
