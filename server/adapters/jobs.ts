@@ -32,8 +32,9 @@ export class JobQueue {
 
   async work<T>(name: string, handler: JobHandler<T>, options: PgBoss.WorkOptions = {}): Promise<void> {
     await this.ensureQueue(name);
-    await this.boss.work<T>(name, { pollingIntervalSeconds: 0.5, batchSize: 1, ...options }, async (jobs) => {
-      for (const job of jobs) await handler(job.data, { id: job.id, retryCount: (job as { retryCount?: number }).retryCount ?? 0 });
+    // With metadata, each job says how many times it has been retried (handlers use it to tell the last attempt).
+    await this.boss.work<T>(name, { pollingIntervalSeconds: 0.5, batchSize: 1, ...options, includeMetadata: true }, async (jobs) => {
+      for (const job of jobs) await handler(job.data, { id: job.id, retryCount: job.retryCount });
     });
   }
 

@@ -10,6 +10,11 @@ export async function findMail(db: Db, id: number): Promise<MailLogRow | undefin
   return db<MailLogRow>('mail_log').where({ id }).first();
 }
 
+/** The row, locked until the transaction ends (one resend at a time). */
+export async function lockMail(db: Db, id: number): Promise<MailLogRow | undefined> {
+  return db<MailLogRow>('mail_log').where({ id }).forUpdate().first();
+}
+
 export async function updateMail(db: Db, id: number, patch: Partial<Pick<MailLogRow, 'status' | 'attempts' | 'last_error' | 'job_id' | 'message_id'>> & { sent?: boolean }): Promise<void> {
   const { sent, ...rest } = patch;
   await db<MailLogRow>('mail_log').where({ id }).update({ ...rest, ...(sent ? { sent_at: db.fn.now() } : {}) });

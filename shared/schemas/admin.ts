@@ -39,6 +39,8 @@ export const mailLogEntrySchema = z.object({
   lastError: z.string().nullable(),
   createdAt: timestamp,
   sentAt: timestamp.nullable(),
+  /** Whether an admin may send it again (failed, or never handed to the job queue). */
+  resendable: z.boolean(),
 });
 export type MailLogEntry = z.infer<typeof mailLogEntrySchema>;
 export const mailLogPageSchema = pageSchema(mailLogEntrySchema);

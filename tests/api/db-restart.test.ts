@@ -1,28 +1,14 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import net from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createDb } from '../../server/db/knex.js';
 import { startPrivatePostgres, type PrivatePostgres } from '../support/private-pg.js';
 import { signIn } from '../support/test-app.js';
+import { freePorts } from '../support/ports.js';
 
 const WRITES = 1000;
 const WRITERS = 4;
 const RESTART_AFTER = 250;
-
-/** n distinct free loopback ports (all held open until each is known). */
-async function freePorts(n: number): Promise<number[]> {
-  const servers = await Promise.all(
-    Array.from({ length: n }, () => new Promise<net.Server>((resolve, reject) => {
-      const s = net.createServer();
-      s.once('error', reject);
-      s.listen(0, '127.0.0.1', () => resolve(s));
-    })),
-  );
-  const ports = servers.map((s) => (s.address() as net.AddressInfo).port);
-  await Promise.all(servers.map((s) => new Promise((r) => s.close(r))));
-  return ports;
-}
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 

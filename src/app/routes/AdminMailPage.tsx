@@ -4,6 +4,8 @@ import { Pager } from '../../components/ui/Pager';
 import { StateBadge } from '../../components/ui/StateBadge';
 import { useMailLog } from '../../features/mailbox/api/get-mail-log';
 import { useMailbox } from '../../features/mailbox/api/get-mailbox';
+import { useResendMail } from '../../features/mailbox/api/resend-mail';
+import { Button } from '../../components/ui/Button';
 import { RequireRole } from './RequireRole';
 
 const when = (s: string | null) => (s ? new Date(s).toISOString().slice(0, 19).replace('T', ' ') : '—');
@@ -15,11 +17,15 @@ export function AdminMailPage() {
   const [to, setTo] = useState('');
   const log = useMailLog({ status: status || undefined, page: logPage, pageSize: 20, order: 'desc' });
   const box = useMailbox({ to: to || undefined, page: boxPage, pageSize: 10 });
+  const resend = useResendMail();
   return (
     <RequireRole role="admin">
       <h1>Mail</h1>
       <h2>Delivery log</h2>
-      <p className="text-sm text-ink-soft">Every mail the registry sends runs as a background job and is retried on failure; failed sends stay here with their error.</p>
+      <p className="text-sm text-ink-soft">
+        Every mail the registry sends runs as a background job and is retried with growing pauses for over an hour; a mail that still could not be sent stays here as failed, with its
+        error, until you send it again.
+      </p>
       <label className="text-sm">
         Status{' '}
         <select className="rounded border border-paper-edge bg-white px-2 py-1" value={status} onChange={(e) => (setStatus(e.target.value), setLogPage(1))}>
@@ -32,36 +38,54 @@ export function AdminMailPage() {
       <ErrorNote error={log.error} />
       {log.isLoading && <Loading what="Loading the log" />}
       {log.data && log.data.total === 0 && <EmptyState>No mail yet. Assigning a reference to coders sends the first ones.</EmptyState>}
+      <ErrorNote error={resend.error} title="Not resent" />
+      {resend.isSuccess && (
+        <p role="status" className="text-sm">
+          Queued again: “{resend.data.subject}” to {resend.data.to}.
+        </p>
+      )}
       {log.data && log.data.total > 0 && (
         <>
-          <table className="mt-2">
-            <thead>
-              <tr>
-                <th>Queued (UTC)</th>
-                <th>Kind</th>
-                <th>To</th>
-                <th>Subject</th>
-                <th>Status</th>
-                <th className="num">Attempts</th>
-                <th>Last error</th>
-              </tr>
-            </thead>
-            <tbody>
-              {log.data.items.map((m) => (
-                <tr key={m.id}>
-                  <td className="num">{when(m.createdAt)}</td>
-                  <td>{m.kind}</td>
-                  <td>{m.to}</td>
-                  <td>{m.subject}</td>
-                  <td>
-                    <StateBadge state={m.status} />
-                  </td>
-                  <td className="num">{m.attempts}</td>
-                  <td className="text-xs text-refusal">{m.lastError ?? ''}</td>
+          <div className="relative overflow-x-auto">
+            <table className="mt-2">
+              <thead>
+                <tr>
+                  <th>Queued (UTC)</th>
+                  <th>Kind</th>
+                  <th>To</th>
+                  <th>Subject</th>
+                  <th>Status</th>
+                  <th className="num">Attempts</th>
+                  <th>Last error</th>
+                  <th>
+                    <span className="sr-only">Action</span>
+                  </th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {log.data.items.map((m) => (
+                  <tr key={m.id}>
+                    <td className="num">{when(m.createdAt)}</td>
+                    <td>{m.kind}</td>
+                    <td>{m.to}</td>
+                    <td>{m.subject}</td>
+                    <td>
+                      <StateBadge state={m.status} />
+                    </td>
+                    <td className="num">{m.attempts}</td>
+                    <td className="text-xs text-refusal">{m.lastError ?? ''}</td>
+                    <td>
+                      {m.resendable && (
+                        <Button onClick={() => resend.mutate(m.id)} disabled={resend.isPending && resend.variables === m.id} aria-label={`Resend “${m.subject}” to ${m.to}`}>
+                          Resend
+                        </Button>
+                      )}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
           <Pager page={logPage} pageSize={20} total={log.data.total} onPage={setLogPage} />
         </>
       )}
