@@ -89,13 +89,13 @@ export async function listDisputed(db: Db, q: PageRequest & { sort: 'updated' | 
   const base = db('assignments as a').join('refs as r', 'r.id', 'a.reference_id').where('a.state', 'disputed');
   const total = await countRows(base);
   const sort = { updated: 'a.updated_at', reference: 'r.first_author', open: 'open_discrepancies' }[q.sort];
-  const rows: Array<Pick<AssignmentRow, 'id' | 'reference_id' | 'updated_at'> & Pick<RefRow, 'title' | 'first_author' | 'year'> & { coder1: string; coder2: string; open_discrepancies: number; discrepancies: number }> =
+  const rows: Array<Pick<AssignmentRow, 'id' | 'reference_id' | 'updated_at' | 'coder1_id' | 'coder2_id'> & Pick<RefRow, 'title' | 'first_author' | 'year'> & { coder1: string; coder2: string; open_discrepancies: number; discrepancies: number }> =
     await pageOf(
       base
         .clone()
         .join('users as u1', 'u1.id', 'a.coder1_id')
         .join('users as u2', 'u2.id', 'a.coder2_id')
-        .select('a.id', 'a.reference_id', 'a.updated_at', 'r.title', 'r.first_author', 'r.year', 'u1.login as coder1', 'u2.login as coder2')
+        .select('a.id', 'a.reference_id', 'a.updated_at', 'a.coder1_id', 'a.coder2_id', 'r.title', 'r.first_author', 'r.year', 'u1.login as coder1', 'u2.login as coder2')
         .select(db.raw(`(select count(*)::int from discrepancies d where d.assignment_id = a.id and d.status = 'open') as open_discrepancies`))
         .select(db.raw(`(select count(*)::int from discrepancies d where d.assignment_id = a.id) as discrepancies`))
         .orderBy(sort, q.order)

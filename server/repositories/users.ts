@@ -110,7 +110,18 @@ export async function usersWithRoles(db: Db, ids: number[]): Promise<UserWithRol
     .groupBy('u.id');
 }
 
+/** Who holds the curator role (and so may reconcile). */
+export async function curatorIds(db: Db): Promise<number[]> {
+  const rows: { user_id: number }[] = await db('user_roles').where('role', 'curator').distinct('user_id');
+  return rows.map((r) => r.user_id);
+}
+
 /** Everyone who may code: contributors and curators. */
-export async function listCoders(db: Db): Promise<Pick<UserRow, 'id' | 'login' | 'name'>[]> {
-  return db('users as u').join('user_roles as r', 'r.user_id', 'u.id').whereIn('r.role', ['contributor', 'curator']).distinct('u.id', 'u.login', 'u.name').orderBy('u.login');
+export async function listCoders(db: Db): Promise<Array<Pick<UserRow, 'id' | 'login' | 'name'> & { curator: boolean }>> {
+  return db('users as u')
+    .join('user_roles as r', 'r.user_id', 'u.id')
+    .whereIn('r.role', ['contributor', 'curator'])
+    .groupBy('u.id')
+    .select('u.id', 'u.login', 'u.name', db.raw(`bool_or(r.role = 'curator') as curator`))
+    .orderBy('u.login');
 }

@@ -19,8 +19,8 @@ export function assignmentsRouter(ctx: AppContext) {
     res.json(await listCandidates(ctx.db, parseInput(candidateQuerySchema, req.query, 'query')));
   });
 
-  router.get('/assignments/coders', async (_req, res) => {
-    res.json(await listCoders(ctx.db));
+  router.get('/assignments/coders', async (req, res) => {
+    res.json(await listCoders(ctx.db, req.user!.id));
   });
 
   router.post('/assignments', async (req, res) => {

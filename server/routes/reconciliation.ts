@@ -17,12 +17,12 @@ export function reconciliationRouter(ctx: AppContext) {
   router.use('/reconciliation', requireRole('curator'));
 
   router.get('/reconciliation', async (req, res) => {
-    res.json(await listQueue(ctx.db, parseInput(reconciliationQuerySchema, req.query, 'query')));
+    res.json(await listQueue(ctx.db, req.user!.id, parseInput(reconciliationQuerySchema, req.query, 'query')));
   });
 
   router.get('/reconciliation/:id', async (req, res) => {
     const { id } = parseInput(idParamsSchema, req.params, 'path');
-    res.json(await getPair(ctx.db, id));
+    res.json(await getPair(ctx.db, req.user!.id, id));
   });
 
   router.put('/reconciliation/:id/discrepancies/:discrepancyId', async (req, res) => {

@@ -11,7 +11,7 @@ import { insertDiscrepancies } from '../repositories/discrepancies.js';
 import { insertCodingSheets, joinPair, pairSheets, readSheet, setPairSheetsState, unpairedClaims } from '../repositories/extractions.js';
 import { findRef, lockRef } from '../repositories/refs.js';
 import type { AssignmentRow, AssignmentState, ExtractionState } from '../repositories/rows.js';
-import { contactsOf, emailsWithRole, listCoders as coderRows, usersWithRoles } from '../repositories/users.js';
+import { contactsOf, curatorIds, emailsWithRole, listCoders as coderRows, usersWithRoles } from '../repositories/users.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import { compareSheets } from './comparison.js';
 import { assignmentMail, disputedMail, settledMail } from './extraction-mails.js';
@@ -35,6 +35,14 @@ export async function createAssignment(ctx: MailingDeps, actorId: number, input:
       const c = coders.find((x) => x.id === id);
       if (!c) throw new ValidationError(`No user ${id}.`, [{ path: `body.${key}`, message: 'no such user' }]);
       if (!hasRole(c.roles, 'contributor')) throw new ValidationError(`${c.login} is not a contributor and cannot code.`, [{ path: `body.${key}`, message: 'needs the contributor role' }]);
+    }
+    // Whoever codes a pair does not reconcile it: some curator must stand outside the pair.
+    const reconcilers = (await curatorIds(trx)).filter((id) => id !== input.coder1Id && id !== input.coder2Id);
+    if (!reconcilers.length) {
+      const self = input.coder1Id === actorId ? 'coder1Id' : input.coder2Id === actorId ? 'coder2Id' : 'coder2Id';
+      throw new UnprocessableError('No curator outside this pair could reconcile it: a curator who codes a pair may not settle it. Choose another coder, or ask an administrator to make a second person curator.', [
+        { path: `body.${self}`, message: 'no other curator could reconcile this pair' },
+      ]);
     }
     const active = await activeAssignmentOf(trx, input.referenceId);
     if (active) throw new ConflictError(`Reference ${input.referenceId} is already being double coded (assignment ${active.id}).`, { assignmentId: active.id });
@@ -122,6 +130,8 @@ export async function listCandidates(db: Knex, q: PageRequest & { q?: string; st
   return pageOf(rows.map((r) => ({ id: r.id, title: r.title, referenceLabel: refLabel(r), year: r.year, doi: r.doi, assignmentState: r.assignment_state, settled: r.settled, claims: r.claims })), total, q);
 }
 
-export async function listCoders(db: Knex): Promise<CoderList> {
-  return { items: (await coderRows(db)).map((r) => ({ id: r.id, login: r.login, name: r.name })) };
+export async function listCoders(db: Knex, actorId: number): Promise<CoderList> {
+  const rows = await coderRows(db);
+  const otherCurators = rows.filter((r) => r.curator && r.id !== actorId).map((r) => r.login);
+  return { items: rows.map((r) => ({ id: r.id, login: r.login, name: r.name, curator: r.curator, you: r.id === actorId })), selfAssignable: otherCurators.length > 0, otherCurators };
 }

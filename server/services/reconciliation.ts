@@ -6,7 +6,7 @@ import type { PairDetail, PairSide, ReconciliationQueue, ResolvedDiscrepancy, Se
 import { tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import type { MailingDeps } from './deps.js';
-import { ConflictError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
+import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError, ValidationError } from '../lib/errors.js';
 import { findPairDetail, listDisputed, lockAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, refLabel, type PageRequest } from '../repositories/db.js';
@@ -22,11 +22,18 @@ import { queueMails, type OutgoingMail } from './mail.js';
 import { resolveManipulations } from './manipulations.js';
 import { createSettledRecord } from './settlement.js';
 
-export async function listQueue(db: Knex, q: PageRequest & { sort: 'updated' | 'reference' | 'open'; order: 'asc' | 'desc' }): Promise<ReconciliationQueue> {
+/** A coder of the pair may not read or settle its reconciliation (blind coding, independent settling). */
+function refuseOwnPair(a: Pick<AssignmentRow, 'coder1_id' | 'coder2_id'>, actorId: number) {
+  if (a.coder1_id === actorId || a.coder2_id === actorId) {
+    throw new ForbiddenError('You coded this pair, so another curator reconciles it: the person who settles a dispute must not be one of its coders.');
+  }
+}
+
+export async function listQueue(db: Knex, actorId: number, q: PageRequest & { sort: 'updated' | 'reference' | 'open'; order: 'asc' | 'desc' }): Promise<ReconciliationQueue> {
   const [{ total, rows }, reopened] = await Promise.all([listDisputed(db, q), reopenedRecords(db, 50)]);
   const items = rows.map((r) => ({
     assignmentId: r.id, referenceId: r.reference_id, referenceLabel: refLabel(r), title: r.title, coder1: r.coder1, coder2: r.coder2,
-    openDiscrepancies: r.open_discrepancies, discrepancies: r.discrepancies, updatedAt: iso(r.updated_at),
+    openDiscrepancies: r.open_discrepancies, discrepancies: r.discrepancies, updatedAt: iso(r.updated_at), youCoded: r.coder1_id === actorId || r.coder2_id === actorId,
   }));
   return {
     ...pageOf(items, total, q),
@@ -36,9 +43,10 @@ export async function listQueue(db: Knex, q: PageRequest & { sort: 'updated' | '
   };
 }
 
-export async function getPair(db: Knex, assignmentId: number): Promise<PairDetail> {
+export async function getPair(db: Knex, actorId: number, assignmentId: number): Promise<PairDetail> {
   const a = await findPairDetail(db, assignmentId);
   if (!a) throw new NotFoundError(`No assignment ${assignmentId}.`);
+  refuseOwnPair(a, actorId);
   const [xs, discrepancies, settlement] = await Promise.all([pairSheets(db, assignmentId), discrepanciesOf(db, assignmentId), latestSettlementOfPair(db, assignmentId)]);
   const side = async (coderId: number, coder: string): Promise<PairSide | null> => {
     const x = xs.find((s) => s.coder_id === coderId);
@@ -88,16 +96,17 @@ function checkValue(field: string, value: unknown): unknown {
   throw fail(`no field ${field}`);
 }
 
-async function lockDisputed(trx: Knex.Transaction, assignmentId: number, doing: string): Promise<AssignmentRow> {
+async function lockDisputed(trx: Knex.Transaction, actorId: number, assignmentId: number, doing: string): Promise<AssignmentRow> {
   const a = await lockAssignment(trx, assignmentId);
   if (!a) throw new NotFoundError(`No assignment ${assignmentId}.`);
+  refuseOwnPair(a, actorId);
   if (a.state !== 'disputed') throw new ConflictError(`This pair is ${a.state}; only disputed pairs are ${doing}.`);
   return a;
 }
 
 export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId: number, discrepancyId: number, input: { resolution: 'a' | 'b' | 'value'; value?: unknown; rationale: string }): Promise<ResolvedDiscrepancy> {
   return db.transaction(async (trx) => {
-    await lockDisputed(trx, assignmentId, 'reconciled');
+    await lockDisputed(trx, actorId, assignmentId, 'reconciled');
     const d = await findDiscrepancy(trx, assignmentId, discrepancyId);
     if (!d) throw new NotFoundError(`No discrepancy ${discrepancyId} in assignment ${assignmentId}.`);
     if (input.resolution === 'value' && d.field === 'manipulation') await resolveManipulations(trx, [String(input.value)]);
@@ -112,7 +121,7 @@ export async function resolveDiscrepancy(db: Knex, actorId: number, assignmentId
 export async function settlePair(ctx: MailingDeps, actorId: number, assignmentId: number, input: { rationale: string }): Promise<SettledRecord> {
   const mails: OutgoingMail[] = [];
   const out = await ctx.db.transaction(async (trx) => {
-    const a = await lockDisputed(trx, assignmentId, 'settled here');
+    const a = await lockDisputed(trx, actorId, assignmentId, 'settled here');
     const ds = await discrepanciesOf(trx, assignmentId);
     const open = ds.filter((d) => d.status !== 'resolved');
     if (open.length) throw new UnprocessableError(`${open.length} discrepanc${open.length === 1 ? 'y is' : 'ies are'} still open: ${open.map((d) => d.label).join('; ')}.`, open.map((d) => ({ id: d.id, path: d.path })));

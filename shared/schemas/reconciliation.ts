@@ -54,9 +54,14 @@ export type Candidate = z.infer<typeof candidateSchema>;
 export const candidatePageSchema = pageSchema(candidateSchema);
 export type CandidatePage = z.infer<typeof candidatePageSchema>;
 
-export const coderSchema = z.object({ id: z.number().int(), login: z.string(), name: z.string().nullable() });
+export const coderSchema = z.object({ id: z.number().int(), login: z.string(), name: z.string().nullable(), curator: z.boolean(), you: z.boolean() });
 export type Coder = z.infer<typeof coderSchema>;
-export const coderListSchema = z.object({ items: z.array(coderSchema) });
+export const coderListSchema = z.object({
+  items: z.array(coderSchema),
+  /** a curator may code a pair only when another curator, outside the pair, can reconcile it */
+  selfAssignable: z.boolean(),
+  otherCurators: z.array(z.string()),
+});
 export type CoderList = z.infer<typeof coderListSchema>;
 
 /** POST /api/assignments */
@@ -86,6 +91,8 @@ export const disputedPairSchema = z.object({
   openDiscrepancies: z.number().int(),
   discrepancies: z.number().int(),
   updatedAt: timestamp,
+  /** the asking curator coded this pair, so another curator reconciles it */
+  youCoded: z.boolean(),
 });
 export type DisputedPair = z.infer<typeof disputedPairSchema>;
 

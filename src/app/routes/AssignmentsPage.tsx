@@ -52,8 +52,9 @@ function AssignRow({ c, onAssigned }: { c: Candidate; onAssigned: (note: string)
     >
       <option value="">{placeholder}</option>
       {coders?.items.map((u) => (
-        <option key={u.id} value={u.id}>
+        <option key={u.id} value={u.id} disabled={u.you && !coders.selfAssignable}>
           @{u.login}
+          {u.you ? (coders.selfAssignable ? ' (you)' : ' (you: no other curator to reconcile)') : ''}
         </option>
       ))}
     </select>
@@ -104,6 +105,19 @@ function AssignRow({ c, onAssigned }: { c: Candidate; onAssigned: (note: string)
   );
 }
 
+/** Whoever codes a pair may not reconcile it, so a curator codes only when another curator can settle the pair. */
+function SelfAssignNote() {
+  const { data } = useCoders();
+  if (!data) return null;
+  return (
+    <p className="text-sm text-ink-soft" data-testid="self-assign-note">
+      {data.selfAssignable
+        ? `You may code a pair yourself: ${data.otherCurators.map((l) => `@${l}`).join(', ')} can then reconcile it (a coder never settles their own pair).`
+        : 'You cannot code a pair yourself: no other curator could reconcile it, and a coder never settles their own pair. An administrator can make a second person curator.'}
+    </p>
+  );
+}
+
 export function AssignmentsPage() {
   const [cq, setCq] = useState<CandidatesQuery>({ status: 'unassigned', page: 1, pageSize: 15, sort: 'reference', order: 'asc' });
   const [aq, setAq] = useState<AssignmentsQuery>({ page: 1, pageSize: 15, sort: 'updated', order: 'desc' });
@@ -114,6 +128,7 @@ export function AssignmentsPage() {
     <RequireRole role="curator">
       <h1>Double coding</h1>
       <h2>Assign an included reference to two coders</h2>
+      <SelfAssignNote />
       <div className="flex flex-wrap gap-3 text-sm">
         <label>
           Find{' '}

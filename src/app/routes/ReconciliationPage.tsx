@@ -33,7 +33,13 @@ export function ReconciliationPage() {
               {data.items.map((i) => (
                 <tr key={i.assignmentId}>
                   <td>
-                    <Link to={`/reconciliation/${i.assignmentId}`}>{i.referenceLabel}</Link>
+                    {i.youCoded ? (
+                      <span>
+                        {i.referenceLabel} <span className="text-xs text-ink-soft">(you coded this pair: another curator reconciles it)</span>
+                      </span>
+                    ) : (
+                      <Link to={`/reconciliation/${i.assignmentId}`}>{i.referenceLabel}</Link>
+                    )}
                   </td>
                   <td className="reading text-xs">{i.title}</td>
                   <td>
