@@ -55,7 +55,11 @@ export async function createAssignment(ctx: MailingDeps, actorId: number, input:
         { path: 'body.coder1Id', message: `claimed by ${who}` },
       ]);
     }
-    const assignment = await insertAssignment(trx, { reference_id: input.referenceId, coder1_id: input.coder1Id, coder2_id: input.coder2Id, assigned_by: actorId });
+    const assignment = await insertAssignment(trx, { reference_id: input.referenceId, coder1_id: input.coder1Id, coder2_id: input.coder2Id, assigned_by: actorId }).catch((err: { code?: string }) => {
+      // the unique partial index on active pairs: another request won the race
+      if (err.code === '23505') throw new ConflictError(`Reference ${input.referenceId} is already being double coded.`);
+      throw err;
+    });
     await joinPair(trx, claims.map((c) => c.id), assignment.id);
     const fresh = pair.filter((coder) => !claims.some((c) => c.coder_id === coder));
     const created = await insertCodingSheets(trx, fresh.map((coderId) => ({ referenceId: input.referenceId, assignmentId: assignment.id, coderId, actorId })));

@@ -136,4 +136,30 @@ export const specs: Spec[] = [
       assert.ok(body.items.every((i) => i.youCoded === false));
     },
   },
+  {
+    name: 'two tabs assign the same reference: the first wins, the stale tab is told it is already being coded',
+    async run(page) {
+      await signInThroughPage(page, 'curator');
+      const cands = await apiJson<{ items: { id: number; title: string; claims: unknown[]; assignmentState: string | null }[] }>(page, '/api/assignments/candidates?pageSize=100');
+      const target = cands.items.find((c) => c.claims.length === 0 && c.assignmentState === null);
+      assert.ok(target, 'the demo data has an unassigned reference');
+      const coders = await apiJson<{ items: { id: number; login: string }[] }>(page, '/api/assignments/coders');
+      const id = (login: string) => String(coders.items.find((c) => c.login === login)!.id);
+      const open = async (p: Page) => {
+        await p.goto(appUrl('/assignments'));
+        await p.getByPlaceholder('title or first author').fill(target.title.slice(0, 40));
+        const row = p.getByRole('row').filter({ has: p.getByTestId(`claims-${target.id}`) });
+        await row.getByRole('combobox', { name: /^First coder/ }).selectOption(id('coder1'));
+        await row.getByRole('combobox', { name: /^Second coder/ }).selectOption(id('coder2'));
+        return row;
+      };
+      const stale = await page.context().newPage();
+      const staleRow = await open(stale);
+      const row = await open(page);
+      await row.getByRole('button', { name: 'Assign' }).click();
+      await page.getByRole('status').getByText(/Assigned; both coders are e-mailed/).waitFor();
+      await staleRow.getByRole('button', { name: 'Assign' }).click();
+      await stale.getByText(/already being double coded/).first().waitFor();
+    },
+  },
 ];
