@@ -36,9 +36,13 @@ plugins.add('@doi', {
 export class DoiLookupError extends Error {
   constructor(
     message: string,
-    readonly kind: 'not_found' | 'timeout' | 'resolver_error' | 'bad_record',
+    readonly kind: 'not_found' | 'timeout' | 'resolver_error' | 'bad_record' | 'unreachable',
   ) {
     super(message);
+  }
+  /** The resolver is away (refused or dropped connection, a gateway's 502/503/504): worth asking again later. */
+  get transient(): boolean {
+    return this.kind === 'unreachable';
   }
 }
 
@@ -94,8 +98,9 @@ async function resolveDoi(url: string, timeoutMs: number): Promise<Csl> {
     if (err instanceof DoiLookupError) throw err;
     const status = (err as { status?: number }).status;
     if (status === 404) throw new DoiLookupError('no such DOI at the resolver (404)', 'not_found');
+    if (status === 502 || status === 503 || status === 504) throw new DoiLookupError(`the DOI resolver is unavailable (HTTP ${status})`, 'unreachable');
     if (status) throw new DoiLookupError(`the DOI resolver failed (HTTP ${status})`, 'resolver_error');
-    throw new DoiLookupError(`the DOI resolver could not be reached (${(err as Error).message})`, 'resolver_error');
+    throw new DoiLookupError(`the DOI resolver could not be reached (${(err as Error).message})`, 'unreachable');
   } finally {
     clearTimeout(timer);
   }

@@ -1,4 +1,5 @@
 import type { Knex } from 'knex';
+import { DoiLookupError } from '../adapters/citations.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportPage, type ImportResult } from '../../shared/schemas/references.js';
 import { NotFoundError } from '../lib/errors.js';
@@ -17,6 +18,13 @@ import { findDuplicate, offerDuplicate } from './references.js';
 import { syncReferences } from './search.js';
 
 export const DOI_QUEUE = 'doi.resolve';
+/**
+ * A job whose look-ups found the resolver away fails, so pg-boss runs it again with exponential backoff (as mail:
+ * 11 retries from 2 s span at least 68 min); only entries still pending are asked again, and the last attempt
+ * rejects what is still unanswered.
+ */
+export const DOI_RETRY = { retryLimit: 11, retryDelay: 2, retryBackoff: true } as const;
+export const RESOLVER_UNREACHABLE = 'resolver unreachable, will retry';
 const DOI_CHUNK = 10;
 const DOI_CONCURRENCY = 4;
 
@@ -154,23 +162,44 @@ export async function importDois(ctx: Pick<Deps, 'db' | 'search' | 'jobs' | 'doi
   if (!pending.length) await finishIfDone(ctx.db, batchId);
   else if (ctx.jobs) {
     for (let i = 0; i < pending.length; i += DOI_CHUNK) {
-      await ctx.jobs.send(DOI_QUEUE, { batchId, entries: pending.slice(i, i + DOI_CHUNK) }, { retryLimit: 2 });
+      await ctx.jobs.send(DOI_QUEUE, { batchId, entries: pending.slice(i, i + DOI_CHUNK) }, DOI_RETRY);
     }
   } else {
-    // No workers in this process (JOBS_ENABLED=false): resolve here, after answering.
-    setImmediate(() => {
-      resolveDoiEntries(ctx, { batchId, entries: pending }).catch((err) => console.error('[imports] DOI batch failed:', (err as Error).message));
-    });
+    // No workers in this process (JOBS_ENABLED=false): resolve here, after answering, on the same schedule.
+    const attempt = (retryCount: number) => {
+      resolveDoiEntries(ctx, { batchId, entries: pending }, { final: retryCount >= DOI_RETRY.retryLimit }).then(
+        (waiting) => {
+          if (waiting) setTimeout(() => attempt(retryCount + 1), DOI_RETRY.retryDelay * 1000 * 2 ** retryCount).unref();
+        },
+        (err) => console.error('[imports] DOI batch failed:', (err as Error).message),
+      );
+    };
+    setImmediate(() => attempt(0));
   }
   return getImport(ctx.db, batchId);
 }
 
-/** The `doi.resolve` job: resolves pending entries of a batch; safe to run twice (only pending entries are touched). */
-export async function resolveDoiEntries(ctx: Pick<Deps, 'db' | 'search' | 'doi'>, job: { batchId: number; entries: number[] }): Promise<void> {
+/** The `doi.resolve` job handler: a look-up that found the resolver away fails the job, so pg-boss retries it. */
+export async function resolveDoiJob(ctx: Pick<Deps, 'db' | 'search' | 'doi'>, job: { batchId: number; entries: number[] }, retryCount: number): Promise<void> {
+  const waiting = await resolveDoiEntries(ctx, job, { final: retryCount >= DOI_RETRY.retryLimit });
+  if (waiting) throw new Error(`${waiting} DOI look-ups of batch ${job.batchId}: ${RESOLVER_UNREACHABLE}`);
+}
+
+/**
+ * Resolves pending entries of a batch; safe to run twice (only pending entries are touched). An entry whose
+ * look-up found the resolver unreachable stays pending and says it will be retried (rejected on the final
+ * attempt); returns how many wait so.
+ */
+export async function resolveDoiEntries(
+  ctx: Pick<Deps, 'db' | 'search' | 'doi'>,
+  job: { batchId: number; entries: number[] },
+  attempt: { final: boolean } = { final: true },
+): Promise<number> {
   const batch = await findBatch(ctx.db, job.batchId);
-  if (!batch) return;
+  if (!batch) return 0;
   const rows = await pendingEntries(ctx.db, job.batchId, job.entries);
   const created: number[] = [];
+  let waiting = 0;
   let next = 0;
   const worker = async () => {
     while (next < rows.length) {
@@ -202,7 +231,13 @@ export async function resolveDoiEntries(ctx: Pick<Deps, 'db' | 'search' | 'doi'>
           };
         });
       } catch (err) {
-        update = { status: 'rejected', message: `${where}: ${doi}: ${(err as Error).message}` };
+        const away = err instanceof DoiLookupError && err.transient;
+        if (away && !attempt.final) {
+          waiting++;
+          update = { status: 'pending', message: `${where}: ${doi}: ${RESOLVER_UNREACHABLE} (${(err as Error).message})` };
+        } else {
+          update = { status: 'rejected', message: `${where}: ${doi}: ${(err as Error).message}${away ? ' (the last of the retries)' : ''}` };
+        }
       }
       await settleEntry(ctx.db, row.batch_id, row.idx, update);
     }
@@ -210,6 +245,7 @@ export async function resolveDoiEntries(ctx: Pick<Deps, 'db' | 'search' | 'doi'>
   await Promise.all(Array.from({ length: Math.min(DOI_CONCURRENCY, rows.length) }, worker));
   await syncReferences(ctx, created);
   await finishIfDone(ctx.db, job.batchId);
+  return waiting;
 }
 
 async function finishIfDone(db: Knex, batchId: number) {

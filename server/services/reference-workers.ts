@@ -1,11 +1,11 @@
 import type { JobQueue } from '../adapters/jobs.js';
 import type { Deps } from './deps.js';
-import { DOI_QUEUE, resolveDoiEntries } from './imports.js';
+import { DOI_QUEUE, resolveDoiJob } from './imports.js';
 import { ensureReferenceIndex } from './search.js';
 
 /** Background work of the references feature: DOI resolution (two workers) and filling the index at start. */
 export async function registerReferenceWorkers(deps: Pick<Deps, 'db' | 'search' | 'doi'> & { jobs: JobQueue }): Promise<void> {
-  const handler = (data: { batchId: number; entries: number[] }) => resolveDoiEntries(deps, data);
+  const handler = (data: { batchId: number; entries: number[] }, job: { retryCount: number }) => resolveDoiJob(deps, data, job.retryCount);
   await deps.jobs.work(DOI_QUEUE, handler);
   await deps.jobs.work(DOI_QUEUE, handler);
   // A fresh or restarted search server knows nothing: fill it without holding up the start.
