@@ -57,7 +57,7 @@ export function snapshotsRouter(ctx: AppContext) {
 
   router.get('/snapshots/:id/methods.txt', async (req, res) => {
     const s = await load(req.params);
-    res.type('text/plain; charset=utf-8').send(`${s.methods}\n`);
+    res.type('text/plain; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}-methods.txt`)).send(`${s.methods}\n`);
   });
 
   return router;

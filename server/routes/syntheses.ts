@@ -2,8 +2,8 @@ import { Router } from 'express';
 import type { AppContext } from '../context.js';
 import { perMinuteLimit } from '../lib/rate-limit.js';
 import { parseInput } from '../lib/validate.js';
-import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
-import { registrySynthesis, synthesisFacets } from '../services/synthesis.js';
+import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
+import { liveSynthesisExport, registrySynthesis, synthesisFacets } from '../services/synthesis.js';
 import { RegistryCache } from '../services/registry-cache.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
@@ -25,6 +25,14 @@ export function synthesesRouter(ctx: AppContext) {
       return registrySynthesis(ctx.db, request);
     });
     res.set('X-Synthesis-Cache', computed ? 'miss' : 'hit').type('application/json').send(body);
+  });
+
+  // A link (GET) so a browser downloads it as it is and a script can fetch it; the name carries the registry version.
+  router.get('/syntheses/export/:file', anonymousLimit, async (req, res) => {
+    const { file } = parseInput(synthesisExportPathSchema, req.params, 'path');
+    const { request } = parseInput(synthesisExportQuerySchema, req.query, 'query');
+    const out = await liveSynthesisExport(ctx.db, request, file);
+    res.type(out.type).set('Content-Disposition', `attachment; filename="${out.name}"`).send(out.body);
   });
 
   router.get('/syntheses/facets', async (_req, res) => {

@@ -1,7 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import type { Knex } from 'knex';
-import Papa from 'papaparse';
 import { NotFoundError } from '../lib/errors.js';
 import { toBibtex } from '../adapters/citations.js';
 import { recordAudit } from '../repositories/audit.js';
@@ -14,6 +13,7 @@ import { synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
 import { pageOf } from '../../shared/schemas/common.js';
+import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import { METHOD_LABELS, type CreatedSnapshot, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
@@ -144,70 +144,11 @@ export function snapshotView(s: StoredSnapshot, appOrigin: string): SnapshotView
   };
 }
 
-/** One row per pooled unit (what was pooled, analysis-ready): re-pooling effect and variance gives the snapshot's numbers. */
-export function snapshotCsv(s: StoredSnapshot): string {
-  const byId = new Map(s.effects.map((e) => [e.id, e]));
-  const refs = new Map(s.references.map((r) => [r.id, r]));
-  const uniq = (xs: Array<string | number | null>) => [...new Set(xs.filter((x) => x != null))].join(';');
-  const subgroup = s.output.request.subgroup;
-  const rows = s.output.rows.map((r) => {
-    const es = r.effectIds.map((id) => byId.get(id)!).filter(Boolean);
-    const std = es.map((e) => e.standardMs).filter((x): x is number => x != null);
-    return {
-      reference_id: r.referenceId,
-      reference: es[0]?.referenceLabel ?? '',
-      doi: refs.get(r.referenceId)?.doi ?? '',
-      study_id: r.studyId,
-      study: es[0]?.studyLabel ?? '',
-      label: r.label,
-      year: r.year ?? '',
-      n: r.n ?? '',
-      metric: s.output.metric,
-      manipulation: uniq(es.map((e) => e.manipulation)),
-      outcome: uniq(es.map((e) => e.outcome)),
-      population: uniq(es.map((e) => e.population)),
-      modality: uniq(es.map((e) => e.modality)),
-      task: uniq(es.map((e) => e.task)),
-      design: uniq(es.map((e) => e.design)),
-      standard_ms: std.length ? std.reduce((a, b) => a + b, 0) / std.length : '',
-      effect: r.effect,
-      variance: r.variance,
-      se: Math.sqrt(r.variance),
-      weight_percent: r.weight,
-      effects_combined: r.effectIds.length,
-      effect_ids: r.effectIds.join(';'),
-      ...(subgroup ? { subgroup: r.subgroup ?? '' } : {}),
-    };
-  });
-  return Papa.unparse(rows, { newline: '\n' }) + '\n';
-}
+/** One row per pooled unit (see studiesCsv). */
+export const snapshotCsv = (s: StoredSnapshot) => studiesCsv(s.output, s.effects);
 
-/** Every settled effect as it was coded (before combining within studies). */
-export function snapshotEffectsCsv(s: StoredSnapshot): string {
-  const rows = s.effects.map((e) => ({
-    effect_id: e.id,
-    reference_id: e.referenceId,
-    reference: e.referenceLabel,
-    doi: e.doi ?? '',
-    study_id: e.studyId,
-    study: e.studyLabel,
-    year: e.year ?? '',
-    n: e.n ?? '',
-    metric: e.metric,
-    manipulation: e.manipulation,
-    outcome: e.outcome,
-    population: e.population ?? '',
-    modality: e.modality ?? '',
-    task: e.task ?? '',
-    design: e.design ?? '',
-    standard_ms: e.standardMs ?? '',
-    effect: e.effect,
-    variance: e.variance,
-    formula: e.formula,
-    label: e.label,
-  }));
-  return Papa.unparse(rows, { newline: '\n' }) + '\n';
-}
+/** Every settled effect as it was coded. */
+export const snapshotEffectsCsv = (s: StoredSnapshot) => effectsCsv(s.effects);
 
 export function snapshotBibtex(s: StoredSnapshot): string {
   const records = s.references.map((r) => ({ ...r.csl, id: (r.csl.id as string | undefined) ?? `ref${r.id}` }));

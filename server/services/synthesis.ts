@@ -1,7 +1,10 @@
 import type { Knex } from 'knex';
 import { settledEffectsAt, settledEffectsFor } from './settled-effects-cache.js';
 import { UnprocessableError } from '../lib/errors.js';
-import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { querySettledEffects } from '../repositories/effects.js';
+import { currentRegistryVersion } from '../repositories/registry-version.js';
+import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
+import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest, SYNTHESIS_EXPORT_FILES } from '../../shared/schemas/synthesis.js';
 import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
 import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
 
@@ -26,6 +29,26 @@ export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: S
 export async function registrySynthesis(db: Knex, request: SynthesisRequest): Promise<SynthesisAnswer> {
   const { registryVersion, output } = await synthesizeRegistry(db, request);
   return { registryVersion, ...output };
+}
+
+/**
+ * A live synthesis as a download (no snapshot is saved): the rows, the effects and the registry version come
+ * from one consistent view of the registry, and the file name carries that version.
+ */
+export async function liveSynthesisExport(db: Knex, request: SynthesisRequest, file: (typeof SYNTHESIS_EXPORT_FILES)[number]) {
+  const { registryVersion, effects, output } = await db.transaction(
+    async (trx) => {
+      const version = await currentRegistryVersion(trx);
+      const rows = await querySettledEffects(trx, request.filters);
+      return { registryVersion: version, effects: rows, output: synthesize(rows, request) };
+    },
+    { isolationLevel: 'repeatable read', readOnly: true },
+  );
+  const stem = `chronometa-synthesis-v${registryVersion}`;
+  if (file === 'studies.csv') return { name: `${stem}-studies.csv`, type: 'text/csv; charset=utf-8', body: studiesCsv(output, effects) };
+  if (file === 'effects.csv') return { name: `${stem}-effects.csv`, type: 'text/csv; charset=utf-8', body: effectsCsv(effects) };
+  const answer: SynthesisAnswer & { effects: typeof effects } = { registryVersion, ...output, effects };
+  return { name: `${stem}.json`, type: 'application/json; charset=utf-8', body: JSON.stringify(answer) };
 }
 
 /** Distinct filter values among settled effects, with counts (for the synthesis form). */

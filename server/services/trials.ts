@@ -2,7 +2,7 @@
 // worker-thread pool, the effect two conditions give, and the downloads (the sheet's coder and curators; then
 // the snapshots that use them).
 import type { Knex } from 'knex';
-import Papa from 'papaparse';
+import { toCsv, type CsvCell } from '../../shared/export/csv.js';
 import { hasRole } from '../../shared/roles.js';
 import type { Sheet } from '../../shared/schemas/extraction.js';
 import type { ContrastAnswer, Derivation, TrialSet, TrialSetDetail, TrialSetList, TrialUpload } from '../../shared/schemas/trials.js';
@@ -278,7 +278,7 @@ export async function refreshDerivations(trx: Knex.Transaction, extractionId: nu
   return sheet;
 }
 
-const csvOf = (rows: Record<string, unknown>[]) => Papa.unparse(rows, { newline: '\n' }) + '\n';
+const csvOf = (rows: Array<Record<string, CsvCell>>) => toCsv(rows);
 
 function trialsCsvRows(set: TrialSetRow, rows: Awaited<ReturnType<typeof trialRowsOf>>, withSet: boolean) {
   return rows.map((r) => ({
@@ -299,7 +299,7 @@ export async function trialSetCsv(db: Knex, actor: Actor, setId: number): Promis
 /** The trials behind a snapshot's effects derived from trial data (as counts per level, one file for all sets). */
 export async function snapshotTrialsCsv(db: Knex, effectIds: number[]): Promise<string> {
   const sets = await trialSetsByIds(db, await trialSetIdsOfEffects(db, effectIds));
-  const out: Record<string, unknown>[] = [];
+  const out: Array<Record<string, CsvCell>> = [];
   for (const set of sets) {
     for (const r of await trialRowsOf(db, set.id)) {
       out.push({ trial_set_id: set.id, trial_set: set.label, task: set.task, participant: r.participant, condition: r.condition, level: r.level, n: r.n, k: r.k });

@@ -80,6 +80,24 @@ export const snapshotListQuerySchema = pagingSchema(['created_at', 'k', 'estimat
 
 export const snapshotCreateSchema = synthesisRequestSchema.extend({ title: z.string().trim().min(1).max(200).optional() });
 
+/** GET /api/syntheses/export/:file?request=<the synthesis request as JSON>: a live synthesis as a download, without freezing it. */
+export const SYNTHESIS_EXPORT_FILES = ['studies.csv', 'effects.csv', 'synthesis.json'] as const;
+export const synthesisExportPathSchema = z.object({ file: z.enum(SYNTHESIS_EXPORT_FILES, { message: 'choose studies.csv, effects.csv or synthesis.json' }) });
+export const synthesisExportQuerySchema = z.object({
+  request: z
+    .string({ message: 'give the synthesis request as JSON in the request parameter' })
+    .max(20_000)
+    .transform((text, ctx) => {
+      try {
+        return JSON.parse(text) as unknown;
+      } catch {
+        ctx.addIssue({ code: 'custom', message: 'the request parameter is not valid JSON' });
+        return z.NEVER;
+      }
+    })
+    .pipe(synthesisRequestSchema),
+});
+
 export const atlasSlugSchema = z.object({ slug: z.string().trim().min(1).max(120) });
 
 // ---- answers (the engine's own output types come from shared/synthesis and shared/stats, wrapped here)

@@ -10,6 +10,8 @@ describeAccess(
   [
     { method: 'post', path: '/api/syntheses', body, who: 'anyone', bad: { body: { method: 'median', dependence: { mode: 'aggregate', r: 3 } } } },
     { method: 'get', path: '/api/syntheses/facets', who: 'anyone' },
+    { method: 'get', path: `/api/syntheses/export/studies.csv?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/studies.csv?request=%7B' } },
+    { method: 'get', path: `/api/syntheses/export/synthesis.json?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/slides.pptx?request=%7B%7D' } },
     { method: 'get', path: '/api/snapshots', who: 'anyone', bad: { path: '/api/snapshots?sort=password&pageSize=0' } },
     { method: 'post', path: '/api/snapshots', body, who: ['reviewer'], bad: { body: { filters: { yearFrom: 'soon' } } } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}`, who: 'anyone', bad: { path: '/api/snapshots/NOT_AN_ID!' } },

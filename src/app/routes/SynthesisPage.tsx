@@ -11,6 +11,7 @@ import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useHasRole, useMe } from '../../features/auth/api/get-me';
 import { useFacets } from '../../features/synthesis/api/get-facets';
 import { useSynthesis } from '../../features/synthesis/api/run-synthesis';
+import { synthesisExportHref } from '../../features/synthesis/api/export-synthesis';
 import { DEFAULT_REQUEST, decodeRequest, encodeRequest, requestToFormValues, synthesisFormSchema, type SynthesisFormValues } from '../../features/synthesis/codec';
 import { SynthesisFormPanel } from '../../features/synthesis/components/SynthesisFormPanel';
 import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
@@ -112,7 +113,31 @@ export function SynthesisPage() {
             )}
             <p className="ml-auto text-xs text-ink-faint">Computed on registry version {synthesis.data?.registryVersion}</p>
           </section>
-          <SynthesisResults data={data} Figure={PlotFigure} fileStem="chronometa-synthesis" />
+          <section aria-label="Export this synthesis" className="mt-3 text-sm">
+            <h2 className="text-base">Export without saving</h2>
+            <ul className="flex flex-wrap gap-x-5 gap-y-1">
+              <li>
+                <a href={synthesisExportHref(submitted, 'studies.csv')} download>
+                  ↓ CSV, one row per study pooled
+                </a>
+              </li>
+              <li>
+                <a href={synthesisExportHref(submitted, 'effects.csv')} download>
+                  ↓ CSV, every effect as coded
+                </a>
+              </li>
+              <li>
+                <a href={synthesisExportHref(submitted, 'synthesis.json')} download>
+                  ↓ JSON
+                </a>
+              </li>
+            </ul>
+            <p className="mt-1 text-xs text-ink-faint">
+              Computed on today’s registry (the file names carry its version); figures download as SVG or PNG beside each plot. Save a snapshot for a
+              version that never changes.
+            </p>
+          </section>
+          <SynthesisResults data={data} Figure={PlotFigure} fileStem={`chronometa-synthesis-v${data.registryVersion}`} />
         </>
       )}
     </div>

@@ -1,0 +1,41 @@
+import assert from 'node:assert/strict';
+import { readFile } from 'node:fs/promises';
+import type { Page } from 'playwright-core';
+import type { Spec } from './run.js';
+import { appUrl } from './browser.js';
+
+const forestSvg = 'figure[aria-label="Forest plot"] svg.main-svg';
+
+async function runLuminance(page: Page) {
+  await page.goto(appUrl('/synthesis'));
+  await page.getByLabel('Manipulation').selectOption(['luminance']);
+  await page.getByLabel('Outcome kind').selectOption('duration_distortion');
+  await page.getByLabel('Metric').selectOption('hedges_g');
+  await page.getByRole('button', { name: 'Run synthesis' }).click();
+  await page.getByTestId('pooled-estimate').waitFor({ timeout: 40_000 });
+}
+
+async function download(page: Page, link: RegExp) {
+  const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('region', { name: 'Export this synthesis' }).getByRole('link', { name: link }).click()]);
+  return { name: file.suggestedFilename(), text: await readFile((await file.path())!, 'utf8') };
+}
+
+export const specs: Spec[] = [
+  {
+    name: 'signed out, a live synthesis downloads per-study and per-effect CSV and JSON named by the registry version, without saving',
+    async run(page) {
+      await runLuminance(page);
+      const studies = await download(page, /one row per study/);
+      assert.match(studies.name, /^chronometa-synthesis-v\d+-studies\.csv$/);
+      assert.match(studies.text.split('\n')[0], /effect,variance/);
+      const rows = await page.getByRole('table', { name: /one row per study/i }).locator('tbody tr').count();
+      assert.equal(studies.text.trim().split('\n').length - 1, rows);
+      const effects = await download(page, /every effect as coded/);
+      assert.match(effects.name, /^chronometa-synthesis-v\d+-effects\.csv$/);
+      const json = await download(page, /JSON/);
+      assert.match(json.name, /^chronometa-synthesis-v\d+\.json$/);
+      assert.equal(typeof JSON.parse(json.text).result.estimate, 'number');
+      await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
+    },
+  },
+];
