@@ -6,6 +6,7 @@ import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest, SYNTHESIS_EXPORT_FILES } from '../../shared/schemas/synthesis.js';
 import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
+import { MultilevelModelError } from '../../shared/synthesis/run-multilevel.js';
 import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
 
 /** Runs the pure pipeline, turning its refusals into 422s that say what to do. */
@@ -15,6 +16,7 @@ export function synthesize(effects: readonly SettledEffect[], request: Synthesis
   } catch (err) {
     if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics });
     if (err instanceof NoEffectsError) throw new UnprocessableError(err.message, { effects: 0 });
+    if (err instanceof MultilevelModelError) throw new UnprocessableError(err.message, { dependence: 'multilevel' });
     throw err;
   }
 }

@@ -35,6 +35,9 @@ export interface ForestInput {
   subgroups?: ForestSummary[];
   /** rows beyond this are left out (largest weights kept) with a note */
   maxRows?: number;
+  /** "paper": the groups are papers (three-level model), each closed by its paper-level line; groups left
+   * without a row after the cut are not drawn */
+  grouping?: 'subgroup' | 'paper';
 }
 
 export const FOREST_MAX_ROWS = 300;
@@ -66,23 +69,31 @@ export function forestFigure(input: ForestInput): PlotFigure {
     omitted = input.studies.length - studies.length;
   }
   const grouped = !!input.subgroups?.length;
-  const groups = grouped ? input.subgroups!.map((g) => g.key ?? g.label) : [''];
+  const byPaper = input.grouping === 'paper';
+  const summaries = new Map((input.subgroups ?? []).map((g) => [g.key ?? g.label, g]));
+  const buckets = new Map<string, ForestStudy[]>();
+  for (const s of studies) {
+    const g = grouped ? (s.group ?? '') : '';
+    const b = buckets.get(g);
+    if (b) b.push(s);
+    else buckets.set(g, [s]);
+  }
+  const groups = grouped ? [...summaries.keys()].filter((g) => !byPaper || buckets.has(g)) : [''];
 
   // Rows top to bottom; y = −index.
   type Row = { kind: 'study'; s: ForestStudy; lo: number; hi: number } | { kind: 'header'; text: string } | { kind: 'diamond'; d: ForestSummary; sub: boolean } | { kind: 'pi'; d: ForestSummary } | { kind: 'gap' };
   const rows: Row[] = [];
   for (const g of groups) {
-    const summaryOf = grouped ? input.subgroups!.find((x) => (x.key ?? x.label) === g)! : null;
+    const summaryOf = grouped ? summaries.get(g)! : null;
     if (summaryOf) rows.push({ kind: 'header', text: summaryOf.label });
-    for (const s of studies) {
-      if (grouped && s.group !== g) continue;
+    for (const s of buckets.get(g) ?? []) {
       const half = z * Math.sqrt(s.variance);
       rows.push({ kind: 'study', s, lo: s.effect - half, hi: s.effect + half });
     }
     if (summaryOf) {
       const d = summaryOf;
-      rows.push({ kind: 'diamond', d: { ...d, label: `Subgroup: ${d.label}` }, sub: true });
-      rows.push({ kind: 'gap' });
+      rows.push({ kind: 'diamond', d: { ...d, label: byPaper ? `Paper estimate` : `Subgroup: ${d.label}` }, sub: true });
+      if (!byPaper) rows.push({ kind: 'gap' });
     }
   }
   if (!grouped) rows.push({ kind: 'gap' });
@@ -171,7 +182,7 @@ export function forestFigure(input: ForestInput): PlotFigure {
         text: `${d.label}: ${fmt(d.estimate, digits)} [${fmt(d.ci_lower, digits)}, ${fmt(d.ci_upper, digits)}]`,
         hoveron: 'fills',
         name: d.label,
-        meta: r.sub ? 'subgroup' : 'pooled',
+        meta: r.sub ? (byPaper ? 'paper' : 'subgroup') : 'pooled',
       });
       colLabel.y.push(y);
       colLabel.text.push(`<b>${clip(d.label)}</b>`);

@@ -39,9 +39,22 @@ export const ONE_PER_STUDY_LABELS: Record<OnePerStudyRule, string> = {
   first_coded: 'the first effect coded for the study',
 };
 
+/** The correlations of the aggregate mode's sensitivity table. */
+export const SENSITIVITY_RS = [0, 0.2, 0.4, 0.6, 0.8, 0.9] as const;
+
 export const dependenceSchema = z.discriminatedUnion('mode', [
-  z.object({ mode: z.literal('aggregate'), r: z.number().min(0).max(1).default(0.5) }).strict(),
+  z
+    .object({
+      mode: z.literal('aggregate'),
+      r: z.number().min(0).max(1).default(0.5),
+      /** metafor's inverse-variance composite (aggregate.escalc, weighted = TRUE) instead of the plain mean */
+      weighted: z.boolean().optional(),
+    })
+    .strict()
+    .refine((d) => !d.weighted || d.r < 1, { message: 'the inverse-variance composite needs r below 1', path: ['r'] }),
   z.object({ mode: z.literal('one'), rule: z.enum(ONE_PER_STUDY_RULES).default('largest_n') }).strict(),
+  /** the three-level model (effects within papers), with the CR2 robust variance when robust */
+  z.object({ mode: z.literal('multilevel'), robust: z.boolean().default(true) }).strict(),
 ]);
 export type Dependence = z.infer<typeof dependenceSchema>;
 

@@ -9,6 +9,8 @@ export interface AggregateInput {
   studies: ArrayLike<string | number>;
   /** the assumed correlation between effects from the same study, stated by the analyst */
   r: number;
+  /** metafor's inverse-variance composite (aggregate.escalc, struct = "CS", weighted = TRUE) instead of the mean */
+  weighted?: boolean;
 }
 
 export interface AggregateResult {
@@ -25,6 +27,10 @@ export interface AggregateResult {
  * ȳ = (1/m)Σyᵢ with variance (1/m)²(Σvᵢ + Σᵢ≠ⱼ r·√(vᵢvⱼ)), r the stated correlation between the
  * study's effects (r = 1 when they measure the same thing on the same people, 0 for independent
  * subgroups). Studies keep the order of first appearance. Input: −1 ≤ r ≤ 1.
+ * weighted: the generalised-least-squares composite under the same compound-symmetric covariance V
+ * (V_ii = v_i, V_ij = r·√(v_iv_j)): ȳ = 1ᵀV⁻¹y / 1ᵀV⁻¹1 with variance 1/1ᵀV⁻¹1, as metafor's aggregate.escalc
+ * with weighted = TRUE. With s_i = 1/√v_i, V⁻¹ = D⁻¹R⁻¹D⁻¹ and R⁻¹ = (I − r/(1 + (m − 1)r)·11ᵀ)/(1 − r) give
+ * 1ᵀV⁻¹a = (Σs_i²a_i − c·Σs_i·Σs_ia_i)/(1 − r), c = r/(1 + (m − 1)r); needs r < 1.
  * Example: aggregateWithinStudy({ effects: [0.4, 0.6], variances: [0.04, 0.04], studies: ['s', 's'], r: 0.5 }) → effect 0.5, variance 0.03.
  */
 export function aggregateWithinStudy(input: AggregateInput): AggregateResult {
@@ -32,6 +38,9 @@ export function aggregateWithinStudy(input: AggregateInput): AggregateResult {
   const { y, v } = prepareData(input.effects, input.variances);
   const r = input.r;
   if (typeof r !== 'number' || !(r >= -1 && r <= 1)) throw new StatsInputError('r must be a correlation between -1 and 1', 'r');
+  const weighted = input.weighted === true;
+  if (input.weighted !== undefined && typeof input.weighted !== 'boolean') throw new StatsInputError('weighted must be true or false', 'weighted');
+  if (weighted && !(r < 1)) throw new StatsInputError('the inverse-variance (weighted) composite needs r < 1: at r = 1 the effects of a study are one value', 'r');
   const s = input.studies as ArrayLike<unknown>;
   if (!s || typeof s !== 'object' || s.length !== y.length)
     throw new StatsInputError(`studies must have one id per effect (${y.length})`, 'studies');
@@ -45,6 +54,24 @@ export function aggregateWithinStudy(input: AggregateInput): AggregateResult {
   const out: AggregateResult = { studies: [], effects: [], variances: [], counts: [], r };
   for (const [id, idx] of members) {
     const m = idx.length;
+    if (weighted && m > 1) {
+      const c = r / (1 + (m - 1) * r);
+      let s1 = 0, s2 = 0, s2y = 0, s1y = 0;
+      for (const i of idx) {
+        const si = 1 / Math.sqrt(v[i]);
+        s1 += si;
+        s2 += si * si;
+        s1y += si * y[i];
+        s2y += si * si * y[i];
+      }
+      const precision = (s2 - c * s1 * s1) / (1 - r);
+      if (!(precision > 0)) throw new StatsInputError(`study ${JSON.stringify(id)}: r = ${r} gives a non-positive combined variance`, 'r');
+      out.studies.push(id);
+      out.effects.push((s2y - c * s1 * s1y) / (1 - r) / precision);
+      out.variances.push(1 / precision);
+      out.counts.push(m);
+      continue;
+    }
     let sy = 0;
     let sv = 0;
     let sqrtSum = 0;

@@ -5,18 +5,18 @@ export const NOT_CLINICAL =
   'This is research synthesis, not clinical guidance: for any clinical decision defer to licensed practice and local guidelines.';
 
 /** The field's usual cautions for one result; the last one always applies. */
-export function cautionsFor(result: PoolResult, studies: number): Caution[] {
+export function cautionsFor(result: PoolResult, studies: number, [one, many]: [string, string] = ['study', 'studies']): Caution[] {
   const out: Caution[] = [];
   if (studies === 1) out.push({ code: 'single_study', text: 'Only one study matches: the “pooled” value is that study’s own estimate.' });
   if (studies < 5 && result.method !== 'FE' && !result.hksj)
     out.push({
       code: 'few_studies_dl',
-      text: `Only ${studies} ${studies === 1 ? 'study' : 'studies'}: with fewer than 5 studies the usual random-effects interval (DerSimonian–Laird in particular) understates uncertainty; consider the Hartung–Knapp–Sidik–Jonkman adjustment.`,
+      text: `Only ${studies} ${studies === 1 ? one : many}: with fewer than 5 ${many} the usual random-effects interval (DerSimonian–Laird in particular) understates uncertainty; consider the Hartung–Knapp–Sidik–Jonkman adjustment.`,
     });
   if (studies < 10)
     out.push({
       code: 'few_studies_tests',
-      text: `Fewer than 10 studies (${studies}): asymmetry tests (Egger, Begg, trim-and-fill), subgroup comparisons and meta-regression are unreliable.`,
+      text: `Fewer than 10 ${many} (${studies}): asymmetry tests (Egger, Begg, trim-and-fill), subgroup comparisons and meta-regression are unreliable.`,
     });
   if (result.I2 != null && result.I2 > 75)
     out.push({

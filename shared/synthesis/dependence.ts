@@ -46,12 +46,12 @@ function pickOne(group: SettledEffect[], rule: OnePerStudyRule): SettledEffect {
  * One unit per study so that no study counts twice: either the study's effects combined with the stated
  * correlation between them, or one effect kept by a stated rule.
  */
-export function applyDependence(effects: readonly SettledEffect[], dependence: Dependence): StudyUnit[] {
+export function applyDependence(effects: readonly SettledEffect[], dependence: Exclude<Dependence, { mode: 'multilevel' }>): StudyUnit[] {
   const groups = groupByStudy(effects);
   // one engine call for every study; studies come back in order of first appearance, as groupByStudy's
   const combined =
     dependence.mode === 'aggregate'
-      ? aggregateWithinStudy({ effects: effects.map((e) => e.effect), variances: effects.map((e) => e.variance), studies: effects.map((e) => e.studyId), r: dependence.r })
+      ? aggregateWithinStudy({ effects: effects.map((e) => e.effect), variances: effects.map((e) => e.variance), studies: effects.map((e) => e.studyId), r: dependence.r, weighted: dependence.weighted })
       : null;
   // Plain literals, no object spread: spread is transpiled to a slow helper, 20× the cost for 20,000 studies.
   return groups.map((group, gi): StudyUnit => {

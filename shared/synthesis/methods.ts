@@ -1,4 +1,4 @@
-import { METHOD_LABELS, ONE_PER_STUDY_LABELS, type Dependence, type SynthesisRequest } from '../schemas/synthesis.js';
+import { METHOD_LABELS, ONE_PER_STUDY_LABELS, SENSITIVITY_RS, type Dependence, type SynthesisRequest } from '../schemas/synthesis.js';
 
 export interface PrismaCounts {
   /** records in the registry (every reference, duplicates included) */
@@ -29,10 +29,29 @@ const CITATION: Record<SynthesisRequest['method'], string> = {
   FE: '',
 };
 
-export function dependenceSentence(d: Dependence): string {
-  return d.mode === 'aggregate'
-    ? `Where a study reported several effects, they were combined into one composite per study assuming a correlation of r = ${d.r.toFixed(2)} between them (Borenstein, Hedges, Higgins & Rothstein, 2009, ch. 24), so that no study counts twice.`
-    : `Where a study reported several effects, one was kept per study: ${ONE_PER_STUDY_LABELS[d.rule]}.`;
+export function dependenceSentence(d: Dependence, papers?: number): string {
+  if (d.mode === 'multilevel')
+    return (
+      `Every effect was kept; effects were nested in their papers in a three-level random-effects model (effects within ${papers != null ? `${papers} ${papers === 1 ? 'paper' : 'papers'}` : 'papers'} as clusters; Konstantopoulos, 2011; Cheung, 2014), its between-paper and within-paper variances estimated by restricted maximum likelihood, so that no paper counts twice.` +
+      (d.robust
+        ? ' The pooled test and interval used the cluster-robust CR2 variance estimator, clustered by paper, with Satterthwaite degrees of freedom (Tipton, 2015; Pustejovsky & Tipton, 2018).'
+        : ' The pooled test and interval used the model-based variance.')
+    );
+  if (d.mode === 'aggregate')
+    return d.weighted
+      ? `Where a study reported several effects, they were combined into one inverse-variance composite per study under a compound-symmetric covariance with r = ${d.r.toFixed(2)} between them (generalised least squares, as metafor's aggregate.escalc with weighted = TRUE; Viechtbauer, 2010), so that no study counts twice; a sensitivity table repeats the analysis at r = ${SENSITIVITY_RS.join(', ')}.`
+      : `Where a study reported several effects, they were combined into one composite per study assuming a correlation of r = ${d.r.toFixed(2)} between them (Borenstein, Hedges, Higgins & Rothstein, 2009, ch. 24), so that no study counts twice; a sensitivity table repeats the analysis at r = ${SENSITIVITY_RS.join(', ')}.`;
+  return `Where a study reported several effects, one was kept per study: ${ONE_PER_STUDY_LABELS[d.rule]}.`;
+}
+
+/** The model sentences of a three-level synthesis (replacing the two-level model, HKSJ and heterogeneity ones). */
+function multilevelModel(m: MethodsInput, level: string): string {
+  const q = m.request;
+  return (
+    `Effects (${m.metricLabel}) were pooled with an inverse-variance three-level random-effects model.` +
+    (q.hksj && !(q.dependence.mode === 'multilevel' && q.dependence.robust) ? ` Model-based tests used t on k − 1 degrees of freedom.` : '') +
+    ` Heterogeneity is reported as Cochran's Q with its p value, I² split into its between-paper and within-paper parts (Cheung, 2014) with the typical within-study variance of Higgins & Thompson (2002), and a ${level} prediction interval from the two variance components.`
+  );
 }
 
 /** A methods paragraph for a report, in plain prose with the citations the analysis rests on. */
@@ -49,18 +68,22 @@ export function methodsParagraph(m: MethodsInput): string {
   const hetero =
     ` Heterogeneity is reported as Cochran's Q with its p value, I² and H² (Higgins & Thompson, 2002), τ² with a ${level} Q-profile interval (Viechtbauer, 2007), and a ${level} prediction interval with t on k − 2 degrees of freedom (Higgins, Thompson & Spiegelhalter, 2009).`;
   const skip = new Set(m.notRun ?? []);
-  const smallStudy = [
+  const multilevel = q.dependence.mode === 'multilevel';
+  const smallStudy = multilevel ? [] : [
     counts.studies >= 3 ? "Egger's regression test (Egger, Davey Smith, Schneider & Minder, 1997)" : '',
     skip.has("Begg's test") ? '' : "Begg's rank correlation (Begg & Mazumdar, 1994)",
     skip.has('trim-and-fill') ? '' : 'trim-and-fill (Duval & Tweedie, 2000)',
   ].filter(Boolean);
-  const sensitivity = [skip.has('leave-one-out') || counts.studies < 2 ? '' : 'leave-one-out', skip.has('cumulative') ? '' : 'cumulative (by year)'].filter(Boolean);
+  const sensitivity = multilevel
+    ? [skip.has('leave-one-out') ? '' : 'leave-one-paper-out', skip.has('cumulative') ? '' : 'cumulative (by paper year)'].filter(Boolean)
+    : [skip.has('leave-one-out') || counts.studies < 2 ? '' : 'leave-one-out', skip.has('cumulative') ? '' : 'cumulative (by year)'].filter(Boolean);
   const bias =
     (smallStudy.length ? ` Small-study effects were examined with ${smallStudy.length > 1 ? `${smallStudy.slice(0, -1).join(', ')} and ${smallStudy.at(-1)}` : smallStudy[0]}.` : '') +
     (sensitivity.length ? ` ${sensitivity.join(' and ').replace(/^./, (c) => c.toUpperCase())} analyses were run for sensitivity.` : '');
   const extras = [
-    q.subgroup ? ` Subgroups by ${q.subgroup} were compared with a Q test between subgroup estimates (separate τ² per subgroup).` : '',
-    q.moderator ? ` A mixed-effects meta-regression on ${q.moderator === 'standardMs' ? 'standard duration (ms)' : 'publication year'} was fitted.` : '',
+    q.subgroup ? ` Subgroups by ${q.subgroup} were compared with a Q test between subgroup estimates (${multilevel ? 'a separate three-level fit' : 'separate τ²'} per subgroup).` : '',
+    q.moderator ? ` A ${multilevel ? 'three-level' : 'mixed-effects'} meta-regression on ${q.moderator === 'standardMs' ? 'standard duration (ms)' : 'publication year'} was fitted.` : '',
+    multilevel ? " Egger's test, Begg's test and trim-and-fill assume independent effects and were not run." : '',
   ].join('');
   const p = m.prisma;
   const prisma = p
@@ -69,5 +92,16 @@ export function methodsParagraph(m: MethodsInput): string {
       }, ${p.included} included in the registry; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
     : ` ${counts.references} references (${counts.studies} studies, ${counts.effects} effects) met this synthesis's filters; screening counts were not available.`;
   const software = ` Computed with ${m.software.name} ${m.software.version}${m.registryVersion != null ? ` on registry version ${m.registryVersion}` : ''}.`;
-  return model + hksj + hetero + ' ' + dependenceSentence(q.dependence) + bias + extras + prisma + software;
+  const head = multilevel ? multilevelModel(m, level) : model + hksj + hetero;
+  return head + ' ' + dependenceSentence(q.dependence, counts.references) + bias + extras + prisma + software;
+}
+
+/** A short statement of the model and the dependence handling, for option lists (snapshot page, exports). */
+export function modelLabel(q: SynthesisRequest): string {
+  const d = q.dependence;
+  if (d.mode === 'multilevel') return `three-level model (effects within papers, REML)${d.robust ? ' with CR2 robust variance and Satterthwaite df' : ', model-based variance'}`;
+  const model = `${METHOD_LABELS[q.method]}${q.hksj ? ' with HKSJ' : ''}`;
+  return d.mode === 'aggregate'
+    ? `${model}; effects within a study combined with r = ${d.r.toFixed(2)}${d.weighted ? ' (inverse-variance composite)' : ''}`
+    : `${model}; one effect per study: ${ONE_PER_STUDY_LABELS[d.rule]}`;
 }

@@ -1,6 +1,6 @@
 import { METRIC_LABELS } from '../vocabulary/outcomes.js';
 import type { Metric } from '../stats/metrics.js';
-import { MODERATOR_LABELS, type SynthesisRequest, type SubgroupVariable } from '../schemas/synthesis.js';
+import { MODERATOR_LABELS, SENSITIVITY_RS, type Dependence, type SynthesisRequest, type SubgroupVariable } from '../schemas/synthesis.js';
 import { forestFigure, type ForestSummary } from '../plots/forest.js';
 import { funnelFigure } from '../plots/funnel.js';
 import { bubbleFigure } from '../plots/bubble.js';
@@ -8,7 +8,8 @@ import { begg, cumulative, leaveOneOut, metaRegression, normalTwoTailed, pool, s
 import { applyDependence, type StudyUnit } from './dependence.js';
 import { cautionsFor } from './cautions.js';
 import { valueLabel } from './labels.js';
-import type { PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
+import { runMultilevelSynthesis } from './run-multilevel.js';
+import type { CorrelationSensitivityRow, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
 
 /** Raised when the matching effects use more than one metric: they are never pooled together. */
 export class MixedMetricsError extends Error {
@@ -72,6 +73,8 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     throw new MixedMetricsError([...byMetric].map(([metric, count]) => ({ metric, count })).sort((a, b) => b.count - a.count));
   const metric = effects[0].metric;
   const mLabel = metricLabel(metric);
+  const dependence = request.dependence;
+  if (dependence.mode === 'multilevel') return runMultilevelSynthesis(effects, { ...request, dependence }, metric, mLabel);
   const opts = { method: request.method, hksj: request.hksj, level: request.level };
   const unavailable: SynthesisOutput['unavailable'] = [];
   const attempt = <T>(analysis: string, f: () => T): T | null => {
@@ -84,7 +87,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   };
 
   const sg = request.subgroup;
-  const units = applyDependence(effects, request.dependence)
+  const units = applyDependence(effects, dependence)
     .map((u) => ({ u, group: sg ? subgroupValue(u, sg) : undefined }))
     .sort((a, b) => cmp(a.group ?? '', b.group ?? '') || (a.u.year ?? 9999) - (b.u.year ?? 9999) || cmp(a.u.label, b.u.label) || a.u.studyId - b.u.studyId);
   const k = units.length;
@@ -182,6 +185,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     }
   }
 
+  const correlationSensitivity = dependence.mode === 'aggregate' && units.length < effects.length ? attempt('correlation sensitivity', () => overCorrelations(effects, dependence, opts)) : null;
   const references = new Set(rows.map((r) => r.referenceId)).size;
   const pooledLabel = request.method === 'FE' ? 'Fixed-effect estimate' : `Random-effects estimate (${request.method}${request.hksj ? ', HKSJ' : ''})`;
   const forest = forestFigure({
@@ -228,6 +232,25 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     metaRegression: metaReg,
     cautions: cautionsFor(result, k),
     figures: { forest, funnel, bubble },
+    correlationSensitivity,
+    papersWithSeveralEffects: papersWithSeveralEffects(effects),
     unavailable,
   };
+}
+
+export function papersWithSeveralEffects(effects: readonly SettledEffect[]): number {
+  const n = new Map<number, number>();
+  for (const e of effects) n.set(e.referenceId, (n.get(e.referenceId) ?? 0) + 1);
+  let several = 0;
+  for (const c of n.values()) if (c > 1) several++;
+  return several;
+}
+
+/** The pooled estimate with the studies' effects combined at each r of SENSITIVITY_RS (same composite and model). */
+function overCorrelations(effects: readonly SettledEffect[], d: Extract<Dependence, { mode: 'aggregate' }>, opts: { method: SynthesisRequest['method']; hksj: boolean; level: number }): CorrelationSensitivityRow[] {
+  return SENSITIVITY_RS.map((r) => {
+    const units = applyDependence(effects, { ...d, r });
+    const res = pool({ effects: units.map((u) => u.effect), variances: units.map((u) => u.variance), ...opts });
+    return { r, k: res.k, estimate: res.estimate, se: res.se, ci_lower: res.ci_lower, ci_upper: res.ci_upper, p: res.p, tau2: res.tau2, I2: res.I2 };
+  });
 }

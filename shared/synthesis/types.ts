@@ -42,6 +42,8 @@ export interface PooledRow {
   moderator?: number | null;
   /** percent weight in the overall pooled estimate */
   weight: number;
+  /** three-level model: the paper's own label (rows are effects, grouped under their paper) */
+  paper?: string;
 }
 
 export interface SensitivityRow {
@@ -109,8 +111,40 @@ export interface MetaRegressionResult {
   missing: number;
 }
 
+/** The three-level fit behind a multilevel synthesis (effects within papers). */
+export interface MultilevelSummary {
+  /** papers (clusters) */
+  clusters: number;
+  sigma2_between: number;
+  sigma2_within: number;
+  /** percent (Cheung 2014) */
+  I2_between: number;
+  I2_within: number;
+  loglik: number;
+  /** whether the pooled test and interval use the CR2 robust variance */
+  robust: boolean;
+  /** model-based (REML) inference for the pooled estimate */
+  model: { estimate: number; se: number; ci_lower: number; ci_upper: number; statistic: number; statistic_df: number | null; p: number };
+  /** CR2 with Satterthwaite df; null when not asked for or not possible (then `robustUnavailable` says why) */
+  robustTest: { se: number; df: number; t: number; p: number; ci_lower: number; ci_upper: number } | null;
+  robustUnavailable?: string;
+}
+
+/** The aggregate mode's pooled estimate at each assumed correlation. */
+export interface CorrelationSensitivityRow {
+  r: number;
+  k: number;
+  estimate: number;
+  se: number;
+  ci_lower: number;
+  ci_upper: number;
+  p: number;
+  tau2: number | null;
+  I2: number | null;
+}
+
 export interface Caution {
-  code: 'few_studies_dl' | 'few_studies_tests' | 'high_heterogeneity' | 'not_clinical' | 'single_study' | 'analysis_unavailable';
+  code: 'few_studies_dl' | 'few_clusters' | 'few_studies_tests' | 'high_heterogeneity' | 'not_clinical' | 'single_study' | 'analysis_unavailable';
   text: string;
 }
 
@@ -141,6 +175,12 @@ export interface SynthesisOutput {
   metaRegression: MetaRegressionResult | null;
   cautions: Caution[];
   figures: SynthesisFigures;
+  /** dependence mode "multilevel": the three-level fit (absent in older snapshots) */
+  multilevel?: MultilevelSummary | null;
+  /** dependence mode "aggregate": the pooled estimate over r = 0 … 0.9 (absent in older snapshots) */
+  correlationSensitivity?: CorrelationSensitivityRow[] | null;
+  /** how many papers contribute more than one effect (the three-level model is recommended when any do) */
+  papersWithSeveralEffects?: number;
   /** analyses the engine could not run here, with the reason */
   unavailable: Array<{ analysis: string; reason: string }>;
 }

@@ -4,16 +4,19 @@ import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
 import { settleInventedReference } from './syntheses-fixtures.js';
 
 const body = { filters: { manipulation: 'luminance', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
+const multilevel = { ...body, dependence: { mode: 'multilevel', robust: true } };
 
 describeAccess(
   'synthesis, snapshot and atlas routes',
   [
     { method: 'post', path: '/api/syntheses', body, who: 'anyone', bad: { body: { method: 'median', dependence: { mode: 'aggregate', r: 3 } } } },
+    { method: 'post', path: '/api/syntheses', body: multilevel, who: 'anyone', bad: { body: { ...multilevel, dependence: { mode: 'multilevel', robust: 'yes' } } } },
     { method: 'get', path: '/api/syntheses/facets', who: 'anyone' },
     { method: 'get', path: `/api/syntheses/export/studies.csv?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/studies.csv?request=%7B' } },
     { method: 'get', path: `/api/syntheses/export/synthesis.json?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/slides.pptx?request=%7B%7D' } },
     { method: 'get', path: '/api/snapshots', who: 'anyone', bad: { path: '/api/snapshots?sort=password&pageSize=0' } },
     { method: 'post', path: '/api/snapshots', body, who: ['reviewer'], bad: { body: { filters: { yearFrom: 'soon' } } } },
+    { method: 'post', path: '/api/snapshots', body: multilevel, who: ['reviewer'], bad: { body: { ...body, dependence: { mode: 'aggregate', r: 1, weighted: true } } } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}`, who: 'anyone', bad: { path: '/api/snapshots/NOT_AN_ID!' } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/export.csv`, who: 'anyone', bad: { path: '/api/snapshots/x/export.csv' } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/effects.csv`, who: 'anyone', bad: { path: '/api/snapshots/0000000000000000/effects.csv' } },

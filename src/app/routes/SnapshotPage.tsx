@@ -1,14 +1,12 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
-import { METHOD_LABELS, ONE_PER_STUDY_LABELS } from '../../../shared/schemas/synthesis';
 import { ApiRequestError } from '../../lib/api-client';
-import { fixed } from '../../lib/format';
 import { Button } from '../../components/ui/Button';
 import { ErrorNote, Loading } from '../../components/ui/Notice';
 import { useSnapshot } from '../../features/snapshots/api/get-snapshot';
 import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
 import { synthesisHref } from '../../features/synthesis/codec';
-import { valueLabel } from '../../features/synthesis/labels';
+import { modelLabel, valueLabel } from '../../features/synthesis/labels';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 
 function filterText(filters: Record<string, unknown>): string {
@@ -55,9 +53,7 @@ export function SnapshotPage() {
         <dd>{filterText(q.filters)}</dd>
         <dt className="text-ink-soft">Options</dt>
         <dd>
-          {METHOD_LABELS[q.method]}
-          {q.hksj ? ' with HKSJ' : ''}, {Math.round(q.level * 1000) / 10}% intervals;{' '}
-          {q.dependence.mode === 'aggregate' ? `effects within a study combined with r = ${fixed(q.dependence.r, 2)}` : `one effect per study: ${ONE_PER_STUDY_LABELS[q.dependence.rule]}`}
+          {modelLabel(q)}, {Math.round(q.level * 1000) / 10}% intervals
           {q.subgroup ? `; subgroups by ${q.subgroup}` : ''}
           {q.moderator ? `; meta-regression on ${q.moderator}` : ''}
         </dd>

@@ -35,6 +35,8 @@ const FORM_FIELDS = [
   'dependence.mode',
   'dependence.r',
   'dependence.rule',
+  'dependence.robust',
+  'dependence.weighted',
   'subgroup',
   'moderator',
 ] as const;
@@ -118,7 +120,7 @@ export function SynthesisPage() {
             <ul className="flex flex-wrap gap-x-5 gap-y-1">
               <li>
                 <a href={synthesisExportHref(submitted, 'studies.csv')} download>
-                  ↓ CSV, one row per study pooled
+                  ↓ CSV, one row per {submitted.dependence.mode === 'multilevel' ? 'effect pooled (with its paper)' : 'study pooled'}
                 </a>
               </li>
               <li>
@@ -137,7 +139,12 @@ export function SynthesisPage() {
               version that never changes.
             </p>
           </section>
-          <SynthesisResults data={data} Figure={PlotFigure} fileStem={`chronometa-synthesis-v${data.registryVersion}`} />
+          <SynthesisResults
+            data={data}
+            Figure={PlotFigure}
+            fileStem={`chronometa-synthesis-v${data.registryVersion}`}
+            onUseMultilevel={() => run({ ...submitted, dependence: { mode: 'multilevel', robust: true } })}
+          />
         </>
       )}
     </div>

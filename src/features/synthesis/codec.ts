@@ -25,6 +25,8 @@ const KNOWN_PARAMS = new Set<string>([
   'dependence',
   'r',
   'rule',
+  'robust',
+  'weighted',
   'subgroup',
   'moderator',
 ]);
@@ -45,10 +47,13 @@ export interface SynthesisFormValues {
   method: string;
   hksj: boolean;
   level: string;
-  dependence: { mode: 'aggregate' | 'one'; r: string; rule: string };
+  dependence: { mode: DependenceMode; r: string; rule: string; robust: boolean; weighted: boolean };
   subgroup: string;
   moderator: string;
 }
+
+export type DependenceMode = 'aggregate' | 'one' | 'multilevel';
+const MODES: readonly DependenceMode[] = ['aggregate', 'one', 'multilevel'];
 
 // ---- request → address -------------------------------------------------------------------------------------
 
@@ -62,10 +67,17 @@ export function encodeRequest(request: SynthesisRequest): URLSearchParams {
   if (request.method !== DEFAULT_REQUEST.method) p.set('method', request.method);
   if (request.hksj) p.set('hksj', '1');
   if (request.level !== DEFAULT_REQUEST.level) p.set('level', String(request.level));
-  if (request.dependence.mode === 'one') {
+  const dep = request.dependence;
+  if (dep.mode === 'one') {
     p.set('dependence', 'one');
-    if (request.dependence.rule !== 'largest_n') p.set('rule', request.dependence.rule);
-  } else if (request.dependence.r !== 0.5) p.set('r', String(request.dependence.r));
+    if (dep.rule !== 'largest_n') p.set('rule', dep.rule);
+  } else if (dep.mode === 'multilevel') {
+    p.set('dependence', 'multilevel');
+    if (!dep.robust) p.set('robust', '0');
+  } else {
+    if (dep.r !== 0.5) p.set('r', String(dep.r));
+    if (dep.weighted) p.set('weighted', '1');
+  }
   if (request.subgroup) p.set('subgroup', request.subgroup);
   if (request.moderator) p.set('moderator', request.moderator);
   if (p.size === 0) p.set(ALL_PARAM, '1');
@@ -99,7 +111,13 @@ function valuesFromParams(p: URLSearchParams): SynthesisFormValues {
     method: get('method', d.method),
     hksj: p.get('hksj') === '1' || p.get('hksj') === 'true',
     level: get('level', d.level),
-    dependence: { mode: p.get('dependence') === 'one' ? 'one' : 'aggregate', r: get('r', d.dependence.r), rule: get('rule', d.dependence.rule) },
+    dependence: {
+      mode: MODES.find((m) => m === p.get('dependence')) ?? 'aggregate',
+      r: get('r', d.dependence.r),
+      rule: get('rule', d.dependence.rule),
+      robust: !(p.get('robust') === '0' || p.get('robust') === 'false'),
+      weighted: p.get('weighted') === '1' || p.get('weighted') === 'true',
+    },
     subgroup: get('subgroup', ''),
     moderator: get('moderator', ''),
   };
@@ -166,6 +184,8 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
       mode: dep.mode,
       r: String(dep.mode === 'aggregate' ? dep.r : 0.5),
       rule: dep.mode === 'one' ? dep.rule : 'largest_n',
+      robust: dep.mode === 'multilevel' ? dep.robust : true,
+      weighted: dep.mode === 'aggregate' ? dep.weighted === true : false,
     },
     subgroup: request.subgroup ?? '',
     moderator: request.moderator ?? '',
@@ -176,7 +196,7 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
 type ReadValues = Omit<SynthesisFormValues, 'filters' | 'level' | 'dependence'> & {
   filters: Omit<SynthesisFormValues['filters'], 'yearFrom' | 'yearTo'> & { yearFrom?: number; yearTo?: number };
   level?: number;
-  dependence: { mode: 'aggregate' | 'one'; r?: number; rule: string };
+  dependence: { mode: DependenceMode; r?: number; rule: string; robust: boolean; weighted: boolean };
 };
 
 const readNumbers = (v: SynthesisFormValues): ReadValues => ({
@@ -202,7 +222,12 @@ function candidateFromRead(v: ReadValues): Record<string, unknown> {
     method: v.method || undefined,
     hksj: v.hksj,
     ...(level === undefined ? {} : { level }),
-    dependence: v.dependence.mode === 'one' ? { mode: 'one', rule: v.dependence.rule || undefined } : { mode: 'aggregate', ...(r === undefined ? {} : { r }) },
+    dependence:
+      v.dependence.mode === 'one'
+        ? { mode: 'one', rule: v.dependence.rule || undefined }
+        : v.dependence.mode === 'multilevel'
+          ? { mode: 'multilevel', robust: v.dependence.robust }
+          : { mode: 'aggregate', ...(r === undefined ? {} : { r }), ...(v.dependence.weighted ? { weighted: true } : {}) },
     ...(v.subgroup ? { subgroup: v.subgroup } : {}),
     ...(v.moderator ? { moderator: v.moderator } : {}),
   };
@@ -227,8 +252,9 @@ const formValuesSchema = z.object({
   level: numeric(numberText, synthesisRequestSchema.shape.level.removeDefault().optional()),
   // The correlation is checked only while it is used (and shown).
   dependence: z.discriminatedUnion('mode', [
-    z.object({ mode: z.literal('aggregate'), r: numeric(numberText, dependenceSchema.options[0].shape.r.removeDefault().optional()), rule: z.string() }),
-    z.object({ mode: z.literal('one'), r: z.string(), rule: z.string() }),
+    z.object({ mode: z.literal('aggregate'), r: numeric(numberText, dependenceSchema.options[0].shape.r.removeDefault().optional()), rule: z.string(), robust: z.boolean(), weighted: z.boolean() }),
+    z.object({ mode: z.literal('one'), r: z.string(), rule: z.string(), robust: z.boolean(), weighted: z.boolean() }),
+    z.object({ mode: z.literal('multilevel'), r: z.string(), rule: z.string(), robust: z.boolean(), weighted: z.boolean() }),
   ]),
   subgroup: z.string(),
   moderator: z.string(),

@@ -1,1 +1,2 @@
 export { valueLabel } from '../../../shared/synthesis/labels';
+export { modelLabel } from '../../../shared/synthesis/methods';

@@ -41,6 +41,9 @@ const SHAPES: Array<[string, SynthesisRequest]> = [
   ...[0.8, 0.9, 0.99, 0.999].map((level): [string, SynthesisRequest] => [`level ${level}`, request({ level })]),
   ...[0, 0.25, 0.8, 1].map((r): [string, SynthesisRequest] => [`aggregate r = ${r}`, request({ dependence: { mode: 'aggregate', r } })]),
   ...ONE_PER_STUDY_RULES.map((rule): [string, SynthesisRequest] => [`one per study, ${rule}`, request({ dependence: { mode: 'one', rule } })]),
+  ['aggregate, inverse-variance composite', request({ dependence: { mode: 'aggregate', r: 0.6, weighted: true } })],
+  ['three-level model, robust', request({ dependence: { mode: 'multilevel', robust: true } })],
+  ['three-level model, model-based', request({ dependence: { mode: 'multilevel', robust: false }, subgroup: 'task' })],
   ...SUBGROUP_VARIABLES.map((subgroup): [string, SynthesisRequest] => [`subgroups by ${subgroup}`, request({ subgroup })]),
   ...MODERATORS.map((moderator): [string, SynthesisRequest] => [`moderator ${moderator}`, request({ moderator })]),
   [
@@ -121,7 +124,7 @@ describe('synthesis codec: request → form values → request (through the form
 
   it('ignores a correlation left unreadable while one effect per study is kept (the field is hidden then)', () => {
     const values = requestToFormValues(DEFAULT_REQUEST);
-    values.dependence = { mode: 'one', r: 'junk', rule: 'smallest_variance' };
+    values.dependence = { mode: 'one', r: 'junk', rule: 'smallest_variance', robust: true, weighted: false };
     expect(synthesisFormSchema.parse(values).dependence).toEqual({ mode: 'one', rule: 'smallest_variance' });
     values.dependence.mode = 'aggregate';
     expect(synthesisFormSchema.safeParse(values).error?.issues.map((i) => i.path.join('.'))).toEqual(['dependence.r']);
@@ -141,6 +144,9 @@ describe('synthesis codec: defaults are left out of the address', () => {
     expect(encodeRequest(request({ dependence: { mode: 'aggregate', r: 0.8 } })).toString()).toBe('r=0.8');
     expect(encodeRequest(request({ dependence: { mode: 'one', rule: 'largest_n' } })).toString()).toBe('dependence=one');
     expect(encodeRequest(request({ dependence: { mode: 'one', rule: 'first_coded' } })).toString()).toBe('dependence=one&rule=first_coded');
+    expect(encodeRequest(request({ dependence: { mode: 'multilevel', robust: true } })).toString()).toBe('dependence=multilevel');
+    expect(encodeRequest(request({ dependence: { mode: 'multilevel', robust: false } })).toString()).toBe('dependence=multilevel&robust=0');
+    expect(encodeRequest(request({ dependence: { mode: 'aggregate', r: 0.5, weighted: true } })).toString()).toBe('weighted=1');
     expect(encodeRequest(request({ hksj: true })).toString()).toBe('hksj=1');
   });
 
@@ -192,8 +198,8 @@ describe('synthesis codec: a bad address falls back, never crashes', () => {
 
   it('survives 500 seeded addresses of garbage, always giving a request the server schema accepts', () => {
     const rand = mulberry32(99);
-    const keys = ['manipulation', 'outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo', 'method', 'hksj', 'level', 'dependence', 'r', 'rule', 'subgroup', 'moderator'];
-    const junk = ['', ' ', '-1', '0', '1', '0.5', '1e309', 'NaN', 'null', '{}', '[]', 'DL', 'one', 'REML', 'hedges_g', '2000', '1799', '\u0000', 'é'.repeat(200)];
+    const keys = ['manipulation', 'outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo', 'method', 'hksj', 'level', 'dependence', 'r', 'rule', 'robust', 'weighted', 'subgroup', 'moderator'];
+    const junk = ['', ' ', '-1', '0', '1', '0.5', '1e309', 'NaN', 'null', '{}', '[]', 'DL', 'one', 'multilevel', 'REML', 'hedges_g', '2000', '1799', '\u0000', 'é'.repeat(200)];
     for (let i = 0; i < 500; i++) {
       const p = new URLSearchParams();
       for (const k of keys) if (rand() < 0.4) p.append(k, junk[Math.floor(rand() * junk.length)]);

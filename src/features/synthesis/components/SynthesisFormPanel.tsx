@@ -110,7 +110,7 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
       </fieldset>
       <fieldset className="mt-3 flex flex-wrap items-start gap-3">
         <legend className="mb-1 font-reading font-bold">How to pool</legend>
-        <SynthesisField label="Estimator" error={err('method')}>
+        <SynthesisField label="Estimator" error={err('method')} hint={mode === 'multilevel' ? 'not used: the three-level model is fitted by REML' : undefined}>
           <select {...register('method')} className={inputClass}>
             {(['DL', 'REML', 'PM', 'FE'] as const).map((m) => (
               <option key={m} value={m}>
@@ -131,11 +131,20 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
         </SynthesisField>
         <SynthesisField label="Several effects in one study" error={err('dependence.mode')}>
           <select {...register('dependence.mode')} className={inputClass}>
+            <option value="multilevel">Three-level model: effects within papers (recommended)</option>
             <option value="aggregate">Combine with a stated correlation</option>
             <option value="one">Keep one per study</option>
           </select>
         </SynthesisField>
-        {mode === 'one' ? (
+        {mode === 'multilevel' ? (
+          <div className="flex flex-col gap-0.5 pt-5 text-sm">
+            <label className="flex items-center gap-1.5">
+              <input type="checkbox" {...register('dependence.robust')} />
+              Robust variance (CR2, Satterthwaite df)
+            </label>
+            <FieldError message={err('dependence.robust')} />
+          </div>
+        ) : mode === 'one' ? (
           <SynthesisField label="Keep" error={err('dependence.rule')}>
             <select {...register('dependence.rule')} className={inputClass}>
               {ONE_PER_STUDY_RULES.map((r) => (
@@ -146,9 +155,18 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
             </select>
           </SynthesisField>
         ) : (
-          <SynthesisField label="Assumed correlation r" error={err('dependence.r')} hint="between 0 and 1; 0.5 by default">
-            <input inputMode="decimal" {...register('dependence.r')} className={`${inputClass} w-20`} />
-          </SynthesisField>
+          <>
+            <SynthesisField label="Assumed correlation r" error={err('dependence.r')} hint="between 0 and 1; 0.5 by default">
+              <input inputMode="decimal" {...register('dependence.r')} className={`${inputClass} w-20`} />
+            </SynthesisField>
+            <div className="flex flex-col gap-0.5 pt-5 text-sm">
+              <label className="flex items-center gap-1.5">
+                <input type="checkbox" {...register('dependence.weighted')} />
+                Inverse-variance composite
+              </label>
+              <FieldError message={err('dependence.weighted')} />
+            </div>
+          </>
         )}
         <SynthesisField label="Subgroups by" error={err('subgroup')}>
           <select {...register('subgroup')} className={inputClass}>

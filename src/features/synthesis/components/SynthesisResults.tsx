@@ -1,8 +1,9 @@
 import { useState, type ComponentType } from 'react';
 import { METHOD_LABELS, MODERATOR_LABELS } from '../../../../shared/schemas/synthesis';
 import { dependenceSentence } from '../../../../shared/synthesis/methods';
-import type { PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
+import type { CorrelationSensitivityRow, PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
 import { Caution } from '../../../components/ui/Notice';
+import { Button } from '../../../components/ui/Button';
 import { digitsFor, fixed, interval as span, pEquals, pValue } from '../../../lib/format';
 import { valueLabel } from '../labels';
 import { ResultTable, type Column } from './ResultTable';
@@ -21,17 +22,30 @@ function Stat({ label, children }: { label: string; children: React.ReactNode })
 }
 
 /** Every number of a synthesis (live or frozen) with its cautions beside it, the figures and the tables. */
-export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOutput; Figure: FigureComponent; fileStem: string }) {
+export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { data: SynthesisOutput; Figure: FigureComponent; fileStem: string; onUseMultilevel?: () => void }) {
   const [showFill, setShowFill] = useState(false);
   const r = data.result;
   const d = digitsFor(data.metric);
   const lvl = `${Math.round(r.level * 1000) / 10}%`;
   const metricName = valueLabel('metric', data.metric);
   const interval = (lo: number | null, hi: number | null) => span(lo, hi, d);
-  const stat = r.statistic_df == null ? `z = ${fixed(r.statistic, 2)}` : `t(${r.statistic_df}) = ${fixed(r.statistic, 2)}`;
+  const df = (x: number) => (Number.isInteger(x) ? String(x) : fixed(x, 1));
+  const stat = r.statistic_df == null ? `z = ${fixed(r.statistic, 2)}` : `t(${df(r.statistic_df)}) = ${fixed(r.statistic, 2)}`;
+  const ml = data.dependence.mode === 'multilevel' ? data.multilevel : null;
+  const several = data.papersWithSeveralEffects ?? 0;
+  const unit = ml ? 'Effect' : 'Study';
+  const corrCols: Column<CorrelationSensitivityRow>[] = [
+    { key: 'r', label: 'Assumed r', numeric: true, value: (x) => x.r, render: (x) => fixed(x.r, 1) },
+    { key: 'k', label: 'k', numeric: true, value: (x) => x.k },
+    { key: 'estimate', label: 'Estimate', numeric: true, value: (x) => x.estimate, render: (x) => fixed(x.estimate, d) },
+    { key: 'ci', label: `${lvl} CI`, numeric: true, value: (x) => x.ci_lower, render: (x) => interval(x.ci_lower, x.ci_upper) },
+    { key: 'p', label: 'p', numeric: true, value: (x) => x.p, render: (x) => pValue(x.p) },
+    { key: 'tau2', label: 'τ²', numeric: true, value: (x) => x.tau2, render: (x) => fixed(x.tau2, 4) },
+    { key: 'I2', label: 'I² %', numeric: true, value: (x) => x.I2, render: (x) => fixed(x.I2, 1) },
+  ];
 
   const studyCols: Column<PooledRow>[] = [
-    { key: 'label', label: 'Study', value: (x) => x.label },
+    { key: 'label', label: unit, value: (x) => x.label },
     { key: 'year', label: 'Year', numeric: true, value: (x) => x.year },
     { key: 'n', label: 'n', numeric: true, value: (x) => x.n },
     { key: 'effect', label: `${metricName} (${d} dp)`, numeric: true, value: (x) => x.effect, render: (x) => fixed(x.effect, d) },
@@ -58,8 +72,9 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
         <div className="rounded border-l-4 border-caution bg-caution-light/60 p-3">
           <h2 className="mt-0">Pooled estimate</h2>
           <p className="mb-2 text-sm">
-            <span className="font-semibold">◆ {metricName}</span> · {METHOD_LABELS[r.method]}
-            {r.hksj ? ' with HKSJ' : ''} · {data.counts.studies} studies ({data.counts.effects} effects, {data.counts.references} references)
+            <span className="font-semibold">◆ {metricName}</span> ·{' '}
+            {ml ? `Three-level model (REML${ml.robust ? ', CR2 robust variance' : ''})` : `${METHOD_LABELS[r.method]}${r.hksj ? ' with HKSJ' : ''}`} · {data.counts.studies} studies ({data.counts.effects} effects,{' '}
+            {data.counts.references} {ml ? 'papers' : 'references'})
           </p>
           <p className="mb-2 text-2xl tabular-nums" data-testid="pooled-estimate">
             <strong>{fixed(r.estimate, d)}</strong> <span className="text-base">{lvl} CI {interval(r.ci_lower, r.ci_upper)}</span>
@@ -71,18 +86,44 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
               <Stat label="Test of the pooled effect">
                 {stat}, {pEquals(r.p)}
               </Stat>
-              <Stat label="τ² (Q-profile CI)">
-                {fixed(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fixed(r.tau2_ci_lower, 4)}, ${fixed(r.tau2_ci_upper, 4)}]` : ''}
-              </Stat>
-              <Stat label="τ">{fixed(r.tau, 4)}</Stat>
-              <Stat label="I²">{r.I2 == null ? '—' : `${fixed(r.I2, 1)}%`}</Stat>
-              <Stat label="H²">{fixed(r.H2, 2)}</Stat>
+              {ml ? (
+                <>
+                  {ml.robust && (
+                    <Stat label="Model-based (REML) CI, p">
+                      {interval(ml.model.ci_lower, ml.model.ci_upper)}, {pEquals(ml.model.p)}
+                    </Stat>
+                  )}
+                  <Stat label="σ² between papers">{fixed(ml.sigma2_between, 4)}</Stat>
+                  <Stat label="σ² within papers">{fixed(ml.sigma2_within, 4)}</Stat>
+                  <Stat label="I² between / within papers">
+                    {fixed(ml.I2_between, 1)}% / {fixed(ml.I2_within, 1)}%
+                  </Stat>
+                </>
+              ) : (
+                <>
+                  <Stat label="τ² (Q-profile CI)">
+                    {fixed(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fixed(r.tau2_ci_lower, 4)}, ${fixed(r.tau2_ci_upper, 4)}]` : ''}
+                  </Stat>
+                  <Stat label="τ">{fixed(r.tau, 4)}</Stat>
+                  <Stat label="I²">{r.I2 == null ? '—' : `${fixed(r.I2, 1)}%`}</Stat>
+                  <Stat label="H²">{fixed(r.H2, 2)}</Stat>
+                </>
+              )}
               <Stat label="Q (df), p">
                 {r.Q == null ? '—' : `${fixed(r.Q, 2)} (${r.Q_df}), ${pEquals(r.Q_p)}`}
               </Stat>
             </tbody>
           </table>
-          <p className="mt-2 text-xs text-ink-soft">{dependenceSentence(data.dependence)}</p>
+          <p className="mt-2 text-xs text-ink-soft">{dependenceSentence(data.dependence, data.counts.references)}</p>
+          {!ml && several > 0 && (
+            <div role="note" aria-label="Recommended model" className="mt-2 flex flex-wrap items-center gap-2 rounded border border-action/40 p-2 text-sm">
+              <span>
+                ☆ {several} {several === 1 ? 'paper contributes' : 'papers contribute'} more than one effect: the three-level model (effects within papers, robust variance) is the
+                recommended way to pool them.
+              </span>
+              {onUseMultilevel && <Button onClick={onUseMultilevel}>Use the three-level model</Button>}
+            </div>
+          )}
         </div>
         <aside aria-label="Cautions">
           {data.cautions.map((c) => (
@@ -123,7 +164,7 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
             <td>Egger's regression</td>
             <td className="num">{r.egger ? `intercept ${fixed(r.egger.intercept, 3)} (SE ${fixed(r.egger.se, 3)}), t = ${fixed(r.egger.t, 2)}` : '—'}</td>
             <td className="num">{pValue(r.egger?.p)}</td>
-            <td>{r.egger ? (r.egger.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : 'needs at least 3 studies'}</td>
+            <td>{r.egger ? (r.egger.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : (data.unavailable.find((u) => u.analysis === "Egger's test")?.reason ?? 'needs at least 3 studies')}</td>
           </tr>
           <tr>
             <td>Begg's rank correlation</td>
@@ -184,19 +225,41 @@ export function SynthesisResults({ data, Figure, fileStem }: { data: SynthesisOu
         </>
       )}
 
-      <h2>Studies pooled</h2>
-      <ResultTable caption={`One row per study after combining its effects; ${data.rows.length} in all`} columns={studyCols} rows={data.rows} rowKey={(x) => x.studyId} />
+      {data.correlationSensitivity && (
+        <>
+          <h2>Sensitivity to the assumed correlation</h2>
+          <ResultTable
+            caption={`The analysis repeated with the effects of each study combined at each r (${data.dependence.mode === 'aggregate' && data.dependence.weighted ? 'inverse-variance composite' : 'mean of the effects'}); this synthesis uses r = ${data.dependence.mode === 'aggregate' ? fixed(data.dependence.r, 2) : '—'}`}
+            columns={corrCols}
+            rows={data.correlationSensitivity}
+            rowKey={(x) => x.r}
+          />
+        </>
+      )}
+
+      <h2>{ml ? 'Effects pooled' : 'Studies pooled'}</h2>
+      <ResultTable
+        caption={ml ? `One row per effect, weights from the three-level model; ${data.rows.length} effects in ${data.counts.references} papers` : `One row per study after combining its effects; ${data.rows.length} in all`}
+        columns={studyCols}
+        rows={data.rows}
+        rowKey={(x) => (ml ? x.effectIds[0] : x.studyId)}
+      />
 
       {data.leaveOneOut && (
         <>
-          <h2>Leave-one-out</h2>
-          <ResultTable caption="The analysis refitted without each study in turn" columns={sensCols('Study left out')} rows={data.leaveOneOut} rowKey={(x) => x.studyId} />
+          <h2>{ml ? 'Leave-one-paper-out' : 'Leave-one-out'}</h2>
+          <ResultTable caption={ml ? 'The model refitted without each paper in turn' : 'The analysis refitted without each study in turn'} columns={sensCols(ml ? 'Paper left out' : 'Study left out')} rows={data.leaveOneOut} rowKey={(x) => `${x.studyId}-${x.label}`} />
         </>
       )}
       {data.cumulative && (
         <>
-          <h2>Cumulative by year</h2>
-          <ResultTable caption="Each row pools every study up to and including this one, oldest first" columns={sensCols('Study added')} rows={data.cumulative} rowKey={(x) => x.studyId} />
+          <h2>{ml ? 'Cumulative by paper year' : 'Cumulative by year'}</h2>
+          <ResultTable
+            caption={ml ? 'Each row fits every paper up to and including this one, oldest first (from the second paper)' : 'Each row pools every study up to and including this one, oldest first'}
+            columns={sensCols(ml ? 'Paper added' : 'Study added')}
+            rows={data.cumulative}
+            rowKey={(x) => `${x.studyId}-${x.label}`}
+          />
         </>
       )}
 

@@ -1,0 +1,212 @@
+import { MODERATOR_LABELS, type SynthesisRequest } from '../schemas/synthesis.js';
+import { forestFigure } from '../plots/forest.js';
+import { funnelFigure } from '../plots/funnel.js';
+import { bubbleFigure } from '../plots/bubble.js';
+import { StatsInputError } from './engine.js';
+import { cautionsFor } from './cautions.js';
+import { valueLabel } from './labels.js';
+import {
+  asPoolResult,
+  cumulativeByPaper,
+  effectRow,
+  fitThreeLevel,
+  leaveOnePaperOut,
+  multilevelSubgroups,
+  multilevelSummary,
+  multilevelWeights,
+  paperLine,
+  refitRefusal,
+  type MultilevelFit,
+  type PaperInfo,
+} from './multilevel.js';
+import type { Caution, PooledRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
+
+/** Raised when the three-level model cannot be fitted to these effects (one paper only, too few effects). */
+export class MultilevelModelError extends Error {
+  constructor(reason: string) {
+    super(
+      `The three-level model cannot be fitted to these effects: ${reason}. Widen the filters so that effects from at least 2 papers match, ` +
+        'or handle several effects per study by aggregation or by keeping one per study.',
+    );
+  }
+}
+
+type MultilevelRequest = SynthesisRequest & { dependence: { mode: 'multilevel'; robust: boolean } };
+
+const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+const NOT_UNDER_MULTILEVEL = 'assumes independent effects; not run under the three-level model (aggregate or keep one effect per study to run it)';
+
+/**
+ * The synthesis under the three-level model: every effect kept, clustered by paper (reference); the pooled
+ * estimate, subgroups, meta-regression, leave-one-paper-out and cumulative by paper year from the model,
+ * with the CR2 robust variance when asked for.
+ */
+export function runMultilevelSynthesis(effects: readonly SettledEffect[], request: MultilevelRequest, metric: string, mLabel: string): SynthesisOutput {
+  const unavailable: SynthesisOutput['unavailable'] = [];
+  const attempt = <T>(analysis: string, f: () => T): T | null => {
+    try {
+      return f();
+    } catch (err) {
+      unavailable.push({ analysis, reason: (err as Error).message });
+      return null;
+    }
+  };
+  const sg = request.subgroup;
+  const items = effects
+    .map((e) => ({ e, group: sg ? String(e[sg] ?? 'not reported') : undefined }))
+    .sort(
+      (a, b) =>
+        cmp(a.group ?? '', b.group ?? '') ||
+        (a.e.year ?? 9999) - (b.e.year ?? 9999) ||
+        cmp(a.e.referenceLabel, b.e.referenceLabel) ||
+        a.e.referenceId - b.e.referenceId ||
+        a.e.studyId - b.e.studyId ||
+        a.e.id - b.e.id,
+    );
+  const k = items.length;
+  const y = new Float64Array(k);
+  const v = new Float64Array(k);
+  const cluster = new Float64Array(k);
+  items.forEach(({ e }, i) => {
+    y[i] = e.effect;
+    v[i] = e.variance;
+    cluster[i] = e.referenceId;
+  });
+  let fit: MultilevelFit;
+  try {
+    fit = fitThreeLevel({ y, v, cluster }, request);
+  } catch (err) {
+    if (err instanceof StatsInputError) throw new MultilevelModelError(err.message);
+    throw err;
+  }
+  const m = fit.model;
+  const weights = multilevelWeights(v, cluster, m.sigma2_between, m.sigma2_within);
+  const result = asPoolResult(fit, weights, request.level);
+
+  const papers = new Map<number, PaperInfo>();
+  const byPaper = new Map<number, number[]>();
+  const rows: PooledRow[] = items.map(({ e, group }, i) => {
+    const idx = byPaper.get(e.referenceId);
+    if (idx) idx.push(i);
+    else {
+      byPaper.set(e.referenceId, [i]);
+      papers.set(e.referenceId, { id: e.referenceId, label: e.referenceLabel, year: e.year, firstStudyId: e.studyId });
+    }
+    const row = effectRow(e, byPaper.get(e.referenceId)!.length, weights[i]);
+    if (group !== undefined) row.subgroup = group;
+    if (request.moderator) row.moderator = request.moderator === 'year' ? e.year : e.standardMs;
+    return row;
+  });
+  const paperList = [...papers.values()];
+
+  let subgroups: SubgroupComparison | null = null;
+  if (sg) {
+    const manipulationLabels = new Map(effects.map((e) => [e.manipulation, e.manipulationLabel ?? e.manipulation]));
+    const labelOf = (value: string) => (sg === 'manipulation' ? (manipulationLabels.get(value) ?? value) : valueLabel(sg, value));
+    const sub = attempt('subgroups', () => multilevelSubgroups(sg, rows.map((r) => r.subgroup!), labelOf, y, v, cluster, request));
+    if (sub) {
+      subgroups = sub.comparison;
+      for (const s of sub.skipped) unavailable.push({ analysis: `subgroup ${labelOf(s.value)}`, reason: s.reason });
+    }
+  }
+
+  let metaReg: SynthesisOutput['metaRegression'] = null;
+  const mod = request.moderator;
+  if (mod) {
+    const withX = rows.flatMap((r, i) => (r.moderator != null ? [i] : []));
+    const reg = attempt('meta-regression', () =>
+      fitThreeLevel({ y: withX.map((i) => y[i]), v: withX.map((i) => v[i]), cluster: withX.map((i) => cluster[i]), moderators: [withX.map((i) => rows[i].moderator as number)] }, request),
+    );
+    if (reg) {
+      const slope = (reg.robust?.coefficients ?? reg.model.coefficients)![1];
+      const intercept = (reg.robust?.coefficients ?? reg.model.coefficients)![0];
+      metaReg = {
+        moderator: mod,
+        k: reg.model.k,
+        intercept: intercept.estimate,
+        slope: slope.estimate,
+        slope_se: slope.se,
+        slope_ci_lower: slope.ci_lower,
+        slope_ci_upper: slope.ci_upper,
+        slope_p: slope.p,
+        tau2: reg.model.sigma2_between + reg.model.sigma2_within,
+        R2: null,
+        missing: k - withX.length,
+      };
+    }
+  }
+
+  const refusal = refitRefusal(paperList.length, k);
+  let leaveOut: SynthesisOutput['leaveOneOut'] = null;
+  let cumulativeRows: SynthesisOutput['cumulative'] = null;
+  if (refusal) {
+    unavailable.push({ analysis: 'leave-one-out', reason: refusal }, { analysis: 'cumulative', reason: refusal });
+  } else {
+    if (paperList.length >= 3) leaveOut = attempt('leave-one-out', () => leaveOnePaperOut(paperList, byPaper, y, v, cluster, request));
+    else unavailable.push({ analysis: 'leave-one-out', reason: 'leaving a paper out needs at least 3 papers under the three-level model' });
+    cumulativeRows = attempt('cumulative', () => cumulativeByPaper(paperList, byPaper, y, v, cluster, request));
+  }
+  unavailable.push({ analysis: "Egger's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: "Begg's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: 'trim-and-fill', reason: NOT_UNDER_MULTILEVEL });
+
+  const pooledLabel = `Three-level estimate (REML${fit.robust ? ', CR2 robust' : ''})`;
+  const forest = forestFigure({
+    metric,
+    metricLabel: mLabel,
+    level: request.level,
+    studies: rows.map((r) => ({ label: sg ? r.label : r.label.slice(r.paper!.length + 3), year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: sg ? r.subgroup : String(r.referenceId) })),
+    pooled: { label: pooledLabel, estimate: result.estimate, ci_lower: result.ci_lower, ci_upper: result.ci_upper, pi_lower: result.pi_lower, pi_upper: result.pi_upper },
+    subgroups: sg
+      ? subgroups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper }))
+      : paperList.map((p) => {
+          const idx = byPaper.get(p.id)!;
+          return { key: String(p.id), label: p.label, ...paperLine(idx.map((i) => v[i]), idx.map((i) => y[i]), m.sigma2_within, request.level) };
+        }),
+    grouping: sg ? 'subgroup' : 'paper',
+  });
+  const funnel = funnelFigure({ metric, metricLabel: mLabel, studies: rows.map((r) => ({ label: r.label, effect: r.effect, variance: r.variance })), pooled: result.estimate, trimFill: null });
+  const bubble =
+    mod && metaReg
+      ? bubbleFigure({
+          metric,
+          metricLabel: mLabel,
+          moderatorLabel: MODERATOR_LABELS[mod],
+          points: rows.flatMap((r) => (r.moderator != null ? [{ label: r.label, x: r.moderator, effect: r.effect, weight: r.weight }] : [])),
+          fit: { intercept: metaReg.intercept, slope: metaReg.slope, slope_p: metaReg.slope_p },
+        })
+      : null;
+
+  const summary = multilevelSummary(fit, request.dependence.robust);
+  if (summary.robustUnavailable) unavailable.push({ analysis: 'robust variance', reason: `${summary.robustUnavailable}; the model-based test is shown` });
+  return {
+    request,
+    metric,
+    counts: { effects: k, studies: new Set(effects.map((e) => e.studyId)).size, references: paperList.length },
+    dependence: request.dependence,
+    rows,
+    result,
+    subgroups,
+    leaveOneOut: leaveOut,
+    cumulative: cumulativeRows,
+    begg: null,
+    trimFill: null,
+    metaRegression: metaReg,
+    cautions: multilevelCautions(fit, paperList.length, result),
+    figures: { forest, funnel, bubble },
+    multilevel: summary,
+    papersWithSeveralEffects: [...byPaper.values()].filter((x) => x.length > 1).length,
+    unavailable,
+  };
+}
+
+function multilevelCautions(fit: MultilevelFit, papers: number, result: ReturnType<typeof asPoolResult>): Caution[] {
+  const out: Caution[] = [];
+  if (fit.robust && fit.robust.df < 4)
+    out.push({
+      code: 'few_clusters',
+      text: `The robust test rests on ${fit.robust.df.toFixed(1)} Satterthwaite degrees of freedom (${papers} papers): below 4 its p value and interval are unreliable (Tipton, 2015).`,
+    });
+  else if (!fit.robust && papers < 5)
+    out.push({ code: 'few_clusters', text: `Only ${papers} papers: the between-paper variance is poorly estimated and the model-based interval may be too narrow; consider the robust variance.` });
+  // the usual cautions, counted in papers (the DL caution does not apply: σ² are REML)
+  return [...out, ...cautionsFor({ ...result, hksj: true }, papers, ['paper', 'papers'])];
+}

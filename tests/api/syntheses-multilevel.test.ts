@@ -1,0 +1,94 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { poolMultilevel, robustPool } from '../../shared/stats/index.js';
+import { anonymous, createTestApp, resetDb, signIn, type TestApp } from '../support/test-app.js';
+import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';
+
+const filters = { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' };
+const multilevel = { filters, dependence: { mode: 'multilevel', robust: true } };
+
+describe('POST /api/syntheses with dependence { mode: "multilevel" }', () => {
+  let t: TestApp;
+  beforeAll(async () => {
+    t = await createTestApp();
+    await resetDb(t.ctx.db);
+    await settleInventedSet(t.ctx.db, 'luminance');
+    // one paper with two experiments of two effects each
+    await settleInventedReference(t.ctx.db, 'luminance', 2019, [
+      { mean1: 700, mean2: 610, sd: 90, n: 18, second: { mean1: 680, mean2: 600 } },
+      { mean1: 655, mean2: 615, sd: 85, n: 22, second: { mean1: 690, mean2: 620 } },
+    ]);
+    await settleInventedReference(t.ctx.db, 'pitch', 2020, [{ mean1: 650, mean2: 600, sd: 80, n: 20, second: { mean1: 640, mean2: 600 } }]);
+  });
+  afterAll(() => t.close());
+
+  it('keeps every effect, clusters by paper and answers the CR2 robust test over exactly the rows it returns', async () => {
+    const res = await anonymous(t.app).post('/api/syntheses').send(multilevel);
+    expect(res.status).toBe(200);
+    expect(res.body.counts).toEqual({ effects: 17, studies: 14, references: 13 });
+    expect(res.body.rows).toHaveLength(17);
+    expect(res.body.dependence).toEqual({ mode: 'multilevel', robust: true });
+    const input = { effects: res.body.rows.map((r: any) => r.effect), variances: res.body.rows.map((r: any) => r.variance), cluster: res.body.rows.map((r: any) => r.referenceId) };
+    const model = poolMultilevel(input);
+    const robust = robustPool(input);
+    expect(res.body.result.estimate).toBeCloseTo(robust.estimate, 12);
+    expect(res.body.result.se).toBeCloseTo(robust.se, 12);
+    expect(res.body.result.statistic_df).toBeCloseTo(robust.df, 10);
+    expect(res.body.multilevel).toMatchObject({ clusters: 13, robust: true });
+    expect(res.body.multilevel.sigma2_within).toBeCloseTo(model.sigma2_within, 12);
+    expect(res.body.multilevel.model.se).toBeCloseTo(model.se, 12);
+    expect(res.body.rows.reduce((s: number, r: any) => s + r.weight, 0)).toBeCloseTo(100, 9);
+    // the forest plot groups effects under their paper, each with a paper line
+    const papers = res.body.figures.forest.data.filter((tr: any) => tr.meta === 'paper');
+    expect(papers).toHaveLength(13);
+    expect(res.body.leaveOneOut).toHaveLength(13);
+    expect(res.body.cumulative).toHaveLength(12);
+    expect(res.body.unavailable.map((u: any) => u.analysis)).toEqual(expect.arrayContaining(["Egger's test", "Begg's test", 'trim-and-fill']));
+  });
+
+  it('runs subgroups and meta-regression under the model; model-based inference when robust is false', async () => {
+    const res = await anonymous(t.app).post('/api/syntheses').send({ ...multilevel, dependence: { mode: 'multilevel', robust: false }, subgroup: 'modality', moderator: 'year' });
+    expect(res.status).toBe(200);
+    expect(res.body.multilevel.robustTest).toBeNull();
+    expect(res.body.result.statistic_df).toBeNull();
+    expect(res.body.subgroups.groups.map((g: any) => g.value).sort()).toEqual(['auditory', 'visual']);
+    expect(res.body.subgroups.Q_between).toBeGreaterThanOrEqual(0);
+    expect(res.body.metaRegression.k).toBe(17);
+  });
+
+  it('aggregate mode answers the sensitivity table over r and the inverse-variance composite on request', async () => {
+    const plain = await anonymous(t.app).post('/api/syntheses').send({ filters, dependence: { mode: 'aggregate', r: 0.5 } });
+    const weighted = await anonymous(t.app).post('/api/syntheses').send({ filters, dependence: { mode: 'aggregate', r: 0.5, weighted: true } });
+    expect(plain.status).toBe(200);
+    expect(plain.body.correlationSensitivity.map((r: any) => r.r)).toEqual([0, 0.2, 0.4, 0.6, 0.8, 0.9]);
+    expect(plain.body.papersWithSeveralEffects).toBe(2);
+    expect(weighted.body.dependence).toEqual({ mode: 'aggregate', r: 0.5, weighted: true });
+    expect(weighted.body.result.estimate).not.toBeCloseTo(plain.body.result.estimate, 8);
+  });
+
+  it('answers 422 with a clear message when the model cannot be fitted (one paper), 400 for a bad robust flag', async () => {
+    const one = await anonymous(t.app).post('/api/syntheses').send({ ...multilevel, filters: { manipulation: 'pitch' } });
+    expect(one.status).toBe(422);
+    expect(one.body.error.message).toMatch(/three-level model cannot be fitted.*one cluster.*at least 2 papers/);
+    const bad = await anonymous(t.app).post('/api/syntheses').send({ ...multilevel, dependence: { mode: 'multilevel', robust: 'yes' } });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.details[0].path).toBe('body.dependence.robust');
+  });
+
+  it('a snapshot freezes the dependence settings and its methods paragraph names the model, the clusters and the variance estimator', async () => {
+    const reviewer = await signIn(t.app, 'reviewer');
+    const live = await reviewer.post('/api/syntheses').send(multilevel);
+    const created = await reviewer.post('/api/snapshots').send(multilevel);
+    expect(created.status).toBe(201);
+    const got = await request(t.app).get(`/api/snapshots/${created.body.id}`);
+    expect(got.body.request.dependence).toEqual({ mode: 'multilevel', robust: true });
+    expect(got.body.dependence).toEqual({ mode: 'multilevel', robust: true });
+    expect(got.body.multilevel).toEqual(live.body.multilevel);
+    expect(got.body.result).toEqual(live.body.result);
+    const methods = await request(t.app).get(`/api/snapshots/${created.body.id}/methods.txt`);
+    expect(methods.text).toMatch(/three-level random-effects model/);
+    expect(methods.text).toMatch(/13 papers as clusters/);
+    expect(methods.text).toMatch(/CR2 variance estimator.*Satterthwaite/);
+    expect(methods.text).not.toMatch(/DerSimonian/);
+  });
+});
