@@ -9,6 +9,13 @@ export const notFoundApi: RequestHandler = (req, res) => {
   res.status(404).json(refusal('not_found', `No API route ${req.method} ${req.path}.`));
 };
 
+/** SQLSTATEs of a value PostgreSQL cannot store (out of range, NUL or broken characters), as the caller reads them. */
+const VALUE_REFUSALS: Record<string, string> = {
+  '22003': 'A number in the request is out of range.',
+  '22021': 'The request holds a character text cannot hold (a NUL or a broken character).',
+  '22P05': 'The request holds a character text cannot hold (a NUL or a broken character).',
+};
+
 export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (err instanceof AppError) {
@@ -25,6 +32,13 @@ export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
             ? 'The request body is too large.'
             : String(err.message || 'Bad request.');
       res.status(status).json(refusal(err.code && typeof err.code === 'string' ? err.code.toLowerCase() : 'bad_request', message));
+      return;
+    }
+    // A value the schemas let through but PostgreSQL cannot hold is still the caller's input (the transaction rolled back).
+    const refusedValue = typeof err?.code === 'string' ? VALUE_REFUSALS[err.code] : undefined;
+    if (refusedValue) {
+      console.error('[value refused by PostgreSQL]', String(err?.message ?? err));
+      res.status(400).json(refusal('invalid_input', refusedValue));
       return;
     }
     if (isDatabaseUnavailable(err)) {

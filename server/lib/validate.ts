@@ -1,9 +1,13 @@
 import type { z } from 'zod';
+import { keepable } from '../../shared/schemas/common.js';
 import { ValidationError } from './errors.js';
 
-/** Parses input with a zod schema; on failure throws a 400 naming each offending field. */
+/**
+ * Parses input with a zod schema; on failure throws a 400 naming each offending field. Every input first passes
+ * the shared `keepableInput` refinement (no NUL bytes or lone surrogates in any string or key).
+ */
 export function parseInput<S extends z.ZodType>(schema: S, data: unknown, where = 'body'): z.infer<S> {
-  const result = schema.safeParse(data);
+  const result = keepable(schema).safeParse(data);
   if (result.success) return result.data;
   const details = result.error.issues.map((i) => ({
     path: [where, ...i.path.map(String)].join('.'),

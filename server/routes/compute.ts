@@ -2,8 +2,8 @@ import express, { Router } from 'express';
 import type { AppContext } from '../context.js';
 import { perMinuteLimit } from '../lib/rate-limit.js';
 import { parseInput } from '../lib/validate.js';
-import { ValidationError } from '../lib/errors.js';
-import { computeEffect, pool, StatsInputError } from '../../shared/stats/index.js';
+import { UnprocessableError, ValidationError } from '../lib/errors.js';
+import { computeEffect, pool, StatsInputError, StatsRangeError } from '../../shared/stats/index.js';
 import { effectInputSchema, poolInputSchema } from '../../shared/schemas/compute.js';
 
 /**
@@ -30,11 +30,12 @@ export function computeRouter(ctx: AppContext) {
   return router;
 }
 
-/** The library's own refusals (naming the offending position) become 400s in the API's error shape. */
+/** The library's own refusals (naming the offending position) become 400s; results out of floating-point range 422s. */
 function run<T>(fn: () => T): T {
   try {
     return fn();
   } catch (err) {
+    if (err instanceof StatsRangeError) throw new UnprocessableError(err.message, err.field ? [{ path: `body.${err.field}`, message: err.message }] : undefined);
     if (err instanceof StatsInputError) throw new ValidationError(err.message, err.field ? [{ path: `body.${err.field}`, message: err.message }] : undefined);
     throw err;
   }

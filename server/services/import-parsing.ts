@@ -1,5 +1,5 @@
 // Splits an import file into entries and turns each into CSL-JSON or a rejection a person understands.
-import { normaliseDoi } from '../../shared/schemas/references.js';
+import { normaliseDoi, REFERENCE_LIMITS } from '../../shared/schemas/references.js';
 import { parseEntry } from '../adapters/citations.js';
 import { cslTitle, cslYear, type Csl } from './reference-fields.js';
 
@@ -121,9 +121,36 @@ export function describeEntry(e: RawEntry, format: 'bibtex' | 'ris' | 'doi'): st
   return `Entry ${e.index}${e.key && e.key !== '(stray text)' ? ` (key "${e.key}")` : ''}, line ${e.line}`;
 }
 
+const tooLong = (field: string, n: number, max: number) => `field ${field} has ${n.toLocaleString('en')} characters; at most ${max.toLocaleString('en')} are allowed (as when editing a reference)`;
+const textOf = (v: unknown) => (Array.isArray(v) ? v.join(' ') : typeof v === 'string' ? v : '');
+
+/** The same length caps as an edit (REFERENCE_LIMITS): the first field over its cap, in words, or null. */
+export function fieldLengthProblem(csl: Csl): string | null {
+  const L = REFERENCE_LIMITS;
+  const title = cslTitle(csl);
+  if (title.length > L.title) return tooLong('title', title.length, L.title);
+  const container = textOf(csl['container-title']).trim();
+  if (container.length > L.container) return tooLong('journal (container)', container.length, L.container);
+  const abstract = textOf(csl.abstract);
+  if (abstract.length > L.abstract) return tooLong('abstract', abstract.length, L.abstract);
+  const doi = String(csl.DOI ?? '').trim();
+  if (doi.length > L.doi) return tooLong('doi', doi.length, L.doi);
+  const people = [...(Array.isArray(csl.author) ? csl.author : []), ...(Array.isArray(csl.editor) ? csl.editor : [])];
+  if (people.length > L.authors) return `the entry names ${people.length.toLocaleString('en')} authors and editors; at most ${L.authors} are allowed`;
+  for (const [i, p] of people.entries()) {
+    for (const part of ['family', 'given', 'literal'] as const) {
+      const n = typeof p?.[part] === 'string' ? (p[part] as string).length : 0;
+      if (n > L.name) return tooLong(`author ${i + 1} (${part} name)`, n, L.name);
+    }
+  }
+  return null;
+}
+
 /** What the registry needs of a record; returns the problem in words or null. */
 export function checkCsl(csl: Csl): string | null {
   if (!cslTitle(csl)) return 'field title is missing';
+  const long = fieldLengthProblem(csl);
+  if (long) return long;
   const issued = csl.issued;
   if (issued && cslYear(csl) === null) {
     const shown = issued.literal ?? issued.raw ?? JSON.stringify(issued['date-parts'] ?? issued);

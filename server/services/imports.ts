@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import { DoiLookupError } from '../adapters/citations.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportPage, type ImportResult } from '../../shared/schemas/references.js';
-import { NotFoundError } from '../lib/errors.js';
+import { NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
 import {
@@ -12,7 +12,7 @@ import {
 import { findRefByDoi, insertRefs, insertRefUnlessDoiTaken, liveRefsWithTitleKeys, refIdsByDoi } from '../repositories/refs.js';
 import type { EntryStatus, ImportEntryRow } from '../repositories/rows.js';
 import type { Deps, SearchDeps } from './deps.js';
-import { describeEntry, parseDoiList, parseEntries } from './import-parsing.js';
+import { describeEntry, fieldLengthProblem, parseDoiList, parseEntries } from './import-parsing.js';
 import { authorKey, cleanCsl, refColumns, type Csl, type RefColumns } from './reference-fields.js';
 import { findDuplicate, offerDuplicate } from './references.js';
 import { syncReferences } from './search.js';
@@ -43,6 +43,10 @@ export async function importText(
   input: { format: 'bibtex' | 'ris'; text: string; label?: string; userId: number | null },
 ): Promise<ImportResult> {
   const parsed = parseEntries(input.format, input.text);
+  if (!parsed.length) {
+    const hint = input.format === 'bibtex' ? 'a BibTeX entry starts like @article{key, …}' : 'a RIS record starts with "TY  -" and ends with "ER  -"';
+    throw new UnprocessableError(`no entries found: the text holds no ${input.format === 'bibtex' ? 'BibTeX' : 'RIS'} entry (${hint})`, [{ path: 'body.text', message: 'no entries found' }]);
+  }
   const batchId = await ctx.db.transaction(async (trx) => {
     const batch = { id: await insertBatch(trx, { format: input.format, label: input.label ?? null, total: parsed.length, created_by: input.userId }) };
     const good = parsed.filter((p) => p.ok);
@@ -144,6 +148,7 @@ export async function importText(
 /** A DOI list: a batch whose entries are resolved by background jobs; answers at once with the batch. */
 export async function importDois(ctx: Pick<Deps, 'db' | 'search' | 'jobs' | 'doi'>, input: { text: string; label?: string; userId: number | null }): Promise<ImportResult> {
   const list = parseDoiList(input.text);
+  if (!list.length) throw new UnprocessableError('no entries found: the list holds no DOI (one per line, like 10.5555/abc)', [{ path: 'body.text', message: 'no entries found' }]);
   const seen = new Map<string, number>();
   const batchId = await ctx.db.transaction(async (trx) => {
     const batch = { id: await insertBatch(trx, { format: 'doi', label: input.label ?? null, total: list.length, created_by: input.userId }) };
@@ -213,6 +218,8 @@ export async function resolveDoiEntries(
         update = await ctx.db.transaction(async (trx) => {
           const cols = refColumns(csl);
           if (!cols.title) return { status: 'rejected' as const, message: `${where}: ${doi}: the resolver's record has no title` };
+          const long = fieldLengthProblem(csl);
+          if (long) return { status: 'rejected' as const, message: `${where}: ${doi}: the resolver's record is refused: ${long}` };
           if (!cols.doi) cols.doi = doi.toLowerCase();
           const dup = await findDuplicate(trx, cols);
           if (dup.exact) return { status: 'duplicate' as const, reference_id: dup.exact, message: `${where}: ${doi} is already reference #${dup.exact}` };

@@ -6,7 +6,7 @@ import { POPULATIONS } from '../vocabulary/populations.js';
 import { TASKS } from '../vocabulary/tasks.js';
 import { REPORT_FORMS, REPORTED_KEYS, METRIC_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
 import { METRICS } from '../stats/metrics.js';
-import { pageSchema, pagingSchema, timestamp } from './common.js';
+import { idParam, pageSchema, pagingSchema, timestamp } from './common.js';
 import { derivationSchema } from './trials.js';
 
 /** Empty form inputs (NaN from valueAsNumber, '' or null) mean "not reported". */
@@ -111,9 +111,9 @@ export const EXTRACTION_STATES = ['draft', 'submitted', 'matched', 'disputed', '
 export type ExtractionState = (typeof EXTRACTION_STATES)[number];
 
 export const createAssignmentSchema = z.object({
-  referenceId: z.coerce.number().int().positive(),
-  coder1Id: z.coerce.number().int().positive(),
-  coder2Id: z.coerce.number().int().positive(),
+  referenceId: idParam,
+  coder1Id: idParam,
+  coder2Id: idParam,
 }).refine((v) => v.coder1Id !== v.coder2Id, { path: ['coder2Id'], message: 'choose two different coders' });
 
 export const resolveDiscrepancySchema = z
@@ -136,7 +136,7 @@ export const effectsQuerySchema = z.object({
   modality: z.enum(MODALITIES).optional(),
   task: z.enum(TASKS).optional(),
   design: z.enum(DESIGNS).optional(),
-  referenceId: z.coerce.number().int().positive().optional(),
+  referenceId: idParam.optional(),
   yearFrom: z.coerce.number().int().min(1800).max(2200).optional(),
   yearTo: z.coerce.number().int().min(1800).max(2200).optional(),
   page: z.coerce.number().int().min(1).default(1),
@@ -294,7 +294,7 @@ export type Claimable = z.infer<typeof claimableSchema>;
 export const claimablePageSchema = pageSchema(claimableSchema);
 export type ClaimablePage = z.infer<typeof claimablePageSchema>;
 
-export const claimSchema = z.object({ referenceId: z.coerce.number().int().positive() });
+export const claimSchema = z.object({ referenceId: idParam });
 /** POST /api/extractions: the new sheet. */
 export const createdSchema = z.object({ id: z.number().int() });
 export type Created = z.infer<typeof createdSchema>;

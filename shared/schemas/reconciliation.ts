@@ -1,6 +1,6 @@
 // Double coding: assignments, the reconciliation queue, settled records and inter-coder agreement.
 import { z } from 'zod';
-import { pageSchema, pagingSchema, timestamp } from './common.js';
+import { idParam, pageSchema, pagingSchema, timestamp } from './common.js';
 import { EXTRACTION_STATES, storedStudySchema } from './extraction.js';
 
 export const ASSIGNMENT_STATES = ['coding', 'matched', 'disputed', 'settled', 'withdrawn'] as const;
@@ -166,7 +166,7 @@ export type SettledRecord = z.infer<typeof settledRecordSchema>;
 
 // ---- settled records
 
-export const recordListQuerySchema = z.object({ referenceId: z.coerce.number().int().positive() });
+export const recordListQuerySchema = z.object({ referenceId: idParam });
 
 /** GET /api/records?referenceId=: every version of a reference's settled record and what happened to it. */
 export const recordHistorySchema = z.object({

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { EXCLUSION_REASONS, SCREENING_DECISIONS, SCREENING_STATUSES } from '../vocabulary/screening.js';
-import { actorSchema, pageSchema, pagingSchema, timestamp } from './common.js';
+import { idParam, actorSchema, pageSchema, pagingSchema, timestamp } from './common.js';
 
 export const IMPORT_FORMATS = ['bibtex', 'ris', 'doi'] as const;
 export type ImportFormat = (typeof IMPORT_FORMATS)[number];
@@ -14,6 +14,9 @@ export const importRequestSchema = z.object({
   label: z.string().trim().max(200).optional(),
 });
 export type ImportRequest = z.infer<typeof importRequestSchema>;
+
+/** The longest a reference's fields may be, at edit and at import alike. */
+export const REFERENCE_LIMITS = { title: 1000, container: 500, abstract: 20_000, authors: 500, name: 200, doi: 300 } as const;
 
 export const ENTRY_STATUSES = ['pending', 'imported', 'duplicate', 'rejected'] as const;
 export type EntryStatus = (typeof ENTRY_STATUSES)[number];
@@ -69,30 +72,32 @@ export const referenceListQuerySchema = pagingSchema(REFERENCE_SORTS, 'created_a
   source: z.string().trim().max(40).optional(),
   yearFrom: z.coerce.number().int().min(1000).max(3000).optional(),
   yearTo: z.coerce.number().int().min(1000).max(3000).optional(),
-  batch: z.coerce.number().int().positive().optional(),
+  batch: idParam.optional(),
 });
 export type ReferenceListQuery = z.infer<typeof referenceListQuerySchema>;
 
+const L = REFERENCE_LIMITS;
 const personSchema = z.object({
-  family: z.string().trim().min(1, 'family name is required').max(200),
-  given: z.string().trim().max(200).optional(),
+  family: z.string().trim().min(1, 'family name is required').max(L.name),
+  given: z.string().trim().max(L.name).optional(),
 });
 
 /** The fields a contributor may edit on a reference; the rest of the CSL-JSON is kept as imported. */
 export const referenceEditSchema = z.object({
   version: z.number().int().positive({ message: 'send the version you edited' }),
-  title: z.string().trim().min(1, 'a reference needs a title').max(1000).optional(),
+  title: z.string().trim().min(1, 'a reference needs a title').max(L.title).optional(),
   year: z.number().int().min(1000, 'year must be four digits').max(3000, 'year must be four digits').nullable().optional(),
-  authors: z.array(personSchema).max(500).optional(),
-  container: z.string().trim().max(500).nullable().optional(),
+  authors: z.array(personSchema).max(L.authors).optional(),
+  container: z.string().trim().max(L.container).nullable().optional(),
   doi: z
     .string()
     .trim()
+    .max(L.doi)
     .transform((s) => normaliseDoi(s) ?? s)
     .refine((s) => s === '' || DOI_PATTERN.test(s), 'a DOI looks like 10.5555/abc')
     .nullable()
     .optional(),
-  abstract: z.string().max(20_000).nullable().optional(),
+  abstract: z.string().max(L.abstract).nullable().optional(),
 });
 export type ReferenceEdit = z.infer<typeof referenceEditSchema>;
 
@@ -111,13 +116,13 @@ export type ScreeningDecisionInput = z.infer<typeof screeningDecisionSchema>;
 
 export const screeningQueueQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(100).default(20),
-  batch: z.coerce.number().int().positive().optional(),
+  batch: idParam.optional(),
 });
 
 export const duplicateListQuerySchema = pagingSchema(['created_at', 'year'] as const, 'created_at').extend({
   status: z.enum(['open', 'merged', 'dismissed']).default('open'),
 });
-export const mergeSchema = z.object({ keep: z.number().int().positive().optional() });
+export const mergeSchema = z.object({ keep: idParam.optional() });
 
 export const searchQuerySchema = z.object({
   q: z.string().trim().max(200).default(''),
@@ -135,8 +140,8 @@ export const exportQuerySchema = z.object({
   ids: z
     .string()
     .regex(/^\d+(,\d+)*$/, 'ids is a comma-separated list of reference ids')
-    .transform((s) => s.split(',').map(Number))
-    .refine((a) => a.length <= 5000, 'export at most 5,000 references at a time'),
+    .transform((s): unknown[] => s.split(','))
+    .pipe(z.array(idParam).max(5000, 'export at most 5,000 references at a time')),
 });
 
 /** "https://doi.org/10.5555/X", "doi:10.5555/x" → "10.5555/x"; anything else → null. */

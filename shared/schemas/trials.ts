@@ -3,7 +3,7 @@ import { PSYCHOMETRIC_MODELS } from '../psychophysics/psychometric.js';
 import { CONTRAST_MEASURES } from '../trials/contrast.js';
 import { TRIAL_PARAMETERS, TRIAL_TASKS } from '../trials/fits.js';
 import { MODALITIES } from '../vocabulary/modalities.js';
-import { timestamp } from './common.js';
+import { idParam, timestamp } from './common.js';
 
 /** The form fields sent with an uploaded CSV of trials or counts. */
 export const trialUploadSchema = z
@@ -15,7 +15,7 @@ export const trialUploadSchema = z
   });
 export type TrialUpload = z.infer<typeof trialUploadSchema>;
 
-export const trialSetParamsSchema = z.object({ setId: z.coerce.number().int().positive() });
+export const trialSetParamsSchema = z.object({ setId: idParam });
 
 /** Starting the fits: how many bootstrap resamples per participant × condition. */
 export const startFitsSchema = z.object({
@@ -34,7 +34,7 @@ export const contrastQuerySchema = z
 /** How a coded effect was derived from trial data (kept with the effect, refreshed from the fits on every save). */
 export const derivationSchema = z.object({
   source: z.literal('trial_data'),
-  trialSetId: z.number().int().positive(),
+  trialSetId: idParam,
   parameter: z.enum(TRIAL_PARAMETERS),
   conditionA: z.string().min(1).max(60),
   conditionB: z.string().min(1).max(60),

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { roleSchema } from '../roles.js';
-import { pageSchema, pagingSchema, timestamp } from './common.js';
+import { idParam, pageSchema, pagingSchema, timestamp } from './common.js';
 
 export const meSchema = z.object({
   user: z.object({
@@ -21,7 +21,7 @@ export const userListQuerySchema = pagingSchema(['login', 'name', 'created_at', 
 export type UserListQuery = z.infer<typeof userListQuerySchema>;
 
 export const roleChangeParamsSchema = z.object({
-  id: z.coerce.number().int().positive(),
+  id: idParam,
   role: roleSchema,
 });
 

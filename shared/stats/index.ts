@@ -14,7 +14,7 @@ export { formulas } from './formulas.js';
 export { METRICS } from './metrics.js';
 export { EFFECT_METRICS } from './effect-metrics.js';
 export { METHODS } from './types.js';
-export { StatsInputError } from './errors.js';
+export { StatsInputError, StatsRangeError } from './errors.js';
 export { smdIndependent, hedgesGFromD } from './smd-independent.js';
 export { smdFromT } from './smd-from-t.js';
 export { smdFromF } from './smd-from-f.js';

@@ -7,6 +7,7 @@ import { randomEffectsMoments, seriesQ } from './random-effects-moments.js';
 import { chiSquareQuantile, chiSquareUpperTail } from './chi-square.js';
 import { normalQuantileUpper, normalTwoTailed } from './normal.js';
 import { tQuantileUpper, tTwoTailed } from './student-t.js';
+import { assertFinite, StatsRangeError } from './errors.js';
 
 export interface PoolCoreExtras {
   /** skip the Q-profile interval and Egger's test (used by trim-and-fill's inner fits) */
@@ -30,6 +31,7 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
   if (k === 1) {
     const se = Math.sqrt(v[0]);
     const z = y[0] / se;
+    assertFinite({ 'the z statistic': z });
     return {
       k, method, hksj, level,
       estimate: y[0], se, ci_lower: y[0] - zCrit * se, ci_upper: y[0] + zCrit * se,
@@ -41,6 +43,7 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
   }
 
   const fe = dlTau2(y, v, !extras.lean);
+  assertFinite({ 'the sum of inverse-variance weights': fe.sumW, 'the fixed-effect mean': fe.feMean, Q: fe.Q, 'the DerSimonian–Laird tau²': fe.tau2 });
   const df = k - 1;
   let tau2 = 0;
   if (extras.tau2 !== undefined && method !== 'FE') tau2 = extras.tau2;
@@ -64,7 +67,8 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
     if (wArr) for (let i = 0; i < k; i++) wArr[i] = 1 / v[i];
   } else {
     moments = randomEffectsMoments(y, v, tau2, fe.feMean, 1 / (fe.vmin + tau2), wArr);
-    const at = seriesQ(moments, tau2)!;
+    const at = seriesQ(moments, tau2);
+    if (!at) throw new StatsRangeError('the random-effects weights');
     sumW = at.sumW;
     mean = at.mean;
     hksjNumerator = at.Q;
@@ -80,6 +84,7 @@ export function poolCore(data: PreparedData, options: PoolOptions, extras: PoolC
     crit = tQuantileUpper(alpha / 2, df);
   }
   const statistic = mean / se;
+  assertFinite({ 'the pooled estimate': mean, 'its standard error': se, 'tau²': tau2 });
   const p = statisticDf === null ? normalTwoTailed(statistic) : tTwoTailed(statistic, statisticDf);
 
   const Q = fe.Q;
