@@ -38,6 +38,10 @@ export interface ForestInput {
   /** "paper": the groups are papers (three-level model), each closed by its paper-level line; groups left
    * without a row after the cut are not drawn */
   grouping?: 'subgroup' | 'paper';
+  /** the caller already kept the rows with the largest weights: this many more were left out */
+  omitted?: number;
+  /** what a row is, for the note on left-out rows (default "studies") */
+  rowNoun?: string;
 }
 
 export const FOREST_MAX_ROWS = 300;
@@ -62,11 +66,11 @@ export function forestFigure(input: ForestInput): PlotFigure {
   const digits = metricDigits(input.metric);
   const maxRows = input.maxRows ?? FOREST_MAX_ROWS;
   let studies = input.studies;
-  let omitted = 0;
+  let omitted = input.omitted ?? 0;
   if (studies.length > maxRows) {
     const keep = new Set([...studies].sort((a, b) => b.weight - a.weight).slice(0, maxRows));
     studies = studies.filter((s) => keep.has(s));
-    omitted = input.studies.length - studies.length;
+    omitted += input.studies.length - studies.length;
   }
   const grouped = !!input.subgroups?.length;
   const byPaper = input.grouping === 'paper';
@@ -288,7 +292,7 @@ export function forestFigure(input: ForestInput): PlotFigure {
       yshift: -44,
       xanchor: 'left',
       showarrow: false,
-      text: `Showing the ${studies.length} studies with the largest weights; ${omitted} more are in the pooled estimate and the CSV export.`,
+      text: `Showing the ${studies.length} ${input.rowNoun ?? 'studies'} with the largest weights; ${omitted} more are in the pooled estimate and the CSV export.`,
       font: { size: 11, color: C.inkSoft },
     });
 

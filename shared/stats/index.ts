@@ -55,7 +55,7 @@ export type { SubgroupInput, SubgroupResult } from './subgroups.js';
 export type { MetaRegressionInput, MetaRegressionResult, RegressionCoefficient, ModeratorColumn, ModeratorSummary } from './meta-regression.js';
 export type { AggregateInput, AggregateResult } from './aggregate-within-study.js';
 export { poolMultilevel } from './multilevel-pool.js';
-export { robustPool } from './robust-variance.js';
+export { robustPool, poolMultilevelWithRobust } from './robust-variance.js';
 export type { MultilevelInput, MultilevelTest, ClusterId } from './multilevel-input.js';
 export type { MultilevelResult, MultilevelCoefficient } from './multilevel-pool.js';
 export type { RobustInput, RobustResult, RobustCoefficient } from './robust-variance.js';

@@ -11,6 +11,8 @@ export interface MultilevelCoefficient {
   p: number;
   ci_lower: number;
   ci_upper: number;
+  /** k − p, with test = "t" only */
+  df?: number;
 }
 
 export interface MultilevelResult {
@@ -69,10 +71,11 @@ export function fitMultilevel(d: ClusteredData): MultilevelFit {
  */
 export function poolMultilevel(input: MultilevelInput): MultilevelResult {
   const d = prepareMultilevel(input, 'poolMultilevel');
-  return summarise(fitMultilevel(d));
+  return summariseMultilevel(fitMultilevel(d));
 }
 
-function summarise(fit: MultilevelFit): MultilevelResult {
+/** The reported fields of a fitted model. */
+export function summariseMultilevel(fit: MultilevelFit): MultilevelResult {
   const { d, reml, beta, vcov } = fit;
   const { k, p, v, level, test } = d;
   const df = k - p;
@@ -84,14 +87,9 @@ function summarise(fit: MultilevelFit): MultilevelResult {
     const estimate = beta[a];
     const se = Math.sqrt(vcov[a * p + a]);
     const statistic = estimate / se;
-    coefficients.push({
-      estimate,
-      se,
-      statistic,
-      p: twoTailed(statistic),
-      ci_lower: estimate - crit * se,
-      ci_upper: estimate + crit * se,
-    });
+    const c: MultilevelCoefficient = { estimate, se, statistic, p: twoTailed(statistic), ci_lower: estimate - crit * se, ci_upper: estimate + crit * se };
+    if (test === 't') c.df = df;
+    coefficients.push(c);
   }
   const fe = new MultilevelReml(d).point(0, 0);
   const Q = fe ? residualQ(d, fe.beta) : NaN;

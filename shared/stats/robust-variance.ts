@@ -1,7 +1,7 @@
 import { StatsInputError } from './errors.js';
 import { tQuantileUpper, tTwoTailed } from './student-t.js';
 import { prepareMultilevel, type MultilevelInput } from './multilevel-input.js';
-import { fitMultilevel } from './multilevel-pool.js';
+import { fitMultilevel, summariseMultilevel, type MultilevelFit, type MultilevelResult } from './multilevel-pool.js';
 import { cholesky, symmetricPower } from './small-symmetric.js';
 
 export interface RobustCoefficient {
@@ -43,7 +43,26 @@ export type RobustInput = Omit<MultilevelInput, 'test'>;
  */
 export function robustPool(input: RobustInput): RobustResult {
   const d = prepareMultilevel(input, 'robustPool');
-  const fit = fitMultilevel(d);
+  return robustFromFit(fitMultilevel(d));
+}
+
+/**
+ * poolMultilevel and robustPool from one REML fit (the synthesis needs both): the robust part is an Error when
+ * it cannot be formed (identical effects), the model's result otherwise stands.
+ */
+export function poolMultilevelWithRobust(input: MultilevelInput): { model: MultilevelResult; robust: RobustResult | Error } {
+  const fit = fitMultilevel(prepareMultilevel(input, 'poolMultilevel'));
+  const model = summariseMultilevel(fit);
+  try {
+    return { model, robust: robustFromFit(fit) };
+  } catch (err) {
+    if (err instanceof StatsInputError) return { model, robust: err };
+    throw err;
+  }
+}
+
+function robustFromFit(fit: MultilevelFit): RobustResult {
+  const d = fit.d;
   const { k, p, clusters: J, v, x, start, level } = d;
   const { beta, vcov: M } = fit;
   const sb = fit.reml.sigma2Between;

@@ -1,7 +1,7 @@
 import type { SubgroupVariable, SynthesisRequest } from '../schemas/synthesis.js';
 import { chiSquareUpperTail } from '../stats/chi-square.js';
 import { normalQuantileUpper } from '../stats/normal.js';
-import { poolMultilevel, robustPool, type MultilevelResult, type PoolResult, type RobustResult } from './engine.js';
+import { poolMultilevel, poolMultilevelWithRobust, type MultilevelResult, type PoolResult, type RobustResult } from './engine.js';
 import type { MultilevelSummary, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SubgroupResult } from './types.js';
 
 /** Leave-one-paper-out and cumulative refit the model once per paper: beyond these they are skipped. */
@@ -34,16 +34,16 @@ export interface MultilevelInputRows {
 
 export function fitThreeLevel(d: MultilevelInputRows, request: MultilevelRequest): MultilevelFit {
   const input = { effects: d.y, variances: d.v, cluster: d.cluster, moderators: d.moderators, level: request.level };
-  const model = poolMultilevel({ ...input, test: request.hksj ? 't' : 'z' });
+  const test = request.hksj ? 't' : 'z';
+  let model: MultilevelResult;
   let robust: RobustResult | null = null;
   let robustError: string | undefined;
   if (request.dependence.robust) {
-    try {
-      robust = robustPool(input);
-    } catch (err) {
-      robustError = (err as Error).message;
-    }
-  }
+    const both = poolMultilevelWithRobust({ ...input, test });
+    model = both.model;
+    if (both.robust instanceof Error) robustError = both.robust.message;
+    else robust = both.robust;
+  } else model = poolMultilevel({ ...input, test });
   const fit: MultilevelFit = robust
     ? { model, robust, estimate: robust.estimate, se: robust.se, ci_lower: robust.ci_lower, ci_upper: robust.ci_upper, p: robust.p, statistic: robust.t, statistic_df: robust.df }
     : { model, robust, estimate: model.estimate, se: model.se, ci_lower: model.ci_lower, ci_upper: model.ci_upper, p: model.p, statistic: model.statistic, statistic_df: model.statistic_df };

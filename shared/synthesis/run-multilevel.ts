@@ -1,5 +1,5 @@
 import { MODERATOR_LABELS, type SynthesisRequest } from '../schemas/synthesis.js';
-import { forestFigure } from '../plots/forest.js';
+import { FOREST_MAX_ROWS, forestFigure } from '../plots/forest.js';
 import { funnelFigure } from '../plots/funnel.js';
 import { bubbleFigure } from '../plots/bubble.js';
 import { StatsInputError } from './engine.js';
@@ -148,16 +148,23 @@ export function runMultilevelSynthesis(effects: readonly SettledEffect[], reques
   }
   unavailable.push({ analysis: "Egger's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: "Begg's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: 'trim-and-fill', reason: NOT_UNDER_MULTILEVEL });
 
+  const shown = largestWeights(weights, FOREST_MAX_ROWS);
+  const shownPapers = new Set(shown.map((i) => rows[i].referenceId));
   const pooledLabel = `Three-level estimate (REML${fit.robust ? ', CR2 robust' : ''})`;
   const forest = forestFigure({
     metric,
     metricLabel: mLabel,
     level: request.level,
-    studies: rows.map((r) => ({ label: sg ? r.label : r.label.slice(r.paper!.length + 3), year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: sg ? r.subgroup : String(r.referenceId) })),
+    studies: shown.map((i) => {
+      const r = rows[i];
+      return { label: sg ? r.label : r.label.slice(r.paper!.length + 3), year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: sg ? r.subgroup : String(r.referenceId) };
+    }),
+    omitted: k - shown.length,
+    rowNoun: 'effects',
     pooled: { label: pooledLabel, estimate: result.estimate, ci_lower: result.ci_lower, ci_upper: result.ci_upper, pi_lower: result.pi_lower, pi_upper: result.pi_upper },
     subgroups: sg
       ? subgroups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper }))
-      : paperList.map((p) => {
+      : paperList.filter((p) => shownPapers.has(p.id)).map((p) => {
           const idx = byPaper.get(p.id)!;
           return { key: String(p.id), label: p.label, ...paperLine(idx.map((i) => v[i]), idx.map((i) => y[i]), m.sigma2_within, request.level) };
         }),
@@ -196,6 +203,21 @@ export function runMultilevelSynthesis(effects: readonly SettledEffect[], reques
     papersWithSeveralEffects: [...byPaper.values()].filter((x) => x.length > 1).length,
     unavailable,
   };
+}
+
+/** Indices (in row order) of the `max` rows with the largest weights. */
+function largestWeights(weights: number[], max: number): number[] {
+  if (weights.length <= max) return weights.map((_, i) => i);
+  const sorted = Float64Array.from(weights).sort();
+  const cut = sorted[weights.length - max];
+  let above = 0;
+  for (const w of weights) if (w > cut) above++;
+  let ties = max - above;
+  const out: number[] = [];
+  weights.forEach((w, i) => {
+    if (w > cut || (w === cut && ties-- > 0)) out.push(i);
+  });
+  return out;
 }
 
 function multilevelCautions(fit: MultilevelFit, papers: number, result: ReturnType<typeof asPoolResult>): Caution[] {

@@ -246,11 +246,52 @@ export function papersWithSeveralEffects(effects: readonly SettledEffect[]): num
   return several;
 }
 
-/** The pooled estimate with the studies' effects combined at each r of SENSITIVITY_RS (same composite and model). */
+/**
+ * The pooled estimate with the studies' effects combined at each r of SENSITIVITY_RS (same composite and model).
+ * One pass gathers each study's sums; each r then costs O(studies): the plain mean's variance is
+ * (Σv + r((Σ√v)² − Σv))/m² (Borenstein et al. 2009, ch. 24), the inverse-variance composite's is as in
+ * aggregateWithinStudy (both checked against metafor's aggregate.escalc in tests/reference).
+ */
 function overCorrelations(effects: readonly SettledEffect[], d: Extract<Dependence, { mode: 'aggregate' }>, opts: { method: SynthesisRequest['method']; hksj: boolean; level: number }): CorrelationSensitivityRow[] {
+  const index = new Map<number, number>();
+  const m: number[] = [], sy: number[] = [], sv: number[] = [], sq: number[] = [], s1: number[] = [], s2: number[] = [], s1y: number[] = [], s2y: number[] = [];
+  for (const e of effects) {
+    let j = index.get(e.studyId);
+    if (j === undefined) {
+      j = m.length;
+      index.set(e.studyId, j);
+      for (const a of [m, sy, sv, sq, s1, s2, s1y, s2y]) a.push(0);
+    }
+    const root = Math.sqrt(e.variance);
+    m[j]++;
+    sy[j] += e.effect;
+    sv[j] += e.variance;
+    sq[j] += root;
+    s1[j] += 1 / root;
+    s2[j] += 1 / e.variance;
+    s1y[j] += e.effect / root;
+    s2y[j] += e.effect / e.variance;
+  }
+  const J = m.length;
   return SENSITIVITY_RS.map((r) => {
-    const units = applyDependence(effects, { ...d, r });
-    const res = pool({ effects: units.map((u) => u.effect), variances: units.map((u) => u.variance), ...opts });
+    const y = new Float64Array(J);
+    const v = new Float64Array(J);
+    for (let j = 0; j < J; j++) {
+      const n = m[j];
+      if (n === 1) {
+        y[j] = sy[j];
+        v[j] = sv[j];
+      } else if (d.weighted) {
+        const c = r / (1 + (n - 1) * r);
+        const precision = (s2[j] - c * s1[j] * s1[j]) / (1 - r);
+        y[j] = (s2y[j] - c * s1[j] * s1y[j]) / (1 - r) / precision;
+        v[j] = 1 / precision;
+      } else {
+        y[j] = sy[j] / n;
+        v[j] = (sv[j] + r * (sq[j] * sq[j] - sv[j])) / (n * n);
+      }
+    }
+    const res = pool({ effects: y, variances: v, ...opts });
     return { r, k: res.k, estimate: res.estimate, se: res.se, ci_lower: res.ci_lower, ci_upper: res.ci_upper, p: res.p, tau2: res.tau2, I2: res.I2 };
   });
 }

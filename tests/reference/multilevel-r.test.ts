@@ -48,6 +48,7 @@ describe('poolMultilevel and robustPool against metafor rma.mv and clubSandwich 
       const r = poolMultilevel({ ...input(c), test: c.test });
       expect(Object.keys(r)).toEqual(c.moderators ? [...POOL_KEYS, 'coefficients'] : POOL_KEYS);
       expect(r.coefficients?.length).toBe(c.moderators ? c.moderators.length + 1 : undefined);
+      for (const co of r.coefficients ?? []) expect(co.df).toBe(c.test === 't' ? ref.ddf : undefined);
       expect(failures(comparePool(c, ref))).toEqual([]);
       // metafor's own optimum (before the reference's polish) is no higher than ours
       expect(r.loglik).toBeGreaterThanOrEqual(ref.loglik_free - 1e-10);

@@ -45,7 +45,8 @@ function invented(): SettledEffect[] {
 }
 
 interface Fit { b: number[]; se: number[]; ci_lb: number[]; ci_ub: number[]; p: number[]; rb: number[]; rse: number[]; rdf: number[]; rp: number[]; rci_lb: number[]; rci_ub: number[]; sigma2: number[] }
-interface Ref { all: Fit; l1o: Fit[]; cumul: Fit[]; groups: Record<string, Fit>; reg: Fit; agg: Array<{ b: number; ci_lb: number; ci_ub: number; tau2: number }> }
+interface Ref { all: Fit; l1o: Fit[]; cumul: Fit[]; groups: Record<string, Fit>; reg: Fit; agg: AggRow[]; aggw: AggRow[] }
+interface AggRow { b: number; ci_lb: number; ci_ub: number; tau2: number }
 
 function reference(effects: SettledEffect[], l1oOrder: number[], cumulOrder: number[]): Ref {
   return runRSource<Ref>(`
@@ -70,12 +71,12 @@ l1o <- lapply(${rVector(l1oOrder)}, function(p) fit(dat[dat$paper != p, ]))
 cumul <- lapply(seq_along(${rVector(cumulOrder)})[-1], function(m) fit(dat[dat$paper %in% ${rVector(cumulOrder)}[1:m], ]))
 groups <- lapply(split(dat, dat$task), fit)
 reg <- fit(dat, ~ ms)
-agg <- lapply(c(0, 0.2, 0.4, 0.6, 0.8, 0.9), function(r) {
-  a <- aggregate(escalc(measure = "GEN", yi = yi, vi = vi, data = dat), cluster = study, struct = "CS", rho = r, weighted = FALSE)
+agg_at <- function(weighted) lapply(c(0, 0.2, 0.4, 0.6, 0.8, 0.9), function(r) {
+  a <- aggregate(escalc(measure = "GEN", yi = yi, vi = vi, data = dat), cluster = study, struct = "CS", rho = r, weighted = weighted)
   m <- rma(yi, vi, data = a, method = "DL")
   list(b = as.vector(m$b), ci_lb = m$ci.lb, ci_ub = m$ci.ub, tau2 = m$tau2)
 })
-cat(to_json(list(all = fit(dat), l1o = l1o, cumul = cumul, groups = groups, reg = reg, agg = agg)))
+cat(to_json(list(all = fit(dat), l1o = l1o, cumul = cumul, groups = groups, reg = reg, agg = agg_at(FALSE), aggw = agg_at(TRUE))))
 `);
 }
 
@@ -148,12 +149,13 @@ describe('a multilevel synthesis against metafor rma.mv and clubSandwich CR2', (
     expect(relErr(plain.result.p, ref.all.p[0], 1e-300)).toBeLessThan(TOL);
   });
 
-  it('aggregate mode: the sensitivity table over r = 0 … 0.9 matches aggregate.escalc + rma (DL) at each r', () => {
-    const agg = runSynthesis(effects, request({ dependence: { mode: 'aggregate', r: 0.4 } }));
+  for (const weighted of [false, true])
+  it(`aggregate mode${weighted ? ', inverse-variance composite' : ''}: the sensitivity table over r = 0 … 0.9 matches aggregate.escalc (weighted = ${weighted ? 'TRUE' : 'FALSE'}) + rma (DL) at each r`, () => {
+    const agg = runSynthesis(effects, request({ dependence: { mode: 'aggregate', r: 0.4, weighted } }));
     const rows = agg.correlationSensitivity!;
     expect(rows.map((r) => r.r)).toEqual([0, 0.2, 0.4, 0.6, 0.8, 0.9]);
     rows.forEach((row, i) => {
-      const t = ref.agg[i];
+      const t = (weighted ? ref.aggw : ref.agg)[i];
       expect(relErr(row.estimate, t.b, row.se)).toBeLessThan(1e-9);
       expect(relErr(row.ci_lower, t.ci_lb, row.se)).toBeLessThan(1e-9);
       expect(relErr(row.tau2!, t.tau2, 1e-12)).toBeLessThan(1e-9);
