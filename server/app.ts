@@ -58,6 +58,8 @@ export function buildApp(ctx: AppContext) {
     }),
   );
 
+  // A Bearer token is checked before any router (the early ones too), so a revoked token is refused everywhere.
+  app.use(bearerAuth(ctx.db));
   // Routers that need larger bodies (bulk compute, uploads) mount their own parsers before this one.
   for (const mount of earlyApiRouters) app.use('/api', mount(ctx));
   app.use(express.json({ limit: '2mb' }));
@@ -67,7 +69,7 @@ export function buildApp(ctx: AppContext) {
   const sessionMiddleware = session({
     name: 'chronometa.sid',
     secret: env.SESSION_SECRET,
-    store: new PgStore({ pool: ctx.sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: false }),
+    store: new PgStore({ pool: ctx.sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: env.NODE_ENV === 'test' ? false : 15 * 60 }),
     resave: false,
     saveUninitialized: false,
     cookie: { httpOnly: true, sameSite: 'lax', secure: env.APP_ORIGIN.startsWith('https'), maxAge: 14 * 24 * 3600 * 1000 },
@@ -85,7 +87,6 @@ export function buildApp(ctx: AppContext) {
       initialize(req, res, () => restore(req, res, next));
     });
   });
-  app.use(bearerAuth(ctx.db));
   app.use(originCheck([env.APP_ORIGIN, ...extraOrigins(env)]));
 
   app.use('/auth', authRouter(ctx, passport));

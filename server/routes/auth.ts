@@ -1,14 +1,23 @@
 import { Router } from 'express';
 import type { createPassport } from '../auth/passport.js';
-import { z } from 'zod';
 import type { AppContext } from '../context.js';
 import { perMinuteLimit } from '../lib/rate-limit.js';
 
-const returnToSchema = z
-  .string()
-  .regex(/^\/(?!\/)[^\s]*$/, 'must be a path on this site')
-  .max(500)
-  .optional();
+/**
+ * Where to go after sign-in: only a path on this site. Parsed with `new URL` against the app's origin, so
+ * `//host`, `/\\host`, `https://host` and the like (which a browser reads as another host) are dropped.
+ */
+export function safeReturnTo(value: unknown, appOrigin: string): string | undefined {
+  if (typeof value !== 'string' || value.length > 500 || !value.startsWith('/') || [...value].some((c) => c <= ' ' || c === '\\')) return undefined;
+  let url: URL;
+  try {
+    url = new URL(value, appOrigin);
+  } catch {
+    return undefined;
+  }
+  if (url.origin !== new URL(appOrigin).origin) return undefined;
+  return `${url.pathname}${url.search}${url.hash}`;
+}
 
 /** The OAuth web flow at passport's usual paths: /auth/github → provider → /auth/github/callback. */
 export function authRouter(ctx: AppContext, passport: ReturnType<typeof createPassport>) {
@@ -16,8 +25,8 @@ export function authRouter(ctx: AppContext, passport: ReturnType<typeof createPa
   router.use(perMinuteLimit(ctx.env.AUTH_RATE_LIMIT_PER_MINUTE, 'Too many sign-in attempts; wait a minute and try again.'));
 
   router.get('/github', (req, res, next) => {
-    const returnTo = returnToSchema.safeParse(req.query.returnTo);
-    if (returnTo.success && returnTo.data && req.session) (req.session as { returnTo?: string }).returnTo = returnTo.data;
+    const returnTo = safeReturnTo(req.query.returnTo, ctx.env.APP_ORIGIN);
+    if (returnTo && req.session) (req.session as { returnTo?: string }).returnTo = returnTo;
     passport.authenticate('github')(req, res, next);
   });
 
@@ -25,7 +34,7 @@ export function authRouter(ctx: AppContext, passport: ReturnType<typeof createPa
     passport.authenticate('github', (err: unknown, user: Express.User | false) => {
       if (err) return next(err);
       if (!user) return res.redirect('/?signin=failed');
-      const returnTo = (req.session as { returnTo?: string }).returnTo ?? '/';
+      const returnTo = safeReturnTo((req.session as { returnTo?: string }).returnTo, ctx.env.APP_ORIGIN) ?? '/';
       // req.login regenerates the session (passport 0.6+), which defeats session fixation.
       req.login(user, (loginErr) => {
         if (loginErr) return next(loginErr);

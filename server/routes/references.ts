@@ -89,7 +89,7 @@ export function referencesRouter(ctx: AppContext) {
 
   router.get('/references/:id/attachments/:attachmentId', requireSignIn, async (req, res) => {
     const { id, attachmentId } = parseInput(idParamsSchema.extend({ attachmentId: idParam }), req.params, 'path');
-    const file = await attachmentFile(ctx.db, ctx.env.UPLOAD_DIR, id, attachmentId);
+    const file = await attachmentFile(ctx.db, ctx.env.UPLOAD_DIR, id, attachmentId, req.user!);
     res.setHeader('Cache-Control', 'private, no-store');
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.attachment(file.filename);

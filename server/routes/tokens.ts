@@ -5,10 +5,15 @@ import { createApiToken, listApiTokens, revokeApiToken } from '../services/api-t
 import { requireSignIn } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
+import { ForbiddenError } from '../lib/errors.js';
 
 export function tokensRouter(ctx: AppContext) {
   const router = Router();
-  router.use('/tokens', requireSignIn);
+  // A token cannot mint, list or revoke tokens (one that leaked could outlive its own revocation): a session only.
+  router.use('/tokens', requireSignIn, (req, _res, next) => {
+    if (req.user!.via !== 'session') throw new ForbiddenError('API tokens are minted, listed and revoked from a signed-in session, not with a token.');
+    next();
+  });
 
   router.get('/tokens', async (req, res) => {
     res.json(await listApiTokens(ctx.db, req.user!.id));

@@ -3,7 +3,8 @@ import { randomBytes } from 'node:crypto';
 import { mkdir, rename, rm } from 'node:fs/promises';
 import path from 'node:path';
 import type { AttachmentCreated } from '../../shared/schemas/references.js';
-import { ConflictError, NotFoundError, UnprocessableError } from '../lib/errors.js';
+import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors.js';
+import { hasRole } from '../../shared/roles.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso } from '../repositories/db.js';
 import { findAttachment, findRef, insertAttachment } from '../repositories/refs.js';
@@ -32,7 +33,7 @@ export async function addAttachment(
   await mkdir(dir, { recursive: true });
   const stored = `${input.refId}-${randomBytes(12).toString('hex')}.pdf`;
   await rename(input.tmpPath, path.join(dir, stored));
-  const filename = path.basename(input.originalName).replace(/[^\w.\- ()]+/g, '_').slice(0, 200) || 'attachment.pdf';
+  const filename = safePdfName(input.originalName);
   return db.transaction(async (trx) => {
     const row = await insertAttachment(trx, { ref_id: input.refId, filename, stored_name: stored, size_bytes: input.size, mime: 'application/pdf', uploaded_by: input.actorId });
     await recordAudit(trx, { actorId: input.actorId, action: 'reference.attach', entityType: 'reference', entityId: input.refId, details: { attachment: row.id, filename, size: input.size } });
@@ -40,8 +41,21 @@ export async function addAttachment(
   });
 }
 
-export async function attachmentFile(db: Knex, uploadDir: string, refId: number, attachmentId: number) {
+/** A stored file name: the uploaded name's letters, digits and `._-()` and spaces, always ending in `.pdf`. */
+export function safePdfName(original: string): string {
+  const base = path.basename(original.replace(/\\/g, '/')).replace(/\.pdf$/i, '');
+  const clean = base.replace(/[^\w.\- ()]+/g, '_').replace(/^[.\s]+/, '').slice(0, 196);
+  return `${clean || 'attachment'}.pdf`;
+}
+
+/**
+ * The file of an attachment, for contributors, curators and reviewers, and for its uploader. Anyone else is told
+ * 403 whether or not the reference or the attachment exists, so the answer reveals nothing.
+ */
+export async function attachmentFile(db: Knex, uploadDir: string, refId: number, attachmentId: number, user: Pick<Express.User, 'id' | 'roles'>) {
+  const entitled = hasRole(user.roles, 'contributor') || hasRole(user.roles, 'reviewer');
   const row = await findAttachment(db, refId, attachmentId);
+  if (!entitled && row?.uploaded_by !== user.id) throw new ForbiddenError('Attachments are for contributors, curators, reviewers and the person who uploaded them.');
   if (!row) throw new NotFoundError(`Reference ${refId} has no attachment ${attachmentId}.`);
   return { path: path.join(dirFor(uploadDir), row.stored_name), filename: row.filename };
 }

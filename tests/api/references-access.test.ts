@@ -15,7 +15,7 @@ describeAccess(
     { method: 'patch', path: (ids) => `/api/references/${ids.a}`, body: { version: 999, title: 'x' }, who: ['contributor'], bad: { body: { version: 'one' } } },
     { method: 'post', path: (ids) => `/api/references/${ids.a}/screening`, body: { decision: 'included' }, who: ['contributor'], bad: { body: { decision: 'excluded' } } },
     { method: 'post', path: (ids) => `/api/references/${ids.a}/attachments`, who: ['contributor'], bad: { body: { nothing: true } } },
-    { method: 'get', path: (ids) => `/api/references/${ids.a}/attachments/999999`, who: 'signed-in', bad: { path: (ids) => `/api/references/${ids.a}/attachments/zero` } },
+    { method: 'get', path: (ids) => `/api/references/${ids.a}/attachments/999999`, who: ['contributor', 'reviewer'], bad: { path: (ids) => `/api/references/${ids.a}/attachments/zero` } },
     { method: 'post', path: '/api/references/merge', body: { a: 999998, b: 999999 }, who: ['curator'], bad: { body: { a: 'x' } } },
     { method: 'get', path: '/api/screening/queue', who: ['contributor'], bad: { path: '/api/screening/queue?limit=100000' } },
     { method: 'get', path: '/api/screening/counts', who: 'anyone' },

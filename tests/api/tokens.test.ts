@@ -26,8 +26,11 @@ describe('personal API tokens', () => {
     expect(me.status).toBe(200);
     expect(me.body.user.roles).toContain('reviewer');
     // Bearer requests need no Origin (they carry no ambient credentials).
-    const viaToken = await request(t.app).post('/api/tokens').set('Authorization', `Bearer ${token}`).send({ name: 'second' });
-    expect(viaToken.status).toBe(201);
+    const viaToken = await request(t.app).post('/api/syntheses').set('Authorization', `Bearer ${token}`).send({});
+    expect(viaToken.status).not.toBe(403);
+    expect(viaToken.body.error?.code).not.toBe('forbidden');
+    // but a token never mints another (tests/api/access-hardening.test.ts)
+    expect((await request(t.app).post('/api/tokens').set('Authorization', `Bearer ${token}`).send({ name: 'second' })).status).toBe(403);
 
     expect((await reviewer.delete(`/api/tokens/${created.body.id}`)).status).toBe(204);
     const after = await request(t.app).get('/api/me').set('Authorization', `Bearer ${token}`);
