@@ -2,7 +2,7 @@ import { chiSquareUpperTail } from './chi-square.js';
 import { normalQuantileUpper, normalTwoTailed } from './normal.js';
 import { tQuantileUpper, tTwoTailed } from './student-t.js';
 import { prepareMultilevel, type ClusteredData, type MultilevelInput } from './multilevel-input.js';
-import { fitMultilevelReml, residualQ, MultilevelReml, type RemlFit } from './multilevel-reml.js';
+import { fitMultilevelReml, type RemlFit } from './multilevel-reml.js';
 
 export interface MultilevelCoefficient {
   estimate: number;
@@ -91,8 +91,7 @@ export function summariseMultilevel(fit: MultilevelFit): MultilevelResult {
     if (test === 't') c.df = df;
     coefficients.push(c);
   }
-  const fe = new MultilevelReml(d).point(0, 0);
-  const Q = fe ? residualQ(d, fe.beta) : NaN;
+  const Q = reml.Q;
   let sw1 = 0, sw2 = 0;
   for (let i = 0; i < k; i++) {
     sw1 += 1 / v[i];

@@ -373,6 +373,8 @@ export interface RemlFit {
   iterations: number;
   /** every cluster holds one effect: only σ²_b + σ²_w is identified; it is split half and half */
   onlySingletons: boolean;
+  /** residual Q of the fixed-effect fit (NaN if that fit is singular) */
+  Q: number;
 }
 
 const TARGET = 1e-12;
@@ -470,7 +472,8 @@ export function fitMultilevelReml(d: ClusteredData): RemlFit {
   }
   const typicalV = ((k - 1) * sw1) / (sw1 * sw1 - sw2);
   const fe = model.point(0, 0);
-  const tauMoment = fe ? Math.max(0, (residualQ(d, fe.beta) - (k - p)) / (sw1 - sw2 / sw1)) : 0;
+  const Q = fe ? residualQ(d, fe.beta) : NaN;
+  const tauMoment = fe ? Math.max(0, (Q - (k - p)) / (sw1 - sw2 / sw1)) : 0;
   const scale = Math.max(tauMoment, typicalV);
 
   const grid = [0];
@@ -506,6 +509,7 @@ export function fitMultilevelReml(d: ClusteredData): RemlFit {
     relativeGradient: result.rel,
     iterations: result.iterations,
     onlySingletons,
+    Q,
   };
 }
 

@@ -2,7 +2,7 @@ import { StatsInputError } from './errors.js';
 import { tQuantileUpper, tTwoTailed } from './student-t.js';
 import { prepareMultilevel, type MultilevelInput } from './multilevel-input.js';
 import { fitMultilevel, summariseMultilevel, type MultilevelFit, type MultilevelResult } from './multilevel-pool.js';
-import { cholesky, symmetricPower } from './small-symmetric.js';
+import { cholesky, eigenWork, symmetricPower } from './small-symmetric.js';
 
 export interface RobustCoefficient {
   estimate: number;
@@ -78,28 +78,32 @@ function robustFromFit(fit: MultilevelFit): RobustResult {
   const sumH2 = new Float64Array(p);
   const cross = new Float64Array(p);
   const hh = new Float64Array(p * p * p); // for coefficient a: Σ_j h_j h_jᵀ, h_j = row a of H_j
+  // per-cluster scratch, sized by the largest cluster and reused (no allocation per cluster)
+  const N = d.maxSize;
+  const phi = new Float64Array(N * N), Lbuf = new Float64Array(N * N), omega = new Float64Array(N * N);
+  const g = new Float64Array(N * N), gInvSqrt = new Float64Array(N * N), A = new Float64Array(N * N), tmpNN = new Float64Array(N * N);
+  const xm = new Float64Array(N * p), wx = new Float64Array(N * p), E = new Float64Array(p * N), me = new Float64Array(p * N);
+  const om = new Float64Array(N), comp = new Float64Array(p), mex = new Float64Array(p * p), hj = new Float64Array(p * p);
+  const work = eigenWork(N);
 
   for (let j = 0; j < J; j++) {
     const lo = start[j];
     const n = start[j + 1] - lo;
     const xj = x.subarray(lo * p, (lo + n) * p);
     // Φ_j = V̂_j and its Cholesky factor L (Φ = LLᵀ, so D = Lᵀ)
-    const phi = new Float64Array(n * n);
     for (let a = 0; a < n; a++) {
       for (let b = 0; b < n; b++) phi[a * n + b] = sb;
       phi[a * n + a] += v[lo + a] + sw;
     }
-    const L = cholesky(phi, n, 0);
+    const L = cholesky(phi, n, 0, Lbuf);
     if (!L) throw new Error('robust variance: a cluster covariance is not positive definite');
     // Ω_jj = Φ_j − X_j M X_jᵀ
-    const xm = new Float64Array(n * p);
     for (let a = 0; a < n; a++)
       for (let q = 0; q < p; q++) {
         let s = 0;
         for (let r = 0; r < p; r++) s += xj[a * p + r] * M[r * p + q];
         xm[a * p + q] = s;
       }
-    const omega = new Float64Array(n * n);
     for (let a = 0; a < n; a++)
       for (let b = 0; b <= a; b++) {
         let s = 0;
@@ -109,24 +113,22 @@ function robustFromFit(fit: MultilevelFit): RobustResult {
         omega[b * n + a] = val;
       }
     // G = Lᵀ Ω L, its inverse square root, A = L G^{−½} Lᵀ
-    const g = lowerTransposeSandwich(L, omega, n);
-    const gInvSqrt = symmetricPower(g, n, -0.5, 1e-12);
-    const A = lowerSandwich(L, gInvSqrt, n);
+    lowerTransposeSandwich(L, omega, n, tmpNN, g);
+    symmetricPower(g, n, -0.5, 1e-12, gInvSqrt, work);
+    lowerSandwich(L, gInvSqrt, n, tmpNN, A);
     // E_j = X_jᵀ W_j A_j (p×n) with W_j = Φ_j⁻¹ applied in closed form
-    const om = new Float64Array(n);
     let s = 0;
     for (let a = 0; a < n; a++) {
       om[a] = 1 / (v[lo + a] + sw);
       s += om[a];
     }
     const c = sb / (1 + sb * s);
-    const wx = new Float64Array(n * p); // W_j X_j
+    // wx = W_j X_j
     for (let q = 0; q < p; q++) {
       let dot = 0;
       for (let a = 0; a < n; a++) dot += om[a] * xj[a * p + q];
       for (let a = 0; a < n; a++) wx[a * p + q] = om[a] * (xj[a * p + q] - c * dot);
     }
-    const E = new Float64Array(p * n);
     for (let q = 0; q < p; q++)
       for (let b = 0; b < n; b++) {
         let t = 0;
@@ -134,7 +136,7 @@ function robustFromFit(fit: MultilevelFit): RobustResult {
         E[q * n + b] = t;
       }
     // residuals and this cluster's score
-    const comp = new Float64Array(p);
+    comp.fill(0);
     for (let b = 0; b < n; b++) {
       let fitted = 0;
       for (let q = 0; q < p; q++) fitted += xj[b * p + q] * beta[q];
@@ -143,21 +145,18 @@ function robustFromFit(fit: MultilevelFit): RobustResult {
     }
     for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) meat[q * p + r] += comp[q] * comp[r];
     // Satterthwaite pieces: ME = M E_j; d = diag(ME Φ MEᵀ); H_j = ME X_j C with CCᵀ = M
-    const me = new Float64Array(p * n);
     for (let q = 0; q < p; q++)
       for (let b = 0; b < n; b++) {
         let t = 0;
         for (let r = 0; r < p; r++) t += M[q * p + r] * E[r * n + b];
         me[q * n + b] = t;
       }
-    const mex = new Float64Array(p * p);
     for (let q = 0; q < p; q++)
       for (let r = 0; r < p; r++) {
         let t = 0;
         for (let b = 0; b < n; b++) t += me[q * n + b] * xj[b * p + r];
         mex[q * p + r] = t;
       }
-    const hj = new Float64Array(p * p);
     for (let q = 0; q < p; q++)
       for (let r = 0; r < p; r++) {
         let t = 0;
@@ -244,16 +243,14 @@ function robustFromFit(fit: MultilevelFit): RobustResult {
   return result;
 }
 
-/** Lᵀ S L for lower-triangular L and symmetric S (n×n). */
-function lowerTransposeSandwich(L: Float64Array, S: Float64Array, n: number): Float64Array {
-  const sl = new Float64Array(n * n); // S L
+/** Lᵀ S L for lower-triangular L and symmetric S (n×n), into `out`; `sl` is scratch. */
+function lowerTransposeSandwich(L: Float64Array, S: Float64Array, n: number, sl: Float64Array, out: Float64Array): Float64Array {
   for (let a = 0; a < n; a++)
     for (let b = 0; b < n; b++) {
       let t = 0;
       for (let m = b; m < n; m++) t += S[a * n + m] * L[m * n + b];
       sl[a * n + b] = t;
     }
-  const out = new Float64Array(n * n);
   for (let a = 0; a < n; a++)
     for (let b = 0; b <= a; b++) {
       let t = 0;
@@ -264,16 +261,14 @@ function lowerTransposeSandwich(L: Float64Array, S: Float64Array, n: number): Fl
   return out;
 }
 
-/** L S Lᵀ for lower-triangular L and symmetric S (n×n). */
-function lowerSandwich(L: Float64Array, S: Float64Array, n: number): Float64Array {
-  const ls = new Float64Array(n * n); // L S
+/** L S Lᵀ for lower-triangular L and symmetric S (n×n), into `out`; `ls` is scratch. */
+function lowerSandwich(L: Float64Array, S: Float64Array, n: number, ls: Float64Array, out: Float64Array): Float64Array {
   for (let a = 0; a < n; a++)
     for (let b = 0; b < n; b++) {
       let t = 0;
       for (let m = 0; m <= a; m++) t += L[a * n + m] * S[m * n + b];
       ls[a * n + b] = t;
     }
-  const out = new Float64Array(n * n);
   for (let a = 0; a < n; a++)
     for (let b = 0; b <= a; b++) {
       let t = 0;

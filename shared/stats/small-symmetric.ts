@@ -5,8 +5,9 @@
  * Lower Cholesky factor L (A = LLᵀ) of a symmetric positive-definite matrix, or null when a pivot falls
  * below `relTol` times the largest diagonal entry (singular or indefinite).
  */
-export function cholesky(a: Float64Array, n: number, relTol = 1e-13): Float64Array | null {
-  const l = new Float64Array(n * n);
+export function cholesky(a: Float64Array, n: number, relTol = 1e-13, out?: Float64Array): Float64Array | null {
+  // into `out` (at least n², only the lower triangle is written) when given
+  const l = out ?? new Float64Array(n * n);
   let maxDiag = 0;
   for (let i = 0; i < n; i++) maxDiag = Math.max(maxDiag, Math.abs(a[i * n + i]));
   for (let j = 0; j < n; j++) {
@@ -59,9 +60,23 @@ export function choleskyInverse(l: Float64Array, n: number): Float64Array {
  * Eigen-decomposition of a symmetric matrix by cyclic Jacobi rotations (accurate to rounding for small
  * blocks). Returns the eigenvalues and the eigenvectors as the columns of a row-major matrix.
  */
-export function symmetricEigen(a: Float64Array, n: number): { values: Float64Array; vectors: Float64Array } {
-  const m = Float64Array.from(a);
-  const q = new Float64Array(n * n);
+export interface EigenWork {
+  m: Float64Array;
+  q: Float64Array;
+  values: Float64Array;
+  f: Float64Array;
+}
+
+/** Scratch space for symmetricEigen / symmetricPower on matrices up to n×n (reused across calls). */
+export const eigenWork = (n: number): EigenWork => ({ m: new Float64Array(n * n), q: new Float64Array(n * n), values: new Float64Array(n), f: new Float64Array(n) });
+
+export function symmetricEigen(a: Float64Array, n: number, work?: EigenWork): { values: Float64Array; vectors: Float64Array } {
+  const m = work ? work.m : new Float64Array(n * n);
+  const q = work ? work.q : new Float64Array(n * n);
+  for (let i = 0; i < n * n; i++) {
+    m[i] = a[i];
+    q[i] = 0;
+  }
   for (let i = 0; i < n; i++) q[i * n + i] = 1;
   for (let sweep = 0; sweep < 100; sweep++) {
     let off = 0;
@@ -100,7 +115,7 @@ export function symmetricEigen(a: Float64Array, n: number): { values: Float64Arr
       }
     }
   }
-  const values = new Float64Array(n);
+  const values = work ? work.values : new Float64Array(n);
   for (let i = 0; i < n; i++) values[i] = m[i * n + i];
   return { values, vectors: q };
 }
@@ -109,13 +124,13 @@ export function symmetricEigen(a: Float64Array, n: number): { values: Float64Arr
  * A^power for symmetric positive semi-definite A through its eigenvalues; eigenvalues at or below
  * `relFloor` times the largest count as zero (a pseudo-inverse for negative powers).
  */
-export function symmetricPower(a: Float64Array, n: number, power: number, relFloor: number): Float64Array {
-  const { values, vectors } = symmetricEigen(a, n);
+export function symmetricPower(a: Float64Array, n: number, power: number, relFloor: number, into?: Float64Array, work?: EigenWork): Float64Array {
+  const { values, vectors } = symmetricEigen(a, n, work);
   let top = 0;
   for (let i = 0; i < n; i++) top = Math.max(top, values[i]);
-  const f = new Float64Array(n);
+  const f = work ? work.f : new Float64Array(n);
   for (let i = 0; i < n; i++) f[i] = values[i] > relFloor * top ? Math.pow(values[i], power) : 0;
-  const out = new Float64Array(n * n);
+  const out = into ?? new Float64Array(n * n);
   for (let i = 0; i < n; i++) {
     for (let j = 0; j <= i; j++) {
       let s = 0;
