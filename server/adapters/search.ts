@@ -20,6 +20,10 @@ export function defineIndex(uid: string, primaryKey: string, settings: Record<st
 
 export class SearchUnavailableError extends Error {}
 
+/** Where each index's build marker lives: an index of its own, so searches never see it. */
+export const META_INDEX = 'chronometa_meta';
+const isRequestError = (err: unknown) => ['MeilisearchRequestError', 'MeilisearchRequestTimeOutError'].includes((err as Error).name);
+
 /**
  * The app's one door to the search index (Meilisearch through its JavaScript client; a local fake in
  * development and tests). Writes wait for their task, so a caller that awaits them reads its own write.
@@ -95,12 +99,29 @@ export class SearchIndex {
     }
   }
 
+  /** The build id the index holds (written after its last rebuild); null when the server does not know it. */
+  async readBuild(uid: string): Promise<string | null> {
+    try {
+      const doc = await this.client.index(META_INDEX).getDocument<{ id: string; build: string }>(uid);
+      return typeof doc.build === 'string' ? doc.build : null;
+    } catch (err) {
+      if (isRequestError(err)) throw new SearchUnavailableError(`The search index cannot be reached (${(err as Error).message}).`);
+      const code = (err as { cause?: { code?: string } }).cause?.code ?? '';
+      if (code === 'index_not_found' || code === 'document_not_found') return null;
+      throw err;
+    }
+  }
+
+  async writeBuild(uid: string, build: string): Promise<void> {
+    const task = await this.client.index(META_INDEX).addDocuments([{ id: uid, build }], { primaryKey: 'id' }).waitTask({ timeout: this.taskTimeoutMs });
+    if (task.status === 'failed') throw new Error(`writing the build marker failed: ${task.error?.message}`);
+  }
+
   async search<T extends Record<string, unknown>>(uid: string, q: string, params: Record<string, unknown>) {
     try {
       return await this.withIndex(uid, (idx) => idx.search<T>(q, params as never));
     } catch (err) {
-      const name = (err as Error).name;
-      if (name === 'MeilisearchRequestError' || name === 'MeilisearchRequestTimeOutError') {
+      if (isRequestError(err)) {
         throw new SearchUnavailableError(`The search index cannot be reached (${(err as Error).message}).`);
       }
       throw err;

@@ -282,3 +282,43 @@ export async function attachmentsOf(db: Db, refId: number): Promise<(AttachmentR
 export async function refsForCitation(db: Db, ids: number[]): Promise<Pick<RefRow, 'id' | 'csl' | 'title' | 'year' | 'doi' | 'first_author' | 'merged_into'>[]> {
   return ids.length ? db<RefRow>('refs').whereIn('id', ids).orderBy('id').select('id', 'csl', 'title', 'year', 'doi', 'first_author', 'merged_into') : [];
 }
+
+// ---- searching without the index (while it is rebuilt or away)
+
+export interface RefSearchFilter {
+  words: string[];
+  yearFrom?: number;
+  yearTo?: number;
+  status?: string;
+}
+
+const likeEscape = (s: string) => s.replace(/[\\%_]/g, '\\$&');
+
+function liveRefsMatching(db: Db, f: RefSearchFilter) {
+  return db<RefRow>('refs')
+    .whereNull('merged_into')
+    .modify((qb) => {
+      for (const w of f.words) {
+        qb.whereRaw(
+          `concat_ws(' ', title, container, doi, jsonb_path_query_array(csl, '$.author[*].family')::text, jsonb_path_query_array(csl, '$.author[*].given')::text, csl->>'abstract') ILIKE ?`,
+          [`%${likeEscape(w)}%`],
+        );
+      }
+      if (f.yearFrom !== undefined) qb.where('year', '>=', f.yearFrom);
+      if (f.yearTo !== undefined) qb.where('year', '<=', f.yearTo);
+      if (f.status) qb.where('screening_status', f.status);
+    });
+}
+
+/** Live references whose text holds every word (in any field the index searches), one page, with facet counts. */
+export async function searchLiveRefs(db: Db, f: RefSearchFilter, page: { limit: number; offset: number }) {
+  const base = liveRefsMatching(db, f);
+  const [rows, total, byStatus, byYear] = await Promise.all([
+    base.clone().orderBy([{ column: 'year', order: 'desc', nulls: 'last' }, { column: 'id' }]).limit(page.limit).offset(page.offset).select(SEARCH_COLUMNS) as Promise<RefSearchRow[]>,
+    countRows(base),
+    base.clone().groupBy('screening_status').select('screening_status as key').count({ n: '*' }) as Promise<Array<{ key: string; n: string | number }>>,
+    base.clone().whereNotNull('year').groupBy('year').select('year as key').count({ n: '*' }) as Promise<Array<{ key: number; n: string | number }>>,
+  ]);
+  const counts = (list: Array<{ key: string | number; n: string | number }>) => Object.fromEntries(list.map((r) => [String(r.key), Number(r.n)]));
+  return { rows, total, facets: { screening_status: counts(byStatus), year: counts(byYear) } };
+}

@@ -8,7 +8,7 @@ export function searchRouter(ctx: AppContext) {
   const router = Router();
   router.get('/search', async (req, res) => {
     const q = parseInput(searchQuerySchema, req.query, 'query');
-    res.json(await searchReferences(ctx.search, q));
+    res.json(await searchReferences(ctx, q));
   });
   return router;
 }

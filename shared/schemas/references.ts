@@ -272,5 +272,8 @@ export const searchResultSchema = z.object({
   total: z.number().int(),
   facets: z.object({ screening_status: z.record(z.string(), z.number()), year: z.record(z.string(), z.number()) }),
   processingTimeMs: z.number().optional(),
+  /** 'database' while the index is rebuilt or away: PostgreSQL answered, and `note` says so */
+  source: z.enum(['index', 'database']),
+  note: z.string().optional(),
 });
 export type SearchResult = z.infer<typeof searchResultSchema>;

@@ -61,7 +61,7 @@ try {
   let hits = 0;
   for (let i = 0; i < queries.length; i++) {
     const s = performance.now();
-    const res = await searchReferences(ctx.search, { limit: 20, offset: 0, q: '', ...queries[i] } as SearchQuery);
+    const res = await searchReferences(ctx, { limit: 20, offset: 0, q: '', ...queries[i] } as SearchQuery);
     const ms = performance.now() - s;
     if (i >= 100) {
       times.push(ms);

@@ -3,7 +3,7 @@ import { useForm, useWatch } from 'react-hook-form';
 import { Link, useSearchParams } from 'react-router-dom';
 import { SCREENING_STATUSES } from '../../../../shared/vocabulary/screening';
 import { Field } from '../../../components/ui/Field';
-import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
+import { Caution, EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
 import { Pager } from '../../../components/ui/Pager';
 import { useSearch } from '../api/search-references';
@@ -101,6 +101,7 @@ export function SearchPanel() {
             {isFetching ? ' · updating…' : ''}
           </p>
         )}
+        {data?.source === 'database' && <Caution title="Simpler search for now">{data.note}</Caution>}
         {data && data.total === 0 && <EmptyState>Nothing matches. Try fewer words, another spelling, or clear the year range.</EmptyState>}
         {data && data.hits.length > 0 && (
           <ol className="grid gap-2" start={(page - 1) * limit + 1}>
