@@ -130,7 +130,7 @@ export async function listRefs(db: Db, f: RefListFilters & PageRequest & { sort:
       if (f.source) qb.where('source', f.source);
       if (f.yearFrom !== undefined) qb.where('year', '>=', f.yearFrom);
       if (f.yearTo !== undefined) qb.where('year', '<=', f.yearTo);
-      if (f.batch) qb.whereIn('id', db('import_entries').where({ batch_id: f.batch }).whereNotNull('reference_id').select('reference_id'));
+      if (f.batch) qb.whereIn('id', db('import_entries').where({ batch_id: f.batch, status: 'imported' }).select('reference_id'));
     });
   const total = await countRows(base);
   const rows: RefSummaryRow[] = await pageOf(
@@ -144,13 +144,13 @@ export async function listRefs(db: Db, f: RefListFilters & PageRequest & { sort:
   return { total, rows };
 }
 
-/** The oldest unscreened live references (optionally of one import batch), and how many there are. */
+/** The oldest unscreened live references (optionally those one import batch created), and how many there are. */
 export async function unscreenedRefs(db: Db, q: { limit: number; batch?: number }) {
   const base = db<RefRow>('refs')
     .whereNull('merged_into')
     .where('screening_status', 'unscreened')
     .modify((qb) => {
-      if (q.batch) qb.whereIn('id', db('import_entries').where({ batch_id: q.batch }).whereNotNull('reference_id').select('reference_id'));
+      if (q.batch) qb.whereIn('id', db('import_entries').where({ batch_id: q.batch, status: 'imported' }).select('reference_id'));
     });
   const total = await countRows(base);
   const rows: RefRow[] = await base.clone().orderBy([{ column: 'created_at' }, { column: 'id' }]).limit(q.limit).select('*');

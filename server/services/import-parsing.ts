@@ -166,6 +166,27 @@ export function checkCsl(csl: Csl): string | null {
 
 const firstLine = (msg: string) => msg.split('\n')[0].trim();
 
+const TOKEN_WORDS: Record<string, string> = { rbrace: 'a `}`', lbrace: 'a `{`', equals: 'a `=`', comma: 'a comma', identifier: 'a field name', text: 'a value', quote: 'a `"`', number: 'a number' };
+const tokenWords = (t: string) => TOKEN_WORDS[t.replace(/"/g, '')] ?? t;
+
+/**
+ * The BibTeX parser's complaint ("expected "rbrace", got EOF at line 1 col 57") in words, on the file's own line:
+ * "Entry 5 is not closed: a `}` is missing (key "x", line 12)".
+ */
+export function explainBibtexError(message: string, e: RawEntry): string {
+  const m = /expected "?(\w+)"?, got ("?\w+"?|EOF) at line (\d+) col (\d+)/i.exec(message);
+  const key = e.key ? `key "${e.key}", ` : '';
+  if (!m) return `Entry ${e.index} is not well formed (${key}line ${e.line}): ${message}`;
+  const [, expected, got, relLine, col] = m;
+  const line = e.line + Number(relLine) - 1;
+  if (got === 'EOF') {
+    const openQuote = (e.text.match(/(?<!\\)"/g)?.length ?? 0) % 2 === 1;
+    return `Entry ${e.index} is not closed: ${openQuote ? 'a `"`' : 'a `}`'} is missing (${key}the entry starts on line ${e.line})`;
+  }
+  const what = expected === 'rbrace' && got.replace(/"/g, '') === 'identifier' ? 'a comma is missing between two fields' : `${tokenWords(expected)} is missing (found ${tokenWords(got.replace(/"/g, ''))} instead)`;
+  return `Entry ${e.index} is not well formed: ${what} (${key}line ${line}, column ${col})`;
+}
+
 export function parseEntries(format: 'bibtex' | 'ris', text: string): ParsedEntry[] {
   const { strings, entries } = format === 'bibtex' ? splitBibtex(text) : { strings: '', entries: splitRis(text) };
   return entries.map((e): ParsedEntry => {
@@ -181,7 +202,7 @@ export function parseEntries(format: 'bibtex' | 'ris', text: string): ParsedEntr
       // BibTeX DOIs need no rescue; RIS's parser drops DOIs that do not look like 10.NNNN/…, so check the raw field.
       records = parseEntry(strings ? `${strings}\n${e.text}` : e.text, format);
     } catch (err) {
-      return { ...e, ok: false, message: `${where}: the entry is not well formed — ${firstLine((err as Error).message)}` };
+      return { ...e, ok: false, message: format === 'bibtex' ? explainBibtexError(firstLine((err as Error).message), e) : `${where}: the entry is not well formed — ${firstLine((err as Error).message)}` };
     }
     if (records.length !== 1) return { ...e, ok: false, message: `${where}: the entry could not be read as one record` };
     const csl = records[0];

@@ -152,11 +152,15 @@ export async function importDois(ctx: Pick<Deps, 'db' | 'search' | 'jobs' | 'doi
   const seen = new Map<string, number>();
   const batchId = await ctx.db.transaction(async (trx) => {
     const batch = { id: await insertBatch(trx, { format: 'doi', label: input.label ?? null, total: list.length, created_by: input.userId }) };
+    // a DOI the registry already holds is a duplicate of that reference at once, whatever the resolver would say
+    const known = await refIdsByDoi(trx, [...new Set(list.map((e) => e.doi).filter((d): d is string => !!d))]);
     const rows: EntryRow[] = list.map((e) => {
       const base = { batch_id: batch.id, idx: e.index, entry_key: e.text.slice(0, 200), input: null, reference_id: null, likely_duplicate_of: null };
       if (!e.doi) return { ...base, status: 'rejected' as const, message: `${describeEntry(e, 'doi')}: "${clip(e.text, 80)}" is not a DOI (a DOI looks like 10.5555/abc)`, input: clip(e.text) };
       if (seen.has(e.doi)) return { ...base, status: 'duplicate' as const, message: `${describeEntry(e, 'doi')}: ${e.doi} is listed twice (first as entry ${seen.get(e.doi)})` };
       seen.set(e.doi, e.index);
+      const existing = known.get(e.doi);
+      if (existing) return { ...base, status: 'duplicate' as const, reference_id: existing, message: `${describeEntry(e, 'doi')}: ${e.doi} is already reference #${existing}` };
       return { ...base, status: 'pending' as const, message: null };
     });
     await insertEntries(trx, rows);

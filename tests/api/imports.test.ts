@@ -24,7 +24,7 @@ describe('imports', () => {
     expect(statuses).toEqual(['imported', 'imported', 'rejected', 'imported']);
     const bad = first.body.entries[2];
     expect(bad.index).toBe(3);
-    expect(bad.message).toMatch(/Entry 3 \(key "broken2019"\), line \d+: the entry is not well formed/);
+    expect(bad.message).toMatch(/^Entry 3 is not closed: a `}` is missing \(key "broken2019", the entry starts on line \d+\)$/);
     expect(first.body.entries[0].referenceId).toEqual(expect.any(Number));
     const refs = await t.ctx.db('refs').orderBy('id').select('doi', 'title', 'year', 'first_author', 'source', 'title_key');
     expect(refs).toHaveLength(3);
