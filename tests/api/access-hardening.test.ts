@@ -116,4 +116,20 @@ describe('access: redirects, tokens, attachments', () => {
     expect(safePdfName('')).toBe('attachment.pdf');
     expect(safePdfName('Résumé 2020 (final).pdf')).toBe('R_sum_ 2020 (final).pdf');
   });
+
+  it('limits signed-out sign-in starts per address (each one makes a session before the provider answers)', async () => {
+    const limited = await createTestApp({ env: { AUTH_RATE_LIMIT_PER_MINUTE: '3', TRUST_PROXY: '1' } });
+    try {
+      const from = (ip: string) => request(limited.app).get('/auth/github').set('X-Forwarded-For', ip);
+      for (let i = 0; i < 3; i++) expect((await from('198.51.100.7')).status).toBe(302);
+      const refused = await from('198.51.100.7');
+      expect(refused.status).toBe(429);
+      expect(refused.body.error.code).toBe('rate_limited');
+      expect(refused.headers['set-cookie']).toBeUndefined();
+      // another address has its own budget
+      expect((await from('198.51.100.8')).status).toBe(302);
+    } finally {
+      await limited.close();
+    }
+  });
 });
