@@ -45,3 +45,18 @@ export function applyStudyFilters(q: Knex.QueryBuilder, f: SettledEffectFilters)
   if (f.referenceId !== undefined) q.where('r.id', f.referenceId);
 }
 
+
+export async function settledEffectCountOf(db: Db, referenceId: number): Promise<number> {
+  const row = await settledEffectsFrom(db).where('x.reference_id', referenceId).count({ n: '*' }).first();
+  return Number(row?.n ?? 0);
+}
+
+/** The current settled records of a reference that hold settled effects, locked (a screening exclusion withdraws them). */
+export async function lockSettledRecordsOf(trx: Knex.Transaction, referenceId: number): Promise<number[]> {
+  const rows: { id: number }[] = await trx('extractions')
+    .whereIn('id', settledEffectsFrom(trx).where('x.reference_id', referenceId).distinct('x.id'))
+    .orderBy('id')
+    .forUpdate()
+    .select('id');
+  return rows.map((r) => r.id);
+}

@@ -62,7 +62,7 @@ export function referencesRouter(ctx: AppContext) {
   router.post('/references/:id/screening', requireRole('contributor'), async (req, res) => {
     const { id } = parseInput(idParamsSchema, req.params, 'path');
     const input = parseInput(screeningDecisionSchema, req.body);
-    const result = await decide(ctx.db, id, input, req.user!.id);
+    const result = await decide(ctx.db, id, input, req.user!);
     await syncReferences(ctx, [id]);
     res.status(201).json(result);
   });

@@ -93,15 +93,18 @@ export async function settleRecordDraft(ctx: MailingDeps, actorId: number, recor
 }
 
 export async function withdrawRecord(db: Knex, actorId: number, recordId: number, reason: string): Promise<WithdrawnRecord> {
-  return db.transaction(async (trx) => {
-    const x = await lockCurrentSettled(trx, recordId);
-    if (x.state === 'withdrawn') throw new ConflictError(`Record ${recordId} is already withdrawn.`);
-    await updateExtraction(trx, recordId, { state: 'withdrawn', version: x.version + 1, updated_by: actorId });
-    await insertSettlement(trx, { referenceId: x.reference_id, assignmentId: x.assignment_id, recordId, kind: 'withdrawn', actorId, rationale: reason });
-    await recordAudit(trx, { actorId, action: 'record.withdraw', entityType: 'extraction', entityId: recordId, details: { reason } });
-    const registryVersion = await bumpRegistry(trx, { kind: 'withdraw', referenceId: x.reference_id, extractionId: recordId, actorId, details: { reason } });
-    return { recordId, state: 'withdrawn' as const, registryVersion };
-  });
+  return db.transaction((trx) => withdrawRecordIn(trx, actorId, recordId, reason));
+}
+
+/** Withdraws a settled record inside the caller's transaction (a screening exclusion withdraws several). */
+export async function withdrawRecordIn(trx: Knex.Transaction, actorId: number, recordId: number, reason: string): Promise<WithdrawnRecord> {
+  const x = await lockCurrentSettled(trx, recordId);
+  if (x.state === 'withdrawn') throw new ConflictError(`Record ${recordId} is already withdrawn.`);
+  await updateExtraction(trx, recordId, { state: 'withdrawn', version: x.version + 1, updated_by: actorId });
+  await insertSettlement(trx, { referenceId: x.reference_id, assignmentId: x.assignment_id, recordId, kind: 'withdrawn', actorId, rationale: reason });
+  await recordAudit(trx, { actorId, action: 'record.withdraw', entityType: 'extraction', entityId: recordId, details: { reason } });
+  const registryVersion = await bumpRegistry(trx, { kind: 'withdraw', referenceId: x.reference_id, extractionId: recordId, actorId, details: { reason } });
+  return { recordId, state: 'withdrawn' as const, registryVersion };
 }
 
 /** Locks a settled effect and its record; refuses effects outside the current settled registry. */

@@ -15,6 +15,7 @@ import {
   repointMergedInto, updateRef, type RefColumns, type RefSummaryRow,
 } from '../repositories/refs.js';
 import { decisionsOf, latestDecision } from '../repositories/screening.js';
+import { settledEffectCountOf } from '../repositories/settled-effects.js';
 import { authorKey, cleanCsl, cslAuthors, refColumns, richness, type Csl } from './reference-fields.js';
 
 export interface CreateReferenceOptions {
@@ -109,7 +110,9 @@ const who = (id: number | null, login: string | null) => (id ? { id, login: logi
 export async function getReference(db: Knex, id: number): Promise<ReferenceDetail> {
   const r = await findRefWithCreator(db, id);
   if (!r) throw new NotFoundError(`There is no reference ${id}.`);
-  const [screening, attachments, duplicates, imports] = await Promise.all([decisionsOf(db, id), attachmentsOf(db, id), openCandidatesOf(db, id), importsOfRef(db, id)]);
+  const [screening, attachments, duplicates, imports, settledEffects] = await Promise.all([
+    decisionsOf(db, id), attachmentsOf(db, id), openCandidatesOf(db, id), importsOfRef(db, id), settledEffectCountOf(db, id),
+  ]);
   return {
     reference: {
       ...summary(r),
@@ -119,6 +122,7 @@ export async function getReference(db: Knex, id: number): Promise<ReferenceDetai
       updatedAt: iso(r.updated_at),
       createdBy: who(r.created_by, r.created_by_login),
       abstract: typeof r.csl?.abstract === 'string' ? r.csl.abstract : null,
+      settledEffects,
     },
     screening: screening.map((s) => ({
       id: s.id,

@@ -1,30 +1,55 @@
 import type { Knex } from 'knex';
 import type { PrismaFlow, ScreeningDecisionInput, ScreeningQueue, ScreeningResult } from '../../shared/schemas/references.js';
-import { EXCLUSION_REASONS } from '../../shared/vocabulary/screening.js';
-import { ConflictError, NotFoundError } from '../lib/errors.js';
+import { hasRole } from '../../shared/roles.js';
+import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../shared/vocabulary/screening.js';
+import { ConflictError, ForbiddenError, NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
-import type { Db } from '../repositories/db.js';
+import { iso, type Db } from '../repositories/db.js';
 import { duplicateEntriesByFormat } from '../repositories/imports.js';
 import { lockRef, refCounts, unscreenedRefs, updateRef } from '../repositories/refs.js';
-import { exclusionReasonCounts, insertDecision } from '../repositories/screening.js';
+import { decisionsOf, exclusionReasonCounts, insertDecision } from '../repositories/screening.js';
+import { lockSettledRecordsOf } from '../repositories/settled-effects.js';
+import type { Actor } from './coding.js';
+import { withdrawRecordIn } from './records.js';
 import { summary } from './references.js';
 
-/** Records a decision (the history keeps every one; the reference shows the latest). */
-export async function decide(db: Knex, refId: number, input: ScreeningDecisionInput, actorId: number): Promise<ScreeningResult> {
+/**
+ * Records a decision (the history keeps every one; the reference shows the latest) against the reference version
+ * the screener saw. Excluding a reference whose effects are settled is a curator's call: it withdraws those
+ * records with the exclusion as the reason, in the same transaction.
+ */
+export async function decide(db: Knex, refId: number, input: ScreeningDecisionInput, actor: Actor): Promise<ScreeningResult> {
   return db.transaction(async (trx) => {
     const r = await lockRef(trx, refId);
     if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
     if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; screen that one.`, { mergedInto: r.merged_into });
-    const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actorId });
+    if (r.version !== input.version) {
+      const [last] = await decisionsOf(trx, refId);
+      const now = last ? `, now ${last.decision} by ${last.login ?? 'someone'} at ${iso(last.decided_at).slice(0, 16).replace('T', ' ')} UTC` : '';
+      throw new ConflictError(`Reference ${refId} changed since you opened it (version ${r.version}${now}); reload it before deciding.`, {
+        currentVersion: r.version,
+        screeningStatus: r.screening_status,
+      });
+    }
+    const withdrawnRecords = input.decision === 'excluded' ? await lockSettledRecordsOf(trx, refId) : [];
+    if (withdrawnRecords.length && !hasRole(actor.roles, 'curator'))
+      throw new ForbiddenError(`Reference ${refId} has settled effects; only a curator may exclude it (that withdraws them).`);
+    const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id });
     await updateRef(trx, refId, { screening_status: input.decision, version: r.version + 1 });
+    let registryVersion: number | null = null;
+    const why = `Excluded at screening: ${input.reason ? EXCLUSION_REASON_LABELS[input.reason] : ''}${input.note ? ` (${input.note})` : ''}`;
+    for (const id of withdrawnRecords) registryVersion = (await withdrawRecordIn(trx, actor.id, id, why)).registryVersion;
     await recordAudit(trx, {
-      actorId,
+      actorId: actor.id,
       action: 'screening.decide',
       entityType: 'reference',
       entityId: refId,
-      details: { decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, previous: r.screening_status },
+      details: { decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, previous: r.screening_status, withdrawnRecords },
     });
-    return { id: row.id, refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: new Date(row.decided_at).toISOString(), screeningStatus: input.decision };
+    return {
+      id: row.id, refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
+      screeningStatus: input.decision, version: r.version + 1, withdrawnRecords, registryVersion,
+    };
   });
 }
 

@@ -101,17 +101,24 @@ export const referenceEditSchema = z.object({
 });
 export type ReferenceEdit = z.infer<typeof referenceEditSchema>;
 
-export const screeningDecisionSchema = z
-  .object({
-    decision: z.enum(SCREENING_DECISIONS, { message: 'decision must be included or excluded' }),
-    reason: z.enum(EXCLUSION_REASONS, { message: 'pick a reason from the list' }).optional(),
-    note: z.string().trim().max(2000).optional(),
+const decisionFields = z.object({
+  decision: z.enum(SCREENING_DECISIONS, { message: 'decision must be included or excluded' }),
+  reason: z.enum(EXCLUSION_REASONS, { message: 'pick a reason from the list' }).optional(),
+  note: z.string().trim().max(2000).optional(),
+});
+const decisionRules = (v: z.infer<typeof decisionFields>, ctx: z.RefinementCtx) => {
+  if (v.decision === 'excluded' && !v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'an exclusion needs a reason' });
+  if (v.decision === 'included' && v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'an inclusion takes no exclusion reason' });
+  if (v.reason === 'other' && !v.note) ctx.addIssue({ code: 'custom', path: ['note'], message: 'say why, when the reason is "other"' });
+};
+/** A decision's own fields (a form checks these; the request adds the version). */
+export const screeningDecisionFieldsSchema = decisionFields.superRefine(decisionRules);
+export const screeningDecisionSchema = decisionFields
+  .extend({
+    /** The reference's version the screener saw (a decision made on an old one answers 409). */
+    version: z.number({ message: 'send the reference version you saw' }).int().positive(),
   })
-  .superRefine((v, ctx) => {
-    if (v.decision === 'excluded' && !v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'an exclusion needs a reason' });
-    if (v.decision === 'included' && v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'an inclusion takes no exclusion reason' });
-    if (v.reason === 'other' && !v.note) ctx.addIssue({ code: 'custom', path: ['note'], message: 'say why, when the reason is "other"' });
-  });
+  .superRefine(decisionRules);
 export type ScreeningDecisionInput = z.infer<typeof screeningDecisionSchema>;
 
 export const screeningQueueQuerySchema = z.object({
@@ -204,6 +211,8 @@ export const referenceDetailSchema = z.object({
     updatedAt: timestamp,
     createdBy: actorSchema.nullable(),
     abstract: z.string().nullable(),
+    /** Effects of this reference in the settled registry (excluding it then needs a curator). */
+    settledEffects: z.number().int(),
   }),
   screening: z.array(screeningEntrySchema),
   attachments: z.array(attachmentSchema),
@@ -217,7 +226,14 @@ export const referenceEditResultSchema = z.object({ id: z.number().int(), versio
 export type ReferenceEditResult = z.infer<typeof referenceEditResultSchema>;
 
 /** POST /api/references/:id/screening */
-export const screeningResultSchema = screeningEntrySchema.omit({ decidedBy: true }).extend({ screeningStatus: z.enum(SCREENING_DECISIONS) });
+export const screeningResultSchema = screeningEntrySchema.omit({ decidedBy: true }).extend({
+  screeningStatus: z.enum(SCREENING_DECISIONS),
+  /** The reference's new version. */
+  version: z.number().int(),
+  /** Settled records a curator's exclusion withdrew (their effects leave every analysis), and the registry version it made. */
+  withdrawnRecords: z.array(z.number().int()),
+  registryVersion: z.number().int().nullable(),
+});
 export type ScreeningResult = z.infer<typeof screeningResultSchema>;
 
 /** GET /api/screening/queue */

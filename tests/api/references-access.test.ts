@@ -13,7 +13,7 @@ describeAccess(
     { method: 'get', path: (ids) => `/api/references/${ids.a}`, who: 'anyone', bad: { path: '/api/references/-3' } },
     { method: 'get', path: (ids) => `/api/references/export?format=bibtex&ids=${ids.a}`, who: 'anyone', bad: { path: '/api/references/export?format=word&ids=1' } },
     { method: 'patch', path: (ids) => `/api/references/${ids.a}`, body: { version: 999, title: 'x' }, who: ['contributor'], bad: { body: { version: 'one' } } },
-    { method: 'post', path: (ids) => `/api/references/${ids.a}/screening`, body: { decision: 'included' }, who: ['contributor'], bad: { body: { decision: 'excluded' } } },
+    { method: 'post', path: (ids) => `/api/references/${ids.a}/screening`, body: { decision: 'included', version: 1 }, who: ['contributor'], bad: { body: { decision: 'excluded', version: 1 } } },
     { method: 'post', path: (ids) => `/api/references/${ids.a}/attachments`, who: ['contributor'], bad: { body: { nothing: true } } },
     { method: 'get', path: (ids) => `/api/references/${ids.a}/attachments/999999`, who: ['contributor', 'reviewer'], bad: { path: (ids) => `/api/references/${ids.a}/attachments/zero` } },
     { method: 'post', path: '/api/references/merge', body: { a: 999998, b: 999999 }, who: ['curator'], bad: { body: { a: 'x' } } },

@@ -41,7 +41,7 @@ describe('references: likely duplicates, merge, edit, export, attachments', () =
     const poorId = b.body.entries[0].referenceId;
 
     // A decision on the poorer record must follow it into the survivor.
-    const dec = await coder.post(`/api/references/${poorId}/screening`).send({ decision: 'excluded', reason: 'review_article' });
+    const dec = await coder.post(`/api/references/${poorId}/screening`).send({ decision: 'excluded', version: 1, reason: 'review_article' });
     expect(dec.status).toBe(201);
 
     const list = await curator.get('/api/duplicates');
@@ -72,7 +72,7 @@ describe('references: likely duplicates, merge, edit, export, attachments', () =
     const after = await curator.get('/api/duplicates?status=merged');
     expect(after.body.items[0]).toMatchObject({ id: cand.id, status: 'merged', keptRef: richId });
     // Screening a merged record is refused with a pointer to the survivor.
-    const late = await coder.post(`/api/references/${poorId}/screening`).send({ decision: 'included' });
+    const late = await coder.post(`/api/references/${poorId}/screening`).send({ decision: 'included', version: 1 });
     expect(late.status).toBe(409);
     expect(late.body.error.message).toMatch(new RegExp(`merged into reference ${richId}`));
   });

@@ -24,14 +24,14 @@ describe('screening', () => {
   });
 
   it('checks decisions: an exclusion needs a reason, "other" needs a note, an inclusion takes no reason', async () => {
-    const noReason = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'excluded' });
+    const noReason = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'excluded', version: 1 });
     expect(noReason.status).toBe(400);
     expect(noReason.body.error.details[0]).toEqual({ path: 'body.reason', message: 'an exclusion needs a reason' });
-    const other = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'excluded', reason: 'other' });
+    const other = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'excluded', version: 1, reason: 'other' });
     expect(other.body.error.details[0].path).toBe('body.note');
-    const inclReason = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'included', reason: 'review_article' });
+    const inclReason = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'included', version: 1, reason: 'review_article' });
     expect(inclReason.status).toBe(400);
-    const unknown = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'maybe' });
+    const unknown = await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'maybe', version: 1 });
     expect(unknown.status).toBe(400);
   });
 
@@ -40,19 +40,19 @@ describe('screening', () => {
     expect(q.status).toBe(200);
     expect(q.body.remaining).toBe(6);
     expect(q.body.items.map((r: { id: number }) => r.id)).toEqual(ids.slice(0, 3));
-    await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'included' });
+    await coder.post(`/api/references/${ids[0]}/screening`).send({ decision: 'included', version: 1 });
     const q2 = await coder.get('/api/screening/queue?limit=3');
     expect(q2.body.remaining).toBe(5);
     expect(q2.body.items[0].id).toBe(ids[1]);
   });
 
   it('PRISMA counts equal what the data says after a scripted sequence of decisions (history kept)', async () => {
-    await coder.post(`/api/references/${ids[1]}/screening`).send({ decision: 'excluded', reason: 'wrong_population' });
-    await coder2.post(`/api/references/${ids[2]}/screening`).send({ decision: 'excluded', reason: 'no_usable_statistics' });
-    await coder.post(`/api/references/${ids[3]}/screening`).send({ decision: 'excluded', reason: 'other', note: 'animal study' });
+    await coder.post(`/api/references/${ids[1]}/screening`).send({ decision: 'excluded', version: 1, reason: 'wrong_population' });
+    await coder2.post(`/api/references/${ids[2]}/screening`).send({ decision: 'excluded', version: 1, reason: 'no_usable_statistics' });
+    await coder.post(`/api/references/${ids[3]}/screening`).send({ decision: 'excluded', version: 1, reason: 'other', note: 'animal study' });
     // ids[3] is reconsidered: the latest decision counts, the history keeps both.
-    await coder2.post(`/api/references/${ids[3]}/screening`).send({ decision: 'included', note: 'human sample after all' });
-    await coder.post(`/api/references/${ids[4]}/screening`).send({ decision: 'excluded', reason: 'wrong_population' });
+    await coder2.post(`/api/references/${ids[3]}/screening`).send({ decision: 'included', version: 2, note: 'human sample after all' });
+    await coder.post(`/api/references/${ids[4]}/screening`).send({ decision: 'excluded', version: 1, reason: 'wrong_population' });
     // A re-imported file adds duplicate entries to "identified" and to "duplicates removed".
     await coder.post('/api/imports').send({ format: 'bibtex', text: bib('again', { title: 'Screening study number 0 on interval timing', author: 'Person0, A', year: '2000', doi: '10.5555/screen.0' }) });
 

@@ -45,7 +45,7 @@ describe('search', () => {
     const years = await search('q=looming&yearFrom=2016&yearTo=2022');
     expect(years.body.hits.map((h: { id: number }) => h.id).sort()).toEqual([id.d, id.e].sort());
     expect(years.body.facets.year).toEqual({ '2022': 2 });
-    await coder.post(`/api/references/${id.a}/screening`).send({ decision: 'included' });
+    await coder.post(`/api/references/${id.a}/screening`).send({ decision: 'included', version: 1 });
     const incl = await search('q=&status=included');
     expect(incl.body.hits.map((h: { id: number }) => h.id)).toEqual([id.a]);
     const all = await search('q=');

@@ -20,7 +20,7 @@ describe('the registry version has one writer and one reader', () => {
 
   it('client mutations of settled data invalidate what is computed from it', () => {
     // endpoints whose success changes what settled data shows
-    const settledWrites = [/\/api\/references\/\$\{id\}`, \{ method: 'PATCH'/, /\/merge`/, /\/api\/manipulations/, /\/settle`/, /\/reopen`/, /\/withdraw`/, /\/submit`/];
+    const settledWrites = [/\/api\/references\/\$\{id\}`, \{ method: 'PATCH'/, /\/merge`/, /\/api\/manipulations/, /\/settle`/, /\/reopen`/, /\/withdraw`/, /\/submit`/, /\/screening`/];
     const writers = files(join(root, 'src/features'), /\.ts$/)
       .filter((p) => p.includes('/api/'))
       .map((p) => ({ p: relative(root, p), s: readFileSync(p, 'utf8') }))

@@ -3,7 +3,7 @@ import type { ScreeningDecisionInput } from '../../../../shared/schemas/referenc
 import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../../../shared/vocabulary/screening';
 import { Button } from '../../../components/ui/Button';
 import { FieldError } from '../../../components/ui/Field';
-import { ErrorNote } from '../../../components/ui/Notice';
+import { Caution, ErrorNote } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
 import { showServerErrors } from '../../../lib/forms/server-errors';
 import { useDecide } from '../api/decide';
@@ -11,16 +11,17 @@ import { decisionFormSchema } from '../forms/decision';
 
 type DecisionValues = { decision: ScreeningDecisionInput['decision']; reason: string; note: string };
 const EMPTY: DecisionValues = { decision: 'included', reason: '', note: '' };
+type DecisionFields = Omit<ScreeningDecisionInput, 'version'>;
 
 /** Include, or exclude with a reason (and a note when the reason is "other"), for one reference. */
-export function DecisionForm({ refId, onDecided }: { refId: number; onDecided?: () => void }) {
+export function DecisionForm({ refId, version, settledEffects = 0, curator = false, onDecided }: { refId: number; version: number; settledEffects?: number; curator?: boolean; onDecided?: () => void }) {
   const mutation = useDecide();
-  const form = useForm<DecisionValues, unknown, ScreeningDecisionInput>({ resolver: formResolver(decisionFormSchema), defaultValues: EMPTY });
+  const form = useForm<DecisionValues, unknown, DecisionFields>({ resolver: formResolver(decisionFormSchema), defaultValues: EMPTY });
   const { errors } = form.formState;
   const [decision, reason] = useWatch({ control: form.control, name: ['decision', 'reason'] });
   const submit = form.handleSubmit((input) =>
     mutation.mutate(
-      { refId, input },
+      { refId, input: { ...input, version } },
       { onSuccess: () => (form.reset({ ...form.getValues(), note: '' }), onDecided?.()), onError: (err) => showServerErrors(err, form.setError, ['decision', 'reason', 'note']) },
     ),
   );
@@ -54,6 +55,13 @@ export function DecisionForm({ refId, onDecided }: { refId: number; onDecided?: 
           <FieldError id={`reason-${refId}-error`} message={errors.reason?.message} className="ml-2 text-refusal" />
         </label>
       )}
+      {decision === 'excluded' && settledEffects > 0 && (
+        <Caution title="Settled effects">
+          {curator
+            ? `Excluding this reference withdraws its ${settledEffects} settled ${settledEffects === 1 ? 'effect' : 'effects'} from every analysis, with the reason and note as the rationale.`
+            : `This reference has ${settledEffects} settled ${settledEffects === 1 ? 'effect' : 'effects'}: only a curator may exclude it.`}
+        </Caution>
+      )}
       <label>
         Note {reason === 'other' && decision === 'excluded' ? '(required)' : '(optional)'}
         <input className="ml-2 w-80 rounded border border-paper-edge bg-white px-2 py-1" {...form.register('note')} aria-invalid={!!errors.note} aria-describedby={`note-${refId}-error`} />
@@ -65,7 +73,11 @@ export function DecisionForm({ refId, onDecided }: { refId: number; onDecided?: 
         <Button type="submit" variant="primary" disabled={mutation.isPending}>
           {mutation.isPending ? 'Saving…' : 'Record decision'}
         </Button>
-        {mutation.isSuccess && <span className="ml-2">✓ Recorded.</span>}
+        {mutation.isSuccess && (
+          <span className="ml-2">
+            ✓ Recorded{mutation.data.withdrawnRecords.length ? `; settled record ${mutation.data.withdrawnRecords.map((id) => `#${id}`).join(', ')} withdrawn` : ''}.
+          </span>
+        )}
       </div>
     </form>
   );

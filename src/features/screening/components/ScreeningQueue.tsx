@@ -29,7 +29,7 @@ export function ScreeningQueue({ batch }: { batch?: number }) {
     }
     const title = current.title;
     decide.mutate(
-      { refId: current.id, input: { decision, ...(reason ? { reason } : {}), ...(note.trim() ? { note: note.trim() } : {}) } },
+      { refId: current.id, input: { decision, version: current.version, ...(reason ? { reason } : {}), ...(note.trim() ? { note: note.trim() } : {}) } },
       {
         onSuccess: () => {
           setLast(`${decision === 'included' ? '✓ Included' : `✕ Excluded (${EXCLUSION_REASON_LABELS[reason!]})`}: ${title}`);

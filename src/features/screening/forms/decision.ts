@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { screeningDecisionSchema } from '../../../../shared/schemas/references';
+import { screeningDecisionFieldsSchema } from '../../../../shared/schemas/references';
 import { SCREENING_DECISIONS } from '../../../../shared/vocabulary/screening';
 
 /** The form's choices as the server's decision: a reason only with an exclusion, a note only when written. */
@@ -12,4 +12,4 @@ export const decisionFormSchema = z
       ...(v.note.trim() ? { note: v.note.trim() } : {}),
     }),
   )
-  .pipe(screeningDecisionSchema);
+  .pipe(screeningDecisionFieldsSchema);
