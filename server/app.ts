@@ -15,6 +15,7 @@ import { meRouter } from './routes/me.js';
 import { adminRouter } from './routes/admin.js';
 import { tokensRouter } from './routes/tokens.js';
 import { synthesesRouter } from './routes/syntheses.js';
+import { followsRouter } from './routes/follows.js';
 import { snapshotsRouter } from './routes/snapshots.js';
 import { atlasRouter } from './routes/atlas.js';
 import { importsBodyRouter, importsRouter } from './routes/imports.js';
@@ -122,6 +123,7 @@ const apiRouters: MountRouter[] = [
   tokensRouter,
   synthesesRouter,
   snapshotsRouter,
+  followsRouter,
   atlasRouter,
   importsRouter,
   referencesRouter,

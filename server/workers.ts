@@ -1,4 +1,5 @@
 import type { AppContext } from './context.js';
+import { registerFollowWorkers } from './services/following.js';
 import { registerMailWorkers } from './services/mail-delivery.js';
 import { registerReferenceWorkers } from './services/reference-workers.js';
 import { registerTrialWorkers } from './services/trials.js';
@@ -11,4 +12,5 @@ export async function startWorkers(ctx: AppContext): Promise<void> {
   await registerReferenceWorkers(deps);
   await registerMailWorkers(deps);
   await registerTrialWorkers(deps);
+  await registerFollowWorkers(deps);
 }

@@ -9,7 +9,7 @@ import { recordAudit } from '../repositories/audit.js';
 import type { MailLogRow, MailStatus } from '../repositories/rows.js';
 import { AppError, ConflictError, NotFoundError } from '../lib/errors.js';
 
-export type MailKind = 'assignment' | 'disputed' | 'settled';
+export type MailKind = 'assignment' | 'disputed' | 'settled' | 'follow';
 
 export interface OutgoingMail {
   kind: MailKind;

@@ -1,0 +1,27 @@
+import { z } from 'zod';
+import { idParam } from './common.js';
+import { synthesisRequestSchema } from './synthesis.js';
+
+/** Follow a synthesis request; thresholds default to common practice (half an SE, 20% weight). */
+export const followCreateSchema = z
+  .object({
+    request: synthesisRequestSchema,
+    seShare: z.number().gt(0).max(10).default(0.5),
+    weightShare: z.number().gt(0).lt(1).default(0.2),
+  })
+  .strict();
+export type FollowCreate = z.infer<typeof followCreateSchema>;
+
+export const followIdSchema = z.object({ id: idParam });
+export const unsubscribeSchema = z.object({ token: z.string().regex(/^[0-9a-f]{48}$/, 'not an unsubscribe token') }).strict();
+
+export const followSchema = z.object({
+  id: z.number(),
+  request: z.unknown(),
+  seShare: z.number(),
+  weightShare: z.number(),
+  lastVersion: z.number(),
+  createdAt: z.string(),
+  feedUrl: z.string(),
+});
+export type Follow = z.infer<typeof followSchema>;
