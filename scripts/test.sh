@@ -67,7 +67,10 @@ if [ $# -eq 0 ]; then
   export CLIENT_DIR="$RESULTS_DIR/client"
   npm run --silent db:migrate && npm run --silent db:seed || e2e_rc=1
   node_modules/.bin/vite build --logLevel error --outDir "$CLIENT_DIR" || e2e_rc=1
-  node_modules/.bin/tsx server/fakes/run.ts > "$RESULTS_DIR/fakes.log" 2>&1 & PIDS+=($!)
+  # Each stand-in in its own process, as under npm start: one failing does not take the others down.
+  for fake in oauth search doi mail; do
+    node_modules/.bin/tsx server/fakes/run.ts "$fake" >> "$RESULTS_DIR/fakes.log" 2>&1 & PIDS+=($!)
+  done
   node_modules/.bin/tsx server/index.ts > "$RESULTS_DIR/server.log" 2>&1 & PIDS+=($!)
   for _ in $(seq 1 120); do curl -fsS -o /dev/null "$APP_ORIGIN/api/health" 2>/dev/null && break; sleep 0.5; done
   if [ $e2e_rc -eq 0 ]; then

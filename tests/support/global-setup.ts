@@ -1,7 +1,7 @@
 import { execFileSync } from 'node:child_process';
-import { fakePortsFromEnv, startFakes } from '../../server/fakes/run.js';
+import { startStandIns } from './stand-ins.js';
 
-/** Runs once per vitest run: migrates the (fresh) test database and starts the local stand-ins. */
+/** Runs once per vitest run: migrates the (fresh) test database and starts the local stand-ins, each in its own process. */
 export default async function setup() {
   const url = process.env.DATABASE_URL;
   if (!url || !/chronometa_test/.test(url)) {
@@ -9,7 +9,7 @@ export default async function setup() {
   }
   // Migrations are TypeScript files: let tsx load them, as `npm run db:migrate` does.
   execFileSync('node_modules/.bin/tsx', ['scripts/db.ts', 'migrate'], { stdio: 'inherit' });
-  const fakes = await startFakes(fakePortsFromEnv());
+  const fakes = await startStandIns();
   return async () => {
     await fakes.stop();
   };
