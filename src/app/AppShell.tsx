@@ -10,7 +10,7 @@ export function AppShell() {
   const signOut = useSignOut();
   // A screen's loader is fetching its data: the page shown stays until it arrives.
   const navigating = useNavigation().state !== 'idle';
-  const links = NAV_ITEMS.filter((n) => (n.role ? !!me && hasRole(me.roles, n.role) : n.signedIn ? !!me : true));
+  const links = NAV_ITEMS.filter((n) => (n.role ? !!me && [n.role].flat().some((r) => hasRole(me.roles, r)) : n.signedIn ? !!me : true));
   return (
     <div className="min-h-screen">
       <a href="#main" className="sr-only focus:not-sr-only">

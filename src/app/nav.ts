@@ -1,10 +1,10 @@
 import type { Role } from '../../shared/roles';
 
-/** Header links; each feature adds its screen here. `role` hides a link from people who cannot use it. */
+/** Header links; each feature adds its screen here. `role` hides a link from people who hold none of its roles. */
 export interface NavItem {
   to: string;
   label: string;
-  role?: Role;
+  role?: Role | Role[];
   signedIn?: boolean;
 }
 
@@ -21,7 +21,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/extractions', label: 'My coding', role: 'contributor' },
   { to: '/assignments', label: 'Assign', role: 'curator' },
   { to: '/reconciliation', label: 'Reconcile', role: 'curator' },
-  { to: '/agreement', label: 'Agreement', role: 'reviewer' },
+  { to: '/agreement', label: 'Agreement', role: ['curator', 'reviewer'] },
   { to: '/manipulations', label: 'Vocabulary' },
   { to: '/settings/tokens', label: 'API tokens', signedIn: true },
   { to: '/admin/people', label: 'People', role: 'admin' },
