@@ -5,7 +5,8 @@ import type { Db } from './db.js';
 export interface SettledEffectFilters {
   manipulation?: string | string[];
   outcome?: string;
-  metric?: string;
+  /** one metric, or several (a synthesis pooling an SMD family) */
+  metric?: string | string[];
   population?: string;
   modality?: string;
   task?: string;
@@ -35,7 +36,8 @@ export function settledEffectsFrom(db: Db) {
 /** The filters other than manipulation, on a query built from settledEffectsFrom. */
 export function applyStudyFilters(q: Knex.QueryBuilder, f: SettledEffectFilters) {
   if (f.outcome) q.where('f.outcome', f.outcome);
-  if (f.metric) q.where('f.metric', f.metric);
+  if (Array.isArray(f.metric)) q.whereIn('f.metric', f.metric);
+  else if (f.metric) q.where('f.metric', f.metric);
   if (f.population) q.where('s.population', f.population);
   if (f.modality) q.where('s.modality', f.modality);
   if (f.task) q.where('s.task', f.task);

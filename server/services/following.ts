@@ -2,7 +2,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
 import type { Deps } from './deps.js';
 import type { JobQueue } from '../adapters/jobs.js';
-import { synthesize } from './synthesis.js';
+import { requestFilters, synthesize } from './synthesis.js';
 import { settledEffectsFor } from './settled-effects-cache.js';
 import { queueMails } from './mail.js';
 import { NotFoundError } from '../lib/errors.js';
@@ -17,7 +17,7 @@ type Stored = FollowedResult & { fingerprint: string };
 
 /** The followed result now, or null when no effect matches (nothing to pool). */
 async function currentResult(db: Knex, request: SynthesisRequest): Promise<{ version: number; result: Stored | null }> {
-  const { registryVersion, effects } = await settledEffectsFor(db, request.filters);
+  const { registryVersion, effects } = await settledEffectsFor(db, requestFilters(request));
   const fingerprint = createHash('sha1').update(JSON.stringify(effects)).digest('hex');
   if (effects.length === 0) return { version: registryVersion, result: null };
   const out = synthesize(effects, request);
@@ -71,7 +71,7 @@ export async function recheckFollows(deps: Pick<Deps, 'db' | 'jobs' | 'appOrigin
   const mails: Array<{ userId: number; follow: FollowRow; text: string }> = [];
   for (const f of follows) {
     const before = f.last_result as Stored | null;
-    const { effects } = await settledEffectsFor(db, (f.request as SynthesisRequest).filters);
+    const { effects } = await settledEffectsFor(db, requestFilters(f.request as SynthesisRequest));
     const fingerprint = createHash('sha1').update(JSON.stringify(effects)).digest('hex');
     if (before && before.fingerprint === fingerprint) {
       await markFollowChecked(db, f.id, version);

@@ -5,7 +5,7 @@ import type { EffectSheet, ExtractionDetail } from '../../shared/schemas/extract
 import type { RecordHistory, RecordVersionResult, WithdrawnRecord } from '../../shared/schemas/reconciliation.js';
 import type { EditedEffect, WithdrawnEffect } from '../../shared/schemas/registry.js';
 import { OUTCOMES, METRIC_LABELS } from '../../shared/vocabulary/outcomes.js';
-import { METRIC_OF_FORM, tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
+import { METRICS_OF_FORM, tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors.js';
@@ -126,10 +126,11 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
     if (!e.outcome) problems.push({ path: 'body.effect.outcome', message: 'choose an outcome kind' });
     if (!e.manipulation) problems.push({ path: 'body.effect.manipulation', message: 'choose a manipulation' });
     if (!e.form) problems.push({ path: 'body.effect.form', message: 'choose how the result was reported' });
-    if (e.form && e.outcome && !OUTCOMES[e.outcome].metrics.includes(METRIC_OF_FORM[e.form]))
-      problems.push({ path: 'body.effect.form', message: `${OUTCOMES[e.outcome].label} is not pooled as ${METRIC_LABELS[METRIC_OF_FORM[e.form]]}` });
     const c = e.form ? tryComputeReported(e.form, e.reported as Reported, e.assumedR ?? null) : null;
     if (c && !c.ok) problems.push({ path: `body.effect.reported${c.field ? `.${c.field}` : ''}`, message: c.error! });
+    const metrics = c?.ok ? [c.result!.metric] : e.form ? METRICS_OF_FORM[e.form] : [];
+    if (e.outcome && metrics.length && !metrics.some((m) => OUTCOMES[e.outcome!].metrics.includes(m)))
+      problems.push({ path: 'body.effect.form', message: `${OUTCOMES[e.outcome].label} is not pooled as ${metrics.map((m) => METRIC_LABELS[m]).join(' or ')}` });
     if (problems.length) throw new ValidationError(`${problems[0].path}: ${problems[0].message}`, problems);
     const ids = await resolveManipulations(trx, [e.manipulation!]);
     const before = { outcome: f.outcome, manipulationId: f.manipulation_id, form: f.report_form, reported: f.reported, effect: f.effect, variance: f.variance };

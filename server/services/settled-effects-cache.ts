@@ -56,11 +56,12 @@ export async function settledEffectsAt(db: Knex): Promise<Loaded> {
 /** The same rows, in the same order, as querySynthesisRows(db, filters) — a test holds the two together. */
 export function filterSettledEffects(effects: readonly SettledEffect[], f: SettledEffectFilters): SettledEffect[] {
   const terms = f.manipulation === undefined ? null : new Set(Array.isArray(f.manipulation) ? f.manipulation : [f.manipulation]);
+  const metrics = Array.isArray(f.metric) ? new Set(f.metric) : null;
   const out: SettledEffect[] = [];
   for (const e of effects) {
     if (terms && !terms.has(e.manipulation)) continue;
     if (f.outcome && e.outcome !== f.outcome) continue;
-    if (f.metric && e.metric !== f.metric) continue;
+    if (metrics ? !metrics.has(e.metric) : f.metric && e.metric !== f.metric) continue;
     if (f.population && e.population !== f.population) continue;
     if (f.modality && e.modality !== f.modality) continue;
     if (f.task && e.task !== f.task) continue;

@@ -9,7 +9,7 @@ import { querySettledEffects, type SettledEffectRow } from '../repositories/effe
 import { refsForCitation } from '../repositories/refs.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows } from '../repositories/snapshots.js';
-import { synthesize } from './synthesis.js';
+import { requestFilters, synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
 import { pageOf } from '../../shared/schemas/common.js';
@@ -55,7 +55,7 @@ export async function createSnapshot(db: Knex, actorId: number, request: Synthes
   return db.transaction(
     async (trx) => {
       const registryVersion = await currentRegistryVersion(trx);
-      const effects = await querySettledEffects(trx, request.filters);
+      const effects = await querySettledEffects(trx, requestFilters(request));
       const output = synthesize(effects, request);
       const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
       const refs = await refsForCitation(trx, refIds);

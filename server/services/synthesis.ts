@@ -1,20 +1,32 @@
 import type { Knex } from 'knex';
 import { settledEffectsAt, settledEffectsFor } from './settled-effects-cache.js';
-import { UnprocessableError } from '../lib/errors.js';
+import { UnprocessableError, ValidationError } from '../lib/errors.js';
+import type { SettledEffectFilters } from '../repositories/settled-effects.js';
 import { querySettledEffects } from '../repositories/effects.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest, SYNTHESIS_EXPORT_FILES } from '../../shared/schemas/synthesis.js';
 import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
+import { SmdFamilyFilterError, metricFilter } from '../../shared/synthesis/metric-choice.js';
 import { MultilevelModelError } from '../../shared/synthesis/run-multilevel.js';
 import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
+
+/** The settled-effect filters a request means (an SMD family widens the metric filter to its members). */
+export function requestFilters(request: SynthesisRequest): SettledEffectFilters {
+  try {
+    return { ...request.filters, metric: metricFilter(request) };
+  } catch (err) {
+    if (err instanceof SmdFamilyFilterError) throw new ValidationError(`body.smdFamily: ${err.message}`, [{ path: 'body.smdFamily', message: err.message }]);
+    throw err;
+  }
+}
 
 /** Runs the pure pipeline, turning its refusals into 422s that say what to do. */
 export function synthesize(effects: readonly SettledEffect[], request: SynthesisRequest): SynthesisOutput {
   try {
     return runSynthesis(effects, request);
   } catch (err) {
-    if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics });
+    if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics, choices: err.choices });
     if (err instanceof NoEffectsError) throw new UnprocessableError(err.message, { effects: 0 });
     if (err instanceof MultilevelModelError) throw new UnprocessableError(err.message, { dependence: 'multilevel' });
     throw err;
@@ -23,7 +35,7 @@ export function synthesize(effects: readonly SettledEffect[], request: Synthesis
 
 /** A synthesis over the current settled registry, with the registry version it was computed on. */
 export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: SynthesisRequest) {
-  const { registryVersion, effects } = await settledEffectsFor(db, request.filters);
+  const { registryVersion, effects } = await settledEffectsFor(db, requestFilters(request));
   return { registryVersion, effects, output: synthesize(effects, request) };
 }
 
@@ -41,7 +53,7 @@ export async function liveSynthesisExport(db: Knex, request: SynthesisRequest, f
   const { registryVersion, effects, output } = await db.transaction(
     async (trx) => {
       const version = await currentRegistryVersion(trx);
-      const rows = await querySettledEffects(trx, request.filters);
+      const rows = await querySettledEffects(trx, requestFilters(request));
       return { registryVersion: version, effects: rows, output: synthesize(rows, request) };
     },
     { isolationLevel: 'repeatable read', readOnly: true },

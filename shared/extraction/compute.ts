@@ -1,6 +1,7 @@
 import { computeEffect } from '../stats/compute-effect.js';
 import { StatsInputError } from '../stats/errors.js';
 import { formulas, type FormulaInfo } from '../stats/formulas.js';
+import type { EffectSize } from '../stats/effect-checks.js';
 import type { Metric } from '../stats/metrics.js';
 import { percentChange } from '../stats/percent-change.js';
 import { rawMean } from '../stats/raw-mean.js';
@@ -19,8 +20,8 @@ export const REPORT_FORMS = [
 export type ReportForm = (typeof REPORT_FORMS)[number];
 
 export const REPORT_FORM_LABELS: Record<ReportForm, string> = {
-  smd: "Two groups → Hedges' g (means & SDs, t, F or p)",
-  smd_paired: "Within subject → Hedges' g (SD of differences, condition SDs, or paired t)",
+  smd: "Two groups → Hedges' g_s (means & SDs, t, F or p)",
+  smd_paired: "Within subject → Hedges' g_rm, g_av or g_z (SD of differences, condition SDs, or paired t)",
   log_ratio: 'Two groups → log ratio of means',
   log_ratio_paired: 'Within subject → log ratio of means',
   percent_change: 'Percent change with its SE → log ratio of means',
@@ -29,16 +30,24 @@ export const REPORT_FORM_LABELS: Record<ReportForm, string> = {
   fisher_z: "Correlation → Fisher's z",
 };
 
-export const METRIC_OF_FORM: Record<ReportForm, Metric> = {
-  smd: 'hedges_g',
-  smd_paired: 'hedges_g',
-  log_ratio: 'log_ratio',
-  log_ratio_paired: 'log_ratio',
-  percent_change: 'log_ratio',
-  mean_diff: 'mean_diff',
-  raw_mean: 'raw_mean',
-  fisher_z: 'fisher_z',
+/**
+ * The metrics each form can give; which one is decided by what was reported (computeEffect reports it): within
+ * subject, the SD of differences or a paired t with r give g_rm, condition SDs with r give g_av, a paired t (or p)
+ * without r gives g_z.
+ */
+export const METRICS_OF_FORM: Record<ReportForm, readonly Metric[]> = {
+  smd: ['g_s'],
+  smd_paired: ['g_rm', 'g_av', 'g_z'],
+  log_ratio: ['log_ratio'],
+  log_ratio_paired: ['log_ratio'],
+  percent_change: ['log_ratio'],
+  mean_diff: ['mean_diff'],
+  raw_mean: ['raw_mean'],
+  fisher_z: ['fisher_z'],
 };
+
+/** What the sheet says beside a g_z: how to get a raw-score g instead. */
+export const GZ_ADVICE = 'g_z is standardized by the SD of the differences and is never pooled with g_s, g_av or g_rm. Enter the correlation r between the conditions (reported, or assumed and stated) to get a raw-score g_rm.';
 
 /** Every reported value the sheet can hold; which ones a form uses is in REPORT_FIELDS. */
 export const REPORTED_KEYS = [
@@ -95,14 +104,14 @@ export function computeReported(form: ReportForm, reported: Reported, assumedR?:
     values.r = r;
     usedAssumed = r;
   }
-  let out: { effect: number; variance: number; formula: string };
+  let out: Pick<EffectSize, 'effect' | 'variance' | 'formula' | 'metric'>;
   if (form === 'raw_mean') out = rawMean(values.mean as number, values.sd as number, values.n as number);
   else if (form === 'percent_change') out = percentChange(values.percent as number, values.se as number);
   else out = computeEffect({ measure: form, ...values });
   const n =
     values.n1 !== undefined && values.n2 !== undefined ? values.n1 + values.n2 : values.n !== undefined ? values.n : null;
   return {
-    metric: METRIC_OF_FORM[form],
+    metric: out.metric,
     effect: out.effect,
     variance: out.variance,
     formula: out.formula,

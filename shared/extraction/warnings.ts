@@ -31,7 +31,7 @@ export function effectWarnings(e: EffectSheet, study: StudySheet | undefined, co
   if (study?.n1 !== undefined && r.n1 !== undefined && study.design === 'between' && r.n1 > study.n1) w.push({ field: 'reported.n1', message: 'more participants than the study reports' });
   if (study?.design === 'within' && (e.form === 'smd' || e.form === 'log_ratio')) w.push({ field: 'form', message: 'the study is within subject but this form treats the conditions as independent groups' });
   if (study?.design === 'between' && (e.form === 'smd_paired' || e.form === 'log_ratio_paired')) w.push({ field: 'form', message: 'the study is between groups but this form is for within-subject contrasts' });
-  if (computed?.metric === 'hedges_g' && Math.abs(computed.effect) > 3) w.push({ field: 'effect', message: "|g| above 3 is far outside this literature (typically 0.1–0.8); check the SDs are not SEs" });
+  if (computed && computed.metric.startsWith('g_') && Math.abs(computed.effect) > 3) w.push({ field: 'effect', message: "|g| above 3 is far outside this literature (typically 0.1–0.8); check the SDs are not SEs" });
   if (computed?.metric === 'log_ratio' && Math.abs(computed.effect) > 0.7) w.push({ field: 'effect', message: 'a log ratio beyond ±0.7 (a factor of 2) is implausible for duration judgements' });
   return w;
 }

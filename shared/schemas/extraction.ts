@@ -4,7 +4,7 @@ import { MODALITIES } from '../vocabulary/modalities.js';
 import { OUTCOME_KINDS, OUTCOMES, METRIC_LABELS } from '../vocabulary/outcomes.js';
 import { POPULATIONS } from '../vocabulary/populations.js';
 import { TASKS } from '../vocabulary/tasks.js';
-import { REPORT_FORMS, REPORTED_KEYS, METRIC_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
+import { REPORT_FORMS, REPORTED_KEYS, METRICS_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
 import { METRICS } from '../stats/metrics.js';
 import { idParam, pageSchema, pagingSchema, timestamp } from './common.js';
 import { derivationSchema } from './trials.js';
@@ -88,14 +88,18 @@ export function checkSheetComplete(sheet: Sheet, ctx: z.RefinementCtx) {
         required(ctx, [...q, 'form'], 'choose how the result was reported');
         return;
       }
-      if (e.outcome && !OUTCOMES[e.outcome].metrics.includes(METRIC_OF_FORM[e.form])) {
+      const formMetrics = METRICS_OF_FORM[e.form];
+      if (e.outcome && !formMetrics.some((m) => OUTCOMES[e.outcome!].metrics.includes(m))) {
         required(
           ctx,
           [...q, 'form'],
-          `${OUTCOMES[e.outcome].label} is pooled as ${OUTCOMES[e.outcome].metrics.map((m) => METRIC_LABELS[m]).join(' or ')}, not ${METRIC_LABELS[METRIC_OF_FORM[e.form]]}`,
+          `${OUTCOMES[e.outcome].label} is pooled as ${OUTCOMES[e.outcome].metrics.map((m) => METRIC_LABELS[m]).join(' or ')}, not ${formMetrics.map((m) => METRIC_LABELS[m]).join(' or ')}`,
         );
+        return;
       }
       const attempt = tryComputeReported(e.form, e.reported as Reported, e.assumedR ?? null);
+      if (attempt.ok && e.outcome && !OUTCOMES[e.outcome].metrics.includes(attempt.result!.metric))
+        required(ctx, [...q, 'form'], `${OUTCOMES[e.outcome].label} is not pooled as ${METRIC_LABELS[attempt.result!.metric]}`);
       if (!attempt.ok) required(ctx, attempt.field ? [...q, 'reported', attempt.field] : [...q, 'reported'], attempt.error!);
     });
   });

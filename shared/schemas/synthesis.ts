@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { METHODS } from '../stats/types.js';
-import { METRICS } from '../stats/metrics.js';
+import { METRICS, SMD_FAMILIES } from '../stats/metrics.js';
 import type { PoolResult } from '../stats/types.js';
 import type { PrismaCounts } from '../synthesis/methods.js';
 import type { Caution, PlotFigure, SynthesisOutput } from '../synthesis/types.js';
@@ -73,6 +73,8 @@ export const synthesisRequestSchema = z
     dependence: dependenceSchema.default({ mode: 'aggregate', r: 0.5 }),
     subgroup: z.enum(SUBGROUP_VARIABLES).optional(),
     moderator: z.enum(MODERATORS).optional(),
+    /** pool g_s, g_av and g_rm together as one raw-score standardized mean difference (never g_z) */
+    smdFamily: z.enum(SMD_FAMILIES).optional(),
   })
   .strict();
 export type SynthesisRequest = z.infer<typeof synthesisRequestSchema>;

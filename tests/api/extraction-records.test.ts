@@ -22,7 +22,7 @@ describe('settled records over the API: read, reopen with a reason, edit the new
     const res = await anonymous(t.app).get(`/api/records/${recordId}`);
     expect(res.status).toBe(200);
     expect(res.body.extraction).toMatchObject({ kind: 'settled', state: 'settled', recordVersion: 1 });
-    expect(res.body.studies[0].effects[0].computed.metric).toBe('hedges_g');
+    expect(res.body.studies[0].effects[0].computed.metric).toBe('g_s');
     const v0 = await currentRegistryVersion(t.ctx.db);
     const reopened = await curator.post(`/api/records/${recordId}/reopen`).send({ reason: 'n2 was 22, not 20' });
     expect(reopened.status).toBe(201);

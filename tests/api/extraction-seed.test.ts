@@ -32,11 +32,11 @@ describe('demo registry seed', () => {
       expect(r.effect).toBeCloseTo(c.effect, 10);
       expect(r.variance).toBeCloseTo(c.variance, 10);
     }
-    const g = await querySettledEffects(t.ctx.db, { metric: 'hedges_g', outcome: 'duration_distortion' });
+    const g = await querySettledEffects(t.ctx.db, { metric: ['g_s', 'g_av', 'g_rm', 'g_z'], outcome: 'duration_distortion' });
     expect(g.every((r) => Math.abs(r.effect) < 1.5)).toBe(true);
     const windows = await querySettledEffects(t.ctx.db, { outcome: 'simultaneity_window' });
     expect(windows.every((r) => r.effect >= 150 && r.effect <= 450)).toBe(true);
-    expect((await querySettledEffects(t.ctx.db, { manipulation: 'luminance', metric: 'hedges_g' })).length).toBeGreaterThanOrEqual(8);
+    expect((await querySettledEffects(t.ctx.db, { manipulation: 'luminance', metric: ['g_s', 'g_av', 'g_rm', 'g_z'] })).length).toBeGreaterThanOrEqual(8);
   });
 
   it('is idempotent: a second run adds nothing', async () => {

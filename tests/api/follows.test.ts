@@ -4,7 +4,7 @@ import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../sup
 import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';
 import { recheckFollows } from '../../server/services/following.js';
 
-const body = { request: { filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } } };
+const body = { request: { filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } } };
 
 /** The Atom shape RFC 4287 asks for: feed with id, title, updated, author; each entry with id, title, updated. */
 function atomEntries(xml: string): string[] {

@@ -99,7 +99,7 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
 
   it('syntheses, snapshots and the error envelope', async () => {
     expectShape(synthesisFacetsSchema, await anonymous(t.app).get('/api/syntheses/facets'));
-    const request = { filters: { manipulation: 'luminance', metric: 'hedges_g' } };
+    const request = { filters: { manipulation: 'luminance' }, smdFamily: 'raw_score' };
     expectShape(synthesisAnswerSchema, await anonymous(t.app).post('/api/syntheses').send(request));
     const created = await as.reviewer.post('/api/snapshots').send(request);
     expectShape(createdSnapshotSchema, created, 201);

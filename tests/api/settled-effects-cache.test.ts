@@ -20,7 +20,7 @@ describe('settled effects held in memory per registry version', () => {
     const cases = [
       {},
       { manipulation: 'luminance' },
-      { manipulation: ['luminance', 'numerosity'], metric: 'hedges_g' as const },
+      { manipulation: ['luminance', 'numerosity'], metric: 'g_s' as const },
       { manipulation: ['numerosity', 'luminance', 'numerosity'] },
       { modality: 'auditory', yearFrom: 2008, yearTo: 2012 },
       { yearFrom: 2014 },
@@ -38,7 +38,7 @@ describe('settled effects held in memory per registry version', () => {
   it('reloads when the registry version moves, so a new settled effect enters the next synthesis', async () => {
     const before = await settledEffectsFor(t.ctx.db, { manipulation: 'luminance' });
     expect(before.registryVersion).toBe(await currentRegistryVersion(t.ctx.db));
-    const body = { filters: { manipulation: 'luminance', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
+    const body = { filters: { manipulation: 'luminance' }, smdFamily: 'raw_score', method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
     const first = await anonymous(t.app).post('/api/syntheses').send(body);
     expect(first.status).toBe(200);
 

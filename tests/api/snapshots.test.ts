@@ -6,7 +6,7 @@ import { createSettledRecord } from '../../server/services/settlement.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { settleInventedSet } from './syntheses-fixtures.js';
 
-const body = { filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
+const body = { filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
 
 describe('snapshots', () => {
   let t: TestApp;
@@ -107,7 +107,7 @@ describe('snapshots', () => {
     const all = await request(t.app).post('/api/snapshots').set('Authorization', `Bearer ${tok.token}`).send({ filters: {}, method: 'PM' });
     expect(all.status).toBe(201);
     const got = await request(t.app).get(`/api/snapshots/${all.body.id}`);
-    expect(got.body.title).toBe("All settled effects — Hedges' g, Paule–Mandel");
+    expect(got.body.title).toBe("All settled effects — Hedges' g_s (independent groups), Paule–Mandel");
   });
 
   it('lists snapshots paged and sorted on the server', async () => {

@@ -3,7 +3,7 @@ import { createSnapshot } from '../../server/services/snapshots.js';
 import { synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
 import { settleInventedReference } from './syntheses-fixtures.js';
 
-const body = { filters: { manipulation: 'luminance', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
+const body = { filters: { manipulation: 'luminance', metric: 'g_s' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } };
 const multilevel = { ...body, dependence: { mode: 'multilevel', robust: true } };
 
 describeAccess(

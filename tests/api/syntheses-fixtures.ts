@@ -12,7 +12,9 @@ export interface InventedStudy {
   modality?: 'visual' | 'auditory';
   /** a second effect in the same study (dependence handling) */
   second?: { mean1: number; mean2: number };
-  form?: 'smd' | 'log_ratio';
+  form?: 'smd' | 'log_ratio' | 'smd_paired';
+  /** what was reported, instead of the two groups' means and SDs (e.g. a paired t) */
+  reported?: Record<string, number>;
 }
 
 let counter = 0;
@@ -32,7 +34,7 @@ export async function settleInventedReference(db: Knex, manipulation: string, ye
     outcome,
     manipulation,
     form: s.form ?? 'smd',
-    reported: { mean1: m1, sd1: s.sd, n1: s.n, mean2: m2, sd2: s.sd, n2: s.n },
+    reported: s.reported ?? { mean1: m1, sd1: s.sd, n1: s.n, mean2: m2, sd2: s.sd, n2: s.n },
   });
   const sheet = {
     studies: studies.map((s, i) => ({

@@ -4,7 +4,7 @@ import { poolMultilevel, robustPool } from '../../shared/stats/index.js';
 import { anonymous, createTestApp, resetDb, signIn, type TestApp } from '../support/test-app.js';
 import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';
 
-const filters = { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' };
+const filters = { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' };
 const multilevel = { filters, dependence: { mode: 'multilevel', robust: true } };
 
 describe('POST /api/syntheses with dependence { mode: "multilevel" }', () => {

@@ -8,7 +8,7 @@ import { forestFigure } from '../../shared/plots/forest.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 
 // Invented effects: 8 studies of a made-up "luminance" manipulation, study 3 with two effects.
-const base = { outcome: 'duration_distortion', manipulation: 'luminance', metric: 'hedges_g', design: 'within', population: 'healthy_adults', modality: 'visual', task: 'reproduction' };
+const base = { outcome: 'duration_distortion', manipulation: 'luminance', metric: 'g_s', design: 'within', population: 'healthy_adults', modality: 'visual', task: 'reproduction' };
 const effects: SettledEffect[] = [
   [1, 1, 0.31, 0.04, 2011, 20, 500],
   [2, 2, 0.12, 0.03, 2013, 24, 800],
@@ -52,7 +52,7 @@ describe('synthesis pipeline (pure, over rows)', () => {
   it('refuses mixed metrics naming both, and an empty set', () => {
     const mixed = [...effects, { ...effects[0], id: 99, studyId: 99, metric: 'log_ratio' }];
     expect(() => runSynthesis(mixed, request())).toThrow(MixedMetricsError);
-    expect(() => runSynthesis(mixed, request())).toThrow(/hedges_g: 9, log_ratio: 1/);
+    expect(() => runSynthesis(mixed, request())).toThrow(/g_s: 9, log_ratio: 1/);
     expect(() => runSynthesis([], request())).toThrow(NoEffectsError);
   });
 
@@ -110,7 +110,7 @@ describe('synthesis pipeline (pure, over rows)', () => {
 describe('forest plot builder', () => {
   it('draws squares sized by weight, arrows for CIs past the axis, the diamond and the prediction interval', () => {
     const studies = Array.from({ length: 150 }, (_, i) => ({ label: `Invented lab ${i}`, year: 2000 + (i % 20), n: 20, effect: i === 7 ? 9 : 0.2 + (i % 5) * 0.05, variance: i === 7 ? 0.01 : 0.04, weight: 100 / 150 }));
-    const fig = forestFigure({ metric: 'hedges_g', metricLabel: "Hedges' g", level: 0.95, studies, pooled: { label: 'Pooled', estimate: 0.3, ci_lower: 0.25, ci_upper: 0.35, pi_lower: 0.1, pi_upper: 0.5 } });
+    const fig = forestFigure({ metric: 'g_s', metricLabel: "Hedges' g", level: 0.95, studies, pooled: { label: 'Pooled', estimate: 0.3, ci_lower: 0.25, ci_upper: 0.35, pi_lower: 0.1, pi_upper: 0.5 } });
     const byMeta = (m: string) => fig.data.filter((d) => d.meta === m);
     expect((byMeta('studies')[0].x as number[]).length).toBe(150);
     const right = byMeta('arrows')[1].x as number[];

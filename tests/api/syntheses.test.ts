@@ -16,7 +16,7 @@ describe('POST /api/syntheses', () => {
   it('answers rows one per study and the engine result for exactly those rows', async () => {
     const res = await anonymous(t.app)
       .post('/api/syntheses')
-      .send({ filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'hedges_g' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } });
+      .send({ filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } });
     expect(res.status).toBe(200);
     expect(res.body.rows).toHaveLength(12);
     expect(res.body.counts).toEqual({ effects: 13, studies: 12, references: 12 });
@@ -55,7 +55,7 @@ describe('POST /api/syntheses', () => {
     await settleInventedReference(t.ctx.db, 'luminance', 2020, [{ mean1: 700, mean2: 640, sd: 90, n: 20, form: 'log_ratio' }]);
     const res = await anonymous(t.app).post('/api/syntheses').send({ filters: { manipulation: 'luminance' } });
     expect(res.status).toBe(422);
-    expect(res.body.error.message).toMatch(/hedges_g: 13/);
+    expect(res.body.error.message).toMatch(/g_s: 13/);
     expect(res.body.error.message).toMatch(/log_ratio: 1/);
     expect(res.body.error.message).toMatch(/metric/);
     expect(res.body.error.details.metrics).toHaveLength(2);
@@ -77,13 +77,13 @@ describe('POST /api/syntheses', () => {
     const res = await request(t.app)
       .post('/api/syntheses')
       .set('Authorization', `Bearer ${body.token}`)
-      .send({ filters: { manipulation: 'luminance', metric: 'hedges_g' } });
+      .send({ filters: { manipulation: 'luminance', metric: 'g_s' } });
     expect(res.status).toBe(200);
     expect(res.body.result.k).toBe(12);
   });
 
   it('keeps an answer per registry version: repeated requests hit, a settled change recomputes', async () => {
-    const req = { filters: { manipulation: 'luminance', metric: 'hedges_g' }, level: 0.9 };
+    const req = { filters: { manipulation: 'luminance', metric: 'g_s' }, level: 0.9 };
     const first = await anonymous(t.app).post('/api/syntheses').send(req);
     const again = await anonymous(t.app).post('/api/syntheses').send(req);
     expect(first.headers['x-synthesis-cache']).toBe('miss');
@@ -100,7 +100,7 @@ describe('POST /api/syntheses', () => {
     const res = await anonymous(t.app).get('/api/syntheses/facets');
     expect(res.status).toBe(200);
     expect(res.body.manipulations).toEqual([{ value: 'luminance', count: 15, label: 'Luminance' }]);
-    expect(res.body.metrics.map((m: any) => m.value)).toEqual(['hedges_g', 'log_ratio']);
+    expect(res.body.metrics.map((m: any) => m.value)).toEqual(['g_s', 'log_ratio']);
   });
 });
 

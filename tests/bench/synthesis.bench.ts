@@ -50,7 +50,7 @@ async function bulkSynthetic(term: string, refs: number, studiesPer: number, eff
       FROM s JOIN x ON x.reference_id = s.reference_id RETURNING id, extraction_id, study_id
     )
     INSERT INTO effects (extraction_id, extraction_study_id, position, label, outcome, manipulation_id, report_form, metric, effect, variance, formula, n_total)
-    SELECT es.extraction_id, es.id, e, 'synthetic', 'duration_distortion', ?, 'smd', 'hedges_g',
+    SELECT es.extraction_id, es.id, e, 'synthetic', 'duration_distortion', ?, 'smd', 'g_s',
            0.3 + 0.25 * sin(es.id * 12.9898 + e * 78.233 + ?), 0.02 + 0.15 * abs(sin(es.id * 3.1 + e + ?)), 'smd_independent', 40 + 2 * (es.id % 30)
     FROM es, generate_series(1, (${cycle})[1 + es.study_id % ${effectsPer.length}]) e
   `,
@@ -104,7 +104,7 @@ try {
   await waitFor(`${origin}/api/health`);
 
   const body = (term: string, dependence: Record<string, unknown> = { mode: 'aggregate', r: 0.5 }) =>
-    JSON.stringify({ filters: { manipulation: term, metric: 'hedges_g' }, method: 'DL', hksj: false, dependence });
+    JSON.stringify({ filters: { manipulation: term, metric: 'g_s' }, method: 'DL', hksj: false, dependence });
 
   // 1. large synthesis, sequential; "computed" requests vary the level so none is answered from the
   // registry-version cache, "repeated" ones send one request again and again (what a page or script does).

@@ -84,15 +84,15 @@ export const specs: Spec[] = [
       await page.getByLabel('To year').fill('');
       await page.getByLabel('Manipulation').selectOption(['luminance']);
       await page.getByLabel('Outcome kind').selectOption('duration_distortion');
-      await page.getByLabel('Metric').selectOption('hedges_g');
+      await page.getByLabel('Standardized mean differences').selectOption('raw_score');
       await page.getByLabel('Confidence level').fill('0.9');
       await page.getByRole('button', { name: 'Run synthesis' }).click();
       await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
-      assert.equal(new URL(page.url()).search, '?manipulation=luminance&outcome=duration_distortion&metric=hedges_g&level=0.9');
+      assert.equal(new URL(page.url()).search, '?manipulation=luminance&outcome=duration_distortion&level=0.9&smdFamily=raw_score');
       await page.getByTestId('pooled-estimate').getByText('90% CI').waitFor();
 
       // A hand-edited address: the bad parts fall back to their defaults, the rest runs.
-      await page.goto(appUrl('/synthesis?manipulation=luminance&outcome=duration_distortion&metric=hedges_g&level=abc&method=XYZ&r=7'));
+      await page.goto(appUrl('/synthesis?manipulation=luminance&outcome=duration_distortion&smdFamily=raw_score&level=abc&method=XYZ&r=7'));
       await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
       assert.equal(await page.getByLabel('Confidence level').inputValue(), '0.95');
       assert.equal(await page.getByLabel('Estimator').inputValue(), 'DL');

@@ -10,7 +10,7 @@ async function runLuminance(page: Page) {
   await page.goto(appUrl('/synthesis'));
   await page.getByLabel('Manipulation').selectOption(['luminance']);
   await page.getByLabel('Outcome kind').selectOption('duration_distortion');
-  await page.getByLabel('Metric').selectOption('hedges_g');
+  await page.getByLabel('Standardized mean differences').selectOption('raw_score');
   await page.getByRole('button', { name: 'Run synthesis' }).click();
   await page.getByTestId('pooled-estimate').waitFor({ timeout: 40_000 });
 }

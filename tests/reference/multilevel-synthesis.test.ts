@@ -35,7 +35,7 @@ function invented(): SettledEffect[] {
         const variance = 0.01 + 0.12 * rnd();
         out.push({
           id: id++, referenceId: p, studyId, studyLabel: `Exp. ${s + 1}`, referenceLabel: `Invented ${p} (${year})`, year,
-          outcome: 'duration_distortion', manipulation: 'luminance', metric: 'hedges_g', effect: 0.25 + 0.0004 * (standardMs - 600) + u + Math.sqrt(variance + 0.02) * z(),
+          outcome: 'duration_distortion', manipulation: 'luminance', metric: 'g_s', effect: 0.25 + 0.0004 * (standardMs - 600) + u + Math.sqrt(variance + 0.02) * z(),
           variance, n: 20, design: 'within', population: 'healthy_adults', modality: 'visual', task, standardMs,
         });
       }

@@ -2,6 +2,7 @@ import { useEffect, useMemo } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigation, useSearchParams } from 'react-router-dom';
 import type { SynthesisRequest } from '../../../shared/schemas/synthesis';
+import type { PoolingChoice } from '../../../shared/synthesis/metric-choice';
 import { ApiRequestError } from '../../lib/api-client';
 import { formResolver } from '../../lib/forms/resolver';
 import { showServerErrors } from '../../lib/forms/server-errors';
@@ -15,7 +16,6 @@ import { synthesisExportHref } from '../../features/synthesis/api/export-synthes
 import { DEFAULT_REQUEST, decodeRequest, encodeRequest, requestToFormValues, synthesisFormSchema, type SynthesisFormValues } from '../../features/synthesis/codec';
 import { SynthesisFormPanel } from '../../features/synthesis/components/SynthesisFormPanel';
 import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
-import { valueLabel } from '../../features/synthesis/labels';
 import { SaveSnapshotForm } from '../../features/snapshots/components/SaveSnapshotForm';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 
@@ -39,6 +39,7 @@ const FORM_FIELDS = [
   'dependence.weighted',
   'subgroup',
   'moderator',
+  'smdFamily',
 ] as const;
 
 export function SynthesisPage() {
@@ -64,7 +65,7 @@ export function SynthesisPage() {
   }, [synthesis.error, setError]);
 
   const run = (request: SynthesisRequest) => setParams(encodeRequest(request));
-  const mixed = synthesis.error instanceof ApiRequestError && synthesis.error.status === 422 ? (synthesis.error.details as { metrics?: Array<{ metric: string; count: number }> } | undefined)?.metrics : undefined;
+  const choices = synthesis.error instanceof ApiRequestError && synthesis.error.status === 422 ? (synthesis.error.details as { choices?: PoolingChoice[] } | undefined)?.choices : undefined;
   const data = synthesis.error ? undefined : synthesis.data;
 
   return (
@@ -80,19 +81,13 @@ export function SynthesisPage() {
       {pooling && <Loading what="Pooling the settled effects" />}
       {synthesis.error && !refusedInput && (
         <div className="mt-3">
-          <ErrorNote error={synthesis.error} title={mixed ? 'Not pooled' : 'Refused'} />
-          {mixed && (
-            <div className="flex flex-wrap items-center gap-2 text-sm">
-              <span>Pool only one metric:</span>
-              {mixed.map((m) => (
-                <Button
-                  key={m.metric}
-                  onClick={() => {
-                    form.setValue('filters.metric', m.metric);
-                    void form.handleSubmit(run)();
-                  }}
-                >
-                  {valueLabel('metric', m.metric)} ({m.count})
+          <ErrorNote error={synthesis.error} title={choices ? 'Not pooled' : 'Refused'} />
+          {choices && choices.length > 0 && (
+            <div className="flex flex-wrap items-center gap-2 text-sm" role="group" aria-label="Pool one quantity instead">
+              <span>Pool one quantity instead:</span>
+              {choices.map((c) => (
+                <Button key={c.label} onClick={() => run(c.request)}>
+                  {c.label}
                 </Button>
               ))}
             </div>

@@ -29,6 +29,7 @@ const KNOWN_PARAMS = new Set<string>([
   'weighted',
   'subgroup',
   'moderator',
+  'smdFamily',
 ]);
 
 /** What the form's inputs hold: the request's shape, with text where the user types numbers. */
@@ -50,6 +51,8 @@ export interface SynthesisFormValues {
   dependence: { mode: DependenceMode; r: string; rule: string; robust: boolean; weighted: boolean };
   subgroup: string;
   moderator: string;
+  /** '' or an SMD family pooled as one metric ('raw_score') */
+  smdFamily: string;
 }
 
 export type DependenceMode = 'aggregate' | 'one' | 'multilevel';
@@ -80,6 +83,7 @@ export function encodeRequest(request: SynthesisRequest): URLSearchParams {
   }
   if (request.subgroup) p.set('subgroup', request.subgroup);
   if (request.moderator) p.set('moderator', request.moderator);
+  if (request.smdFamily) p.set('smdFamily', request.smdFamily);
   if (p.size === 0) p.set(ALL_PARAM, '1');
   return p;
 }
@@ -120,6 +124,7 @@ function valuesFromParams(p: URLSearchParams): SynthesisFormValues {
     },
     subgroup: get('subgroup', ''),
     moderator: get('moderator', ''),
+    smdFamily: get('smdFamily', ''),
   };
 }
 
@@ -189,6 +194,7 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
     },
     subgroup: request.subgroup ?? '',
     moderator: request.moderator ?? '',
+    smdFamily: request.smdFamily ?? '',
   };
 }
 
@@ -230,6 +236,7 @@ function candidateFromRead(v: ReadValues): Record<string, unknown> {
           : { mode: 'aggregate', ...(r === undefined ? {} : { r }), ...(v.dependence.weighted ? { weighted: true } : {}) },
     ...(v.subgroup ? { subgroup: v.subgroup } : {}),
     ...(v.moderator ? { moderator: v.moderator } : {}),
+    ...(v.smdFamily ? { smdFamily: v.smdFamily } : {}),
   };
 }
 
@@ -258,6 +265,7 @@ const formValuesSchema = z.object({
   ]),
   subgroup: z.string(),
   moderator: z.string(),
+  smdFamily: z.string(),
 });
 
 /**

@@ -69,6 +69,6 @@ describe('percentages, intervals and precision by metric', () => {
   it('milliseconds to 1 decimal, standardized metrics to 3', () => {
     expect(digitsFor('raw_mean')).toBe(1);
     expect(digitsFor('mean_diff')).toBe(1);
-    for (const m of ['hedges_g', 'log_ratio', 'fisher_z']) expect(digitsFor(m)).toBe(3);
+    for (const m of ['g_s', 'log_ratio', 'fisher_z']) expect(digitsFor(m)).toBe(3);
   });
 });

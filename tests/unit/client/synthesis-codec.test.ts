@@ -49,7 +49,7 @@ const SHAPES: Array<[string, SynthesisRequest]> = [
   [
     'everything at once',
     request({
-      filters: { manipulation: ['a', 'b'], outcome: 'duration_distortion', metric: 'hedges_g', population: 'children', modality: 'visual', task: 'bisection', design: 'within', yearFrom: 1990, yearTo: 2020 },
+      filters: { manipulation: ['a', 'b'], outcome: 'duration_distortion', metric: 'g_s', population: 'children', modality: 'visual', task: 'bisection', design: 'within', yearFrom: 1990, yearTo: 2020 },
       method: 'PM',
       hksj: true,
       level: 0.9,
@@ -152,8 +152,8 @@ describe('synthesis codec: defaults are left out of the address', () => {
 
   it('builds the synthesis screen address, and an atlas cell address from its filters', () => {
     expect(synthesisHref(request({ filters: { manipulation: ['a', 'b'] } }))).toBe('/synthesis?manipulation=a&manipulation=b');
-    expect(filtersHref({ manipulation: 'numerosity', outcome: 'duration_distortion', metric: 'hedges_g' })).toBe(
-      '/synthesis?manipulation=numerosity&outcome=duration_distortion&metric=hedges_g',
+    expect(filtersHref({ manipulation: 'numerosity', outcome: 'duration_distortion', metric: 'g_s' })).toBe(
+      '/synthesis?manipulation=numerosity&outcome=duration_distortion&metric=g_s',
     );
     expect(filtersHref({})).toBe('/synthesis?all=1');
   });
@@ -199,7 +199,7 @@ describe('synthesis codec: a bad address falls back, never crashes', () => {
   it('survives 500 seeded addresses of garbage, always giving a request the server schema accepts', () => {
     const rand = mulberry32(99);
     const keys = ['manipulation', 'outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo', 'method', 'hksj', 'level', 'dependence', 'r', 'rule', 'robust', 'weighted', 'subgroup', 'moderator'];
-    const junk = ['', ' ', '-1', '0', '1', '0.5', '1e309', 'NaN', 'null', '{}', '[]', 'DL', 'one', 'multilevel', 'REML', 'hedges_g', '2000', '1799', '\u0000', 'é'.repeat(200)];
+    const junk = ['', ' ', '-1', '0', '1', '0.5', '1e309', 'NaN', 'null', '{}', '[]', 'DL', 'one', 'multilevel', 'REML', 'g_s', '2000', '1799', '\u0000', 'é'.repeat(200)];
     for (let i = 0; i < 500; i++) {
       const p = new URLSearchParams();
       for (const k of keys) if (rand() < 0.4) p.append(k, junk[Math.floor(rand() * junk.length)]);

@@ -1,4 +1,4 @@
-import { REPORT_FORM_LABELS, type ComputeAttempt } from '../../../../shared/extraction/compute';
+import { GZ_ADVICE, REPORT_FORM_LABELS, type ComputeAttempt } from '../../../../shared/extraction/compute';
 import type { Warning } from '../../../../shared/extraction/warnings';
 import { METRIC_LABELS } from '../../../../shared/vocabulary/outcomes';
 import type { Metric } from '../../../../shared/stats/metrics';
@@ -27,6 +27,11 @@ export function EffectResult({ attempt, warnings, form }: { attempt: ComputeAtte
               </span>
             )}
           </p>
+          {attempt.result.metric === 'g_z' && (
+            <p className="mt-1 text-xs text-caution-dark" data-testid="gz-advice">
+              ⚠ {GZ_ADVICE}
+            </p>
+          )}
           {attempt.result.formulaInfo && (
             <div className="mt-1 text-xs text-ink-soft" data-testid="formula">
               <p>

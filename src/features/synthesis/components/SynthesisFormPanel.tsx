@@ -89,6 +89,12 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
         <SynthesisField label="Metric" error={err('filters.metric')} hint="Different metrics are never pooled together">
           <FacetSelect control={control} name="filters.metric" kind="metric" facets={f?.metrics ?? []} />
         </SynthesisField>
+        <SynthesisField label="Standardized mean differences" error={err('smdFamily')} hint="g_z is never pooled with the others">
+          <select {...register('smdFamily')} className={inputClass}>
+            <option value="">each standardizer on its own</option>
+            <option value="raw_score">g_s, g_av and g_rm together (raw-score)</option>
+          </select>
+        </SynthesisField>
         <SynthesisField label="Population" error={err('filters.population')}>
           <FacetSelect control={control} name="filters.population" kind="population" facets={f?.populations ?? []} />
         </SynthesisField>

@@ -1,0 +1,91 @@
+import { RAW_SCORE_SMDS, SMD_FAMILY_METRICS, isRawScoreSmd, LEGACY_SMD_KEY, type Metric, type SmdFamily } from '../stats/metrics.js';
+import { METRIC_LABELS, SMD_FAMILY_LABELS } from '../vocabulary/outcomes.js';
+import type { SynthesisRequest } from '../schemas/synthesis.js';
+import type { SettledEffect } from './types.js';
+
+/** The metric key of a synthesis that pools a whole SMD family (it is no effect's own metric). */
+export const FAMILY_METRIC: Record<SmdFamily, string> = { raw_score: 'smd_raw_score' };
+
+/** A metric (or a family's pooled key, or a frozen snapshot's old key) in words. */
+export function metricLabel(m: string): string {
+  const family = (Object.keys(FAMILY_METRIC) as SmdFamily[]).find((f) => FAMILY_METRIC[f] === m);
+  if (family) return SMD_FAMILY_LABELS[family];
+  if (m === LEGACY_SMD_KEY) return "Hedges' g (standardizer not recorded)";
+  return METRIC_LABELS[m as Metric] ?? m;
+}
+
+/** A request whose smdFamily and metric filter contradict each other (answered 400, naming the field). */
+export class SmdFamilyFilterError extends Error {
+  readonly path = 'smdFamily';
+}
+
+/** The metric filter a request means: its own, or every metric of the SMD family it pools. */
+export function metricFilter(request: Pick<SynthesisRequest, 'filters' | 'smdFamily'>): string | string[] | undefined {
+  const family = request.smdFamily;
+  const m = request.filters.metric;
+  if (!family) return m;
+  const members = SMD_FAMILY_METRICS[family];
+  if (m !== undefined && !members.includes(m))
+    throw new SmdFamilyFilterError(`"smdFamily": "${family}" pools ${members.join(', ')}; leave the metric filter out or choose one of them (not ${m})`);
+  return [...members];
+}
+
+/** One way to make a refused request poolable: a label and the whole request to send instead. */
+export interface PoolingChoice {
+  label: string;
+  effects: number;
+  request: SynthesisRequest;
+}
+
+/** Raised when the matching effects are not one quantity: never pooled together; the details offer the choices. */
+export class MixedMetricsError extends Error {
+  constructor(
+    readonly metrics: Array<{ metric: string; count: number }>,
+    readonly choices: PoolingChoice[],
+  ) {
+    const hasGz = metrics.some((m) => m.metric === 'g_z');
+    const hasRaw = metrics.some((m) => isRawScoreSmd(m.metric));
+    super(
+      `These effects use ${metrics.length} metrics (${metrics.map((m) => `${m.metric}: ${m.count}`).join(', ')}); effects of different metrics are never pooled together.` +
+        (hasGz && hasRaw ? ' g_z (standardized by the SD of the differences) is never pooled with g_s, g_av or g_rm.' : '') +
+        (metrics.filter((m) => isRawScoreSmd(m.metric)).length > 1 ? ' g_s, g_av and g_rm pool together only when the request says "smdFamily": "raw_score".' : '') +
+        ` Add a metric filter, e.g. "filters": { "metric": "${metrics[0].metric}" }, or take one of the choices.`,
+    );
+  }
+}
+
+const plural = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
+
+/**
+ * The one metric the effects are pooled in and its label; refuses (MixedMetricsError with one-click choices) when
+ * they are several metrics, unless they are all of the SMD family the request pools.
+ */
+export function pooledMetric(effects: readonly SettledEffect[], request: SynthesisRequest): { metric: string; label: string } {
+  const byMetric = new Map<string, number>();
+  for (const e of effects) byMetric.set(e.metric, (byMetric.get(e.metric) ?? 0) + 1);
+  const family = request.smdFamily;
+  if (family && [...byMetric.keys()].every((m) => SMD_FAMILY_METRICS[family].includes(m as Metric)))
+    return { metric: FAMILY_METRIC[family], label: metricLabel(FAMILY_METRIC[family]) };
+  if (byMetric.size <= 1) {
+    const metric = effects[0].metric;
+    return { metric, label: metricLabel(metric) };
+  }
+  const metrics = [...byMetric].map(([metric, count]) => ({ metric, count })).sort((a, b) => b.count - a.count || (a.metric < b.metric ? -1 : 1));
+  const { smdFamily: _drop, ...rest } = request;
+  const choices: PoolingChoice[] = metrics.map((m) => ({
+    label: `Only ${metricLabel(m.metric)} (${plural(m.count, 'effect')})`,
+    effects: m.count,
+    request: { ...rest, filters: { ...request.filters, metric: m.metric as Metric } },
+  }));
+  const raw = metrics.filter((m) => isRawScoreSmd(m.metric));
+  if (raw.length > 1) {
+    const n = raw.reduce((a, m) => a + m.count, 0);
+    const { metric: _m, ...filters } = request.filters;
+    choices.push({
+      label: `${RAW_SCORE_SMDS.join(', ')} together as one raw-score standardized mean difference (${plural(n, 'effect')})`,
+      effects: n,
+      request: { ...rest, filters, smdFamily: 'raw_score' },
+    });
+  }
+  throw new MixedMetricsError(metrics, choices);
+}
