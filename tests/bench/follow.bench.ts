@@ -15,7 +15,7 @@ async function main() {
   const user = await db('users').where({ login: 'reader' }).first('id');
   for (let i = 0; i < 1000; i++) {
     const manipulation = i % 2 ? 'luminance' : 'pitch';
-    const request = synthesisRequestSchema.parse({ filters: { manipulation, metric: 'hedges_g', yearFrom: 2000 + (i % 5) }, method: i % 3 ? 'DL' : 'REML' });
+    const request = synthesisRequestSchema.parse({ filters: { manipulation, metric: 'g_s', yearFrom: 2000 + (i % 5) }, method: i % 3 ? 'DL' : 'REML' });
     await followSynthesis(db, user.id, { request, seShare: 0.5, weightShare: 0.2 }, origin);
   }
   await settleInventedReference(db, 'luminance', 2024, [{ mean1: 900, mean2: 600, sd: 80, n: 150 }]);
