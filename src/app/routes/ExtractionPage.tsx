@@ -7,6 +7,11 @@ import { SheetForm } from '../../features/extraction/components/SheetForm';
 import { SheetView } from '../../features/extraction/components/SheetView';
 import { StateBadge } from '../../components/ui/StateBadge';
 import { RequireRole } from './RequireRole';
+import { PlotFigure } from '../../features/plots/components/PlotFigure';
+import { TrialData } from '../../features/trials/components/TrialData';
+import type { RenderPlot } from '../../features/trials/components/TrialSetPanel';
+
+const renderPlot: RenderPlot = (figure, name, label) => <PlotFigure figure={figure} name={name} label={label} />;
 
 export function ExtractionPage() {
   const id = Number(useParams().id);
@@ -40,10 +45,20 @@ export function ExtractionPage() {
           <ErrorNote error={vocabulary.error} />
           {data.extraction.editable && !done ? (
             vocabulary.data && (
-              <SheetForm key={data.extraction.version} detail={data} terms={vocabulary.data.items} onSubmitted={(r) => (setDone(r), void refetch())} onReload={() => void refetch()} />
+              <SheetForm
+                key={data.extraction.version}
+                detail={data}
+                terms={vocabulary.data.items}
+                onSubmitted={(r) => (setDone(r), void refetch())}
+                onReload={() => void refetch()}
+                extras={(target) => <TrialData extractionId={id} editable target={target} renderPlot={renderPlot} />}
+              />
             )
           ) : (
-            <SheetView studies={data.studies} />
+            <>
+              <SheetView studies={data.studies} />
+              {data.extraction.kind === 'coding' && <TrialData extractionId={id} editable={false} renderPlot={renderPlot} />}
+            </>
           )}
         </>
       )}

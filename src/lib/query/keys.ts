@@ -35,6 +35,7 @@ const atlas = domain('atlas');
 const synthesis = domain('syntheses');
 const snapshots = domain('snapshots');
 const mail = domain('mail');
+const trials = domain('trials');
 
 export const queryKeys = {
   auth: { ...auth, me: () => [...auth.all, 'me'] as const },
@@ -83,6 +84,12 @@ export const queryKeys = {
     facets: () => [...synthesis.all, 'facets'] as const,
     runs: () => [...synthesis.all, 'run'] as const,
     run: (request: object) => [...synthesis.all, 'run', request] as const,
+  },
+  /** Trial data sets: a sheet's list, one set with its fits, and the effect two of its conditions give. */
+  trials: {
+    ...trials,
+    ofSheet: (extractionId: number) => [...trials.lists(), { extractionId }] as const,
+    contrast: (setId: number, request: object) => [...trials.detail(setId), 'contrast', request] as const,
   },
   snapshots: {
     ...snapshots,

@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useRef, useState, type ReactNode } from 'react';
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
 import { DEFAULT_ASSUMED_R, REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type Reported } from '../../../../shared/extraction/compute';
 import { effectWarnings, studyWarnings } from '../../../../shared/extraction/warnings';
@@ -226,6 +226,14 @@ function StudyFields({ ctx, i, onRemove, terms }: { ctx: Ctx; i: number; onRemov
   );
 }
 
+type SheetEffect = Sheet['studies'][number]['effects'][number];
+
+/** What a panel beside the sheet (trial data) may do: read the studies' labels and add an effect. */
+export interface SheetExtrasTarget {
+  studies: string[];
+  addEffect: (studyIndex: number | null, effect: SheetEffect, newStudy: { label: string; n1: number; modality: NonNullable<Sheet['studies'][number]['modality']> }) => void;
+}
+
 type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved'; at: string } | { kind: 'invalid' } | { kind: 'conflict'; message: string } | { kind: 'error'; message: string };
 
 /** The extraction sheet: studies, effects, live effect sizes, autosave every couple of seconds, submit. */
@@ -234,12 +242,15 @@ export function SheetForm({
   terms,
   onSubmitted,
   onReload,
+  extras,
 }: {
   detail: ExtractionDetail;
   /** The manipulation vocabulary, retired terms included. */
   terms: VocabularyTerm[];
   onSubmitted: (r: { state: string; discrepancies: number }) => void;
   onReload: () => void;
+  /** panels drawn below the sheet that add effects to it */
+  extras?: (target: SheetExtrasTarget) => ReactNode;
 }) {
   const x = detail.extraction;
   const form = useForm<Sheet>({
@@ -312,68 +323,82 @@ export function SheetForm({
     }
   }
 
+  const addEffect = useCallback<SheetExtrasTarget['addEffect']>(
+    (at, effect, newStudy) => {
+      const next = structuredClone(getValues());
+      if (at !== null && next.studies[at]) next.studies[at].effects.push(effect);
+      else next.studies.push({ label: newStudy.label, design: 'within', n1: newStudy.n1, modality: newStudy.modality, effects: [effect] });
+      reset(next, { keepDefaultValues: true });
+    },
+    [getValues, reset],
+  );
+
   const ctx: Ctx = { control, register, errors: formState.errors };
+  const studyLabels = (values.studies ?? []).map((s) => s?.label ?? '');
   return (
-    <form
-      onSubmit={(e) => {
-        e.preventDefault();
-        void submit();
-      }}
-      noValidate
-      aria-label="Extraction sheet"
-    >
-      <div className="sticky top-0 z-10 -mx-1 mb-2 flex flex-wrap items-center gap-3 border-b border-paper-edge bg-paper px-1 py-2 text-sm">
-        <span role="status" data-testid="save-state">
-          {save.kind === 'idle' && 'Draft — changes save by themselves.'}
-          {save.kind === 'saving' && '… Saving'}
-          {save.kind === 'saved' && `✓ Saved at ${save.at}`}
-          {save.kind === 'invalid' && <span className="text-refusal">✕ Not saved: fix the marked fields.</span>}
-        </span>
-        <Button onClick={() => void flush()}>Save now</Button>
-        {x.kind === 'coding' && (
-          <Button variant="primary" type="submit" disabled={submitter.isPending}>
-            {submitter.isPending ? 'Submitting…' : 'Submit for comparison'}
-          </Button>
-        )}
-      </div>
-      {save.kind === 'conflict' && (
-        <div role="alert" className="my-2 rounded border-l-4 border-refusal bg-refusal-light px-3 py-2 text-sm text-refusal">
-          <strong>✕ Not saved:</strong> {save.message}{' '}
-          <Button
-            onClick={() => {
-              reset();
-              onReload();
-            }}
-          >
-            Reload the sheet
-          </Button>
-        </div>
-      )}
-      {save.kind === 'error' && <ErrorNote error={save.message} />}
-      {messageAt(formState.errors, 'studies') && <p className="text-sm text-refusal">✕ {messageAt(formState.errors, 'studies')}</p>}
-      {studies.fields.length === 0 && <p className="my-3 text-ink-soft">No studies yet. Add the first experiment of the paper, or paste rows from a spreadsheet below.</p>}
-      {studies.fields.map((f, i) => (
-        <StudyFields key={f.id} ctx={ctx} i={i} onRemove={() => studies.remove(i)} terms={terms} />
-      ))}
-      <div className="mt-3 flex gap-2">
-        <Button onClick={() => studies.append(emptyStudy(studies.fields.length + 1))}>+ Add a study</Button>
-      </div>
-      <label className="mt-4 block text-sm">
-        <span className="block text-xs font-semibold text-ink-soft">Notes for the curator</span>
-        <textarea className={inputCls} rows={2} {...register('notes')} />
-      </label>
-      <CsvImport
-        onRows={(rows) => {
-          const current = getValues();
-          const next = structuredClone(current);
-          for (const r of rows) {
-            const at = next.studies.findIndex((s) => s.label === r.study.label);
-            if (at >= 0) next.studies[at].effects.push(r.effect);
-            else next.studies.push({ ...r.study, effects: [r.effect] });
-          }
-          reset(next, { keepDefaultValues: true });
+    <>
+      <form
+        onSubmit={(e) => {
+          e.preventDefault();
+          void submit();
         }}
-      />
-    </form>
+        noValidate
+        aria-label="Extraction sheet"
+      >
+        <div className="sticky top-0 z-10 -mx-1 mb-2 flex flex-wrap items-center gap-3 border-b border-paper-edge bg-paper px-1 py-2 text-sm">
+          <span role="status" data-testid="save-state">
+            {save.kind === 'idle' && 'Draft — changes save by themselves.'}
+            {save.kind === 'saving' && '… Saving'}
+            {save.kind === 'saved' && `✓ Saved at ${save.at}`}
+            {save.kind === 'invalid' && <span className="text-refusal">✕ Not saved: fix the marked fields.</span>}
+          </span>
+          <Button onClick={() => void flush()}>Save now</Button>
+          {x.kind === 'coding' && (
+            <Button variant="primary" type="submit" disabled={submitter.isPending}>
+              {submitter.isPending ? 'Submitting…' : 'Submit for comparison'}
+            </Button>
+          )}
+        </div>
+        {save.kind === 'conflict' && (
+          <div role="alert" className="my-2 rounded border-l-4 border-refusal bg-refusal-light px-3 py-2 text-sm text-refusal">
+            <strong>✕ Not saved:</strong> {save.message}{' '}
+            <Button
+              onClick={() => {
+                reset();
+                onReload();
+              }}
+            >
+              Reload the sheet
+            </Button>
+          </div>
+        )}
+        {save.kind === 'error' && <ErrorNote error={save.message} />}
+        {messageAt(formState.errors, 'studies') && <p className="text-sm text-refusal">✕ {messageAt(formState.errors, 'studies')}</p>}
+        {studies.fields.length === 0 && <p className="my-3 text-ink-soft">No studies yet. Add the first experiment of the paper, or paste rows from a spreadsheet below.</p>}
+        {studies.fields.map((f, i) => (
+          <StudyFields key={f.id} ctx={ctx} i={i} onRemove={() => studies.remove(i)} terms={terms} />
+        ))}
+        <div className="mt-3 flex gap-2">
+          <Button onClick={() => studies.append(emptyStudy(studies.fields.length + 1))}>+ Add a study</Button>
+        </div>
+        <label className="mt-4 block text-sm">
+          <span className="block text-xs font-semibold text-ink-soft">Notes for the curator</span>
+          <textarea className={inputCls} rows={2} {...register('notes')} />
+        </label>
+        <CsvImport
+          onRows={(rows) => {
+            const current = getValues();
+            const next = structuredClone(current);
+            for (const r of rows) {
+              const at = next.studies.findIndex((s) => s.label === r.study.label);
+              if (at >= 0) next.studies[at].effects.push(r.effect);
+              else next.studies.push({ ...r.study, effects: [r.effect] });
+            }
+            reset(next, { keepDefaultValues: true });
+          }}
+        />
+      </form>
+      {extras?.({ studies: studyLabels, addEffect })}
+    </>
   );
 }
