@@ -231,7 +231,7 @@ type SheetEffect = Sheet['studies'][number]['effects'][number];
 /** What a panel beside the sheet (trial data) may do: read the studies' labels and add an effect. */
 export interface SheetExtrasTarget {
   studies: string[];
-  addEffect: (studyIndex: number | null, effect: SheetEffect, newStudy: { label: string; n1: number; modality: NonNullable<Sheet['studies'][number]['modality']> }) => void;
+  addEffect: (studyIndex: number | null, effect: SheetEffect, newStudy: { label: string; n1: number; modality: NonNullable<Sheet['studies'][number]['modality']>; task: NonNullable<Sheet['studies'][number]['task']> }) => void;
 }
 
 type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved'; at: string } | { kind: 'invalid' } | { kind: 'conflict'; message: string } | { kind: 'error'; message: string };
@@ -327,7 +327,7 @@ export function SheetForm({
     (at, effect, newStudy) => {
       const next = structuredClone(getValues());
       if (at !== null && next.studies[at]) next.studies[at].effects.push(effect);
-      else next.studies.push({ label: newStudy.label, design: 'within', n1: newStudy.n1, modality: newStudy.modality, effects: [effect] });
+      else next.studies.push({ label: newStudy.label, design: 'within', n1: newStudy.n1, modality: newStudy.modality, task: newStudy.task, effects: [effect] });
       reset(next, { keepDefaultValues: true });
     },
     [getValues, reset],

@@ -13,13 +13,19 @@ export type SheetEffect = Sheet['studies'][number]['effects'][number];
 /** Where a derived effect goes on the sheet: the caller adds it to a study (or a new one) and saves. */
 export interface SheetTarget {
   studies: string[];
-  addEffect: (studyIndex: number | null, effect: SheetEffect, newStudy: { label: string; n1: number; modality: TrialSet['modality'] }) => void;
+  addEffect: (studyIndex: number | null, effect: SheetEffect, newStudy: { label: string; n1: number; modality: TrialSet['modality']; task: NonNullable<Sheet['studies'][number]['task']> }) => void;
 }
 
 const OUTCOME_OF_TASK: Record<TrialTask, NonNullable<SheetEffect['outcome']>> = {
   order: 'temporal_order',
   simultaneity: 'simultaneity_window',
   duration: 'duration_distortion',
+};
+
+const STUDY_TASK_OF: Record<TrialTask, NonNullable<Sheet['studies'][number]['task']>> = {
+  order: 'temporal_order_judgement',
+  simultaneity: 'simultaneity_judgement',
+  duration: 'two_interval_comparison',
 };
 
 const MEASURE_LABELS: Record<ContrastMeasure, string> = {
@@ -60,7 +66,7 @@ export function ContrastChooser({ set, target }: { set: TrialSet; target?: Sheet
       derivation: { source: 'trial_data', trialSetId: set.id, parameter: c.parameter, conditionA: c.conditionA, conditionB: c.conditionB, measure: c.measure },
     };
     const at = study === 'new' ? null : Number(study);
-    target.addEffect(at, effect, { label: set.label.slice(0, 120), n1: c.summary.n, modality: set.modality });
+    target.addEffect(at, effect, { label: set.label.slice(0, 120), n1: c.summary.n, modality: set.modality, task: STUDY_TASK_OF[set.task] });
     setCoded(`✓ Coded "${label}" on ${at === null ? 'a new study' : `study ${at + 1}`}; choose its manipulation there. The sheet saves by itself.`);
   };
 
