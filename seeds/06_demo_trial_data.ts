@@ -26,7 +26,7 @@ export async function seed(knex: Knex): Promise<void> {
     { source: 'seed', createdBy: curator },
   );
   if (!ref.created) return;
-  await decide(knex, ref.id, { decision: 'included' }, curator);
+  await decide(knex, ref.id, { decision: 'included', version: 1 }, { id: curator, roles: ['curator'] });
   const actor = { id: coder, roles: ['contributor' as const] };
   const sheet = await claimReference(knex, coder, ref.id);
   const order = inventTrials({ task: 'order', participants: 12, conditions: { baseline: 0, after_lag: 35 }, levels: ORDER_SOAS, trialsPerLevel: 20, seed: 61001 });
