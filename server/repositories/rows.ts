@@ -104,6 +104,8 @@ export interface ScreeningDecisionRow {
   note: string | null;
   decided_by: number | null;
   decided_at: Timestamp;
+  undone_at: Timestamp | null;
+  undone_by: number | null;
 }
 
 export interface AttachmentRow {

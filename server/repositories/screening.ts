@@ -6,11 +6,12 @@ export async function insertDecision(db: Db, d: Pick<ScreeningDecisionRow, 'ref_
   return row;
 }
 
-/** Every decision on a reference, newest first, with who made it. */
+/** Every decision on a reference that still counts (not undone), newest first, with who made it. */
 export async function decisionsOf(db: Db, refId: number): Promise<(ScreeningDecisionRow & { login: string | null })[]> {
   return db('screening_decisions')
     .leftJoin('users', 'users.id', 'screening_decisions.decided_by')
     .where('ref_id', refId)
+    .whereNull('screening_decisions.undone_at')
     .orderBy([{ column: 'decided_at', order: 'desc' }, { column: 'screening_decisions.id', order: 'desc' }])
     .select('screening_decisions.*', 'users.login');
 }
@@ -18,6 +19,7 @@ export async function decisionsOf(db: Db, refId: number): Promise<(ScreeningDeci
 export async function latestDecision(db: Db, refId: number): Promise<Pick<ScreeningDecisionRow, 'decision'> | undefined> {
   return db<ScreeningDecisionRow>('screening_decisions')
     .where({ ref_id: refId })
+    .whereNull('undone_at')
     .orderBy([{ column: 'decided_at', order: 'desc' }, { column: 'id', order: 'desc' }])
     .first('decision');
 }
@@ -29,6 +31,7 @@ export async function exclusionReasonCounts(db: Db): Promise<{ reason: string; n
       db('screening_decisions as d')
         .join('refs as r', 'r.id', 'd.ref_id')
         .whereNull('r.merged_into')
+        .whereNull('d.undone_at')
         .where('r.screening_status', 'excluded')
         .distinctOn('d.ref_id')
         .orderBy([{ column: 'd.ref_id' }, { column: 'd.decided_at', order: 'desc' }, { column: 'd.id', order: 'desc' }])
@@ -39,4 +42,9 @@ export async function exclusionReasonCounts(db: Db): Promise<{ reason: string; n
     .select('reason')
     .count({ n: '*' });
   return rows.map((r) => ({ reason: r.reason, n: Number(r.n) }));
+}
+
+/** Marks a decision undone (it stays in the table; audit_log says who undid it and when). */
+export async function markUndone(db: Db, id: number, by: number): Promise<void> {
+  await db<ScreeningDecisionRow>('screening_decisions').where({ id }).update({ undone_at: new Date(), undone_by: by });
 }

@@ -4,14 +4,14 @@ import multer from 'multer';
 import { open } from 'node:fs/promises';
 import path from 'node:path';
 import { z } from 'zod';
-import { exportQuerySchema, referenceEditSchema, referenceListQuerySchema, screeningDecisionSchema } from '../../shared/schemas/references.js';
+import { exportQuerySchema, referenceEditSchema, referenceListQuerySchema, screeningDecisionSchema, screeningUndoSchema } from '../../shared/schemas/references.js';
 import { requireRole, requireSignIn } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { ValidationError } from '../lib/errors.js';
 import { parseInput } from '../lib/validate.js';
 import { addAttachment, ATTACHMENT_MAX_BYTES, attachmentFile } from '../services/attachments.js';
 import { editReference, exportReferences, getReference, listReferences, mergeReferences } from '../services/references.js';
-import { decide } from '../services/screening.js';
+import { decide, undoLast } from '../services/screening.js';
 import { syncReferences } from '../services/search.js';
 
 
@@ -65,6 +65,14 @@ export function referencesRouter(ctx: AppContext) {
     const result = await decide(ctx.db, id, input, req.user!);
     await syncReferences(ctx, [id]);
     res.status(201).json(result);
+  });
+
+  router.post('/references/:id/screening/undo', requireRole('contributor'), async (req, res) => {
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
+    const input = parseInput(screeningUndoSchema, req.body);
+    const result = await undoLast(ctx.db, id, input, { id: req.user!.id, roles: req.user!.roles });
+    await syncReferences(ctx, [id]);
+    res.json(result);
   });
 
   router.post('/references/:id/attachments', requireRole('contributor'), async (req, res) => {

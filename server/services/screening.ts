@@ -1,13 +1,13 @@
 import type { Knex } from 'knex';
-import type { PrismaFlow, ScreeningDecisionInput, ScreeningQueue, ScreeningResult } from '../../shared/schemas/references.js';
-import { hasRole } from '../../shared/roles.js';
+import type { PrismaFlow, ScreeningDecisionInput, ScreeningQueue, ScreeningResult, ScreeningUndoInput, ScreeningUndoResult } from '../../shared/schemas/references.js';
+import { hasRole, type Role } from '../../shared/roles.js';
 import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../shared/vocabulary/screening.js';
 import { ConflictError, ForbiddenError, NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
 import { duplicateEntriesByFormat } from '../repositories/imports.js';
 import { lockRef, refCounts, unscreenedRefs, updateRef } from '../repositories/refs.js';
-import { decisionsOf, exclusionReasonCounts, insertDecision } from '../repositories/screening.js';
+import { decisionsOf, exclusionReasonCounts, insertDecision, markUndone } from '../repositories/screening.js';
 import { lockSettledRecordsOf } from '../repositories/settled-effects.js';
 import type { Actor } from './coding.js';
 import { withdrawRecordIn } from './records.js';
@@ -50,6 +50,36 @@ export async function decide(db: Knex, refId: number, input: ScreeningDecisionIn
       id: row.id, refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
       screeningStatus: input.decision, version: r.version + 1, withdrawnRecords, registryVersion,
     };
+  });
+}
+
+/**
+ * Takes back the reference's latest decision: it stops counting (kept in the table, marked undone, audited) and the
+ * reference returns to the decision before it, or to unscreened. Only its screener or a curator may, against the
+ * version they saw.
+ */
+export async function undoLast(db: Knex, refId: number, input: ScreeningUndoInput, actor: { id: number; roles: Role[] }): Promise<ScreeningUndoResult> {
+  return db.transaction(async (trx) => {
+    const r = await lockRef(trx, refId);
+    if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
+    if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; it has no decision to undo.`, { mergedInto: r.merged_into });
+    if (r.version !== input.version)
+      throw new ConflictError(`Reference ${refId} changed since you opened it (now version ${r.version}); reload it before undoing.`, { currentVersion: r.version, screeningStatus: r.screening_status });
+    const [last, before] = await decisionsOf(trx, refId);
+    if (!last) throw new ConflictError(`Reference ${refId} has no decision to undo.`);
+    if (last.decided_by !== actor.id && !hasRole(actor.roles, 'curator'))
+      throw new ForbiddenError(`The last decision on reference ${refId} is ${last.login ?? 'someone else'}'s; only they or a curator may undo it.`);
+    await markUndone(trx, last.id, actor.id);
+    const screeningStatus = before?.decision ?? 'unscreened';
+    await updateRef(trx, refId, { screening_status: screeningStatus, version: r.version + 1 });
+    await recordAudit(trx, {
+      actorId: actor.id,
+      action: 'screening.undo',
+      entityType: 'reference',
+      entityId: refId,
+      details: { undoneDecision: last.id, decision: last.decision, reason: last.reason, now: screeningStatus },
+    });
+    return { refId, undone: { id: Number(last.id), decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1 };
   });
 }
 

@@ -236,6 +236,21 @@ export const screeningResultSchema = screeningEntrySchema.omit({ decidedBy: true
 });
 export type ScreeningResult = z.infer<typeof screeningResultSchema>;
 
+/** POST /api/references/:id/screening/undo: the reference version the screener saw. */
+export const screeningUndoSchema = z.object({
+  version: z.number({ message: 'send the reference version you saw' }).int().positive(),
+});
+export type ScreeningUndoInput = z.infer<typeof screeningUndoSchema>;
+export const screeningUndoResultSchema = z.object({
+  refId: z.number().int(),
+  /** The decision taken back. */
+  undone: z.object({ id: z.number().int(), decision: z.enum(SCREENING_DECISIONS), reason: z.string().nullable() }),
+  /** What the reference is now: the decision before it, or unscreened. */
+  screeningStatus: z.enum(SCREENING_STATUSES),
+  version: z.number().int(),
+});
+export type ScreeningUndoResult = z.infer<typeof screeningUndoResultSchema>;
+
 /** GET /api/screening/queue */
 export const screeningQueueSchema = z.object({
   items: z.array(referenceSummarySchema.extend({ abstract: z.string().nullable(), version: z.number().int() })),

@@ -82,6 +82,13 @@ export const specs: Spec[] = [
       await page.keyboard.press('3');
       await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
       await page.getByText('0 references waiting from batch').waitFor();
+      // Taking the exclusion back returns the reference to the queue; deciding again empties it.
+      await page.getByRole('button', { name: '↶ Take back' }).click();
+      await page.getByText(/↶ Taken back: excluded on #\d+, now unscreened/).waitFor();
+      await page.getByText('1 reference waiting from batch').waitFor();
+      await page.keyboard.press('3');
+      await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
+      await page.getByText('0 references waiting from batch').waitFor();
       await page.getByText('Nothing is waiting.').waitFor();
 
       // Search: by a title word, and by author with a status filter.

@@ -5,6 +5,7 @@ import { Button } from '../../../components/ui/Button';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { useDecide } from '../api/decide';
 import { useQueue } from '../api/get-queue';
+import { useUndoDecision } from '../api/undo';
 
 /**
  * One reference at a time, decided from the keyboard: I includes, 1–6 exclude with that reason (6 asks for
@@ -16,7 +17,9 @@ export function ScreeningQueue({ batch }: { batch?: number }) {
   const decide = useDecide();
   const [note, setNote] = useState('');
   const [needNote, setNeedNote] = useState(false);
-  const [last, setLast] = useState<string | null>(null);
+  const [last, setLast] = useState<{ text: string; refId: number; version: number } | null>(null);
+  const undo = useUndoDecision();
+  const [undone, setUndone] = useState<string | null>(null);
   const noteRef = useRef<HTMLInputElement>(null);
   const current = data?.items.find((i) => !skipped.includes(i.id));
 
@@ -27,12 +30,13 @@ export function ScreeningQueue({ batch }: { batch?: number }) {
       noteRef.current?.focus();
       return;
     }
-    const title = current.title;
+    const { title, id: refId, version } = current;
     decide.mutate(
       { refId: current.id, input: { decision, version: current.version, ...(reason ? { reason } : {}), ...(note.trim() ? { note: note.trim() } : {}) } },
       {
         onSuccess: () => {
-          setLast(`${decision === 'included' ? '✓ Included' : `✕ Excluded (${EXCLUSION_REASON_LABELS[reason!]})`}: ${title}`);
+          // A decision moves the reference one version on.
+          setLast({ text: `${decision === 'included' ? '✓ Included' : `✕ Excluded (${EXCLUSION_REASON_LABELS[reason!]})`}: ${title}`, refId, version: version + 1 });
           setNote('');
           setNeedNote(false);
         },
@@ -73,7 +77,24 @@ export function ScreeningQueue({ batch }: { batch?: number }) {
         {left} {left === 1 ? 'reference' : 'references'} waiting{batch ? ` from batch ${batch}` : ''}
         {skipped.length ? ` · ${skipped.length} skipped for now` : ''}.
       </p>
-      {last && <p className="mb-2 text-sm text-ink-soft">Last: {last}</p>}
+      {last && (
+        <p className="mb-2 text-sm text-ink-soft">
+          Last: {last.text}{' '}
+          <Button
+            onClick={() => undo.mutate({ refId: last.refId, input: { version: last.version } }, {
+                  onSuccess: (r) => {
+                    setLast(null);
+                    setUndone(`↶ Taken back: ${r.undone.decision} on #${r.refId}, now ${r.screeningStatus}`);
+                  },
+                })}
+            disabled={undo.isPending}
+          >
+            ↶ Take back
+          </Button>
+        </p>
+      )}
+      {undone && !last && <p className="mb-2 text-sm text-ink-soft" role="status">{undone}</p>}
+      <ErrorNote error={undo.error} />
       {!current ? (
         <EmptyState>
           {left === 0 ? (
