@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
-import { z } from 'zod';
 import { PSYCHOMETRIC_MODELS } from '../../../../shared/psychophysics/psychometric';
+import { startFitsSchema, trialUploadSchema } from '../../../../shared/schemas/trials';
 import { TRIAL_TASKS, TRIAL_TASK_LABELS } from '../../../../shared/trials/fits';
 import { COUNT_COLUMNS, TRIAL_COLUMNS, TRIAL_UPLOAD_MAX_BYTES } from '../../../../shared/trials/csv';
 import { MODALITIES, MODALITY_LABELS } from '../../../../shared/vocabulary/modalities';
@@ -15,13 +15,8 @@ import { useUploadTrialSet } from '../api/upload-trial-set';
 const MODEL_LABELS: Record<(typeof PSYCHOMETRIC_MODELS)[number], string> = { cumulative_gaussian: 'Cumulative Gaussian (probit)', logistic: 'Logistic' };
 const MB = TRIAL_UPLOAD_MAX_BYTES / 1024 / 1024;
 
-const uploadFormSchema = z.object({
-  label: z.string().trim().min(1, 'name the data set (e.g. Experiment 1, order task)').max(120, 'at most 120 characters'),
-  task: z.enum(TRIAL_TASKS, 'choose the task the trials come from'),
-  modality: z.enum(MODALITIES, 'choose a modality'),
-  model: z.enum(PSYCHOMETRIC_MODELS),
-  resamples: z.coerce.number('give the number of resamples').int('a whole number').min(100, 'at least 100 resamples').max(2000, 'at most 2,000 resamples'),
-});
+// The upload's own fields and the fits' resamples, as the two routes check them.
+const uploadFormSchema = trialUploadSchema.extend({ resamples: startFitsSchema.shape.resamples });
 
 const inputCls = 'w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm aria-[invalid=true]:border-refusal';
 
