@@ -10,7 +10,7 @@ import { contactsOf } from '../repositories/users.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { deleteFollowByToken, findFollow, followsBehind, insertFollow, insertFollowEvent, listFollowEvents, markFollowChecked, type FollowRow } from '../repositories/follows.js';
 import { atomFeed, compareFollowed, describeEvent, type FollowedResult } from '../../shared/following/compare.js';
-import type { Follow, FollowCreate } from '../../shared/schemas/following.js';
+import type { Follow, FollowCreate, UnsubscribeAnswer } from '../../shared/schemas/following.js';
 import type { SynthesisRequest } from '../../shared/schemas/synthesis.js';
 
 type Stored = FollowedResult & { fingerprint: string };
@@ -51,7 +51,7 @@ export async function followSynthesis(db: Knex, userId: number, input: FollowCre
 }
 
 /** Signed out, from the mail's link: the token alone says which follow. */
-export async function unsubscribe(db: Knex, token: string): Promise<{ unsubscribed: boolean }> {
+export async function unsubscribe(db: Knex, token: string): Promise<UnsubscribeAnswer> {
   return { unsubscribed: (await deleteFollowByToken(db, token)) > 0 };
 }
 

@@ -25,3 +25,7 @@ export const followSchema = z.object({
   feedUrl: z.string(),
 });
 export type Follow = z.infer<typeof followSchema>;
+
+/** The signed-out unsubscribe link's answer: false when the token no longer names a follow. */
+export const unsubscribeAnswerSchema = z.object({ unsubscribed: z.boolean() });
+export type UnsubscribeAnswer = z.infer<typeof unsubscribeAnswerSchema>;

@@ -13,6 +13,7 @@ import {
   duplicatePageSchema, importPageSchema, importResultSchema, prismaCountsSchema, referenceDetailSchema, referencePageSchema, screeningQueueSchema,
   searchResultSchema,
 } from '../../shared/schemas/references.js';
+import { followSchema, unsubscribeAnswerSchema } from '../../shared/schemas/following.js';
 import { manipulationPageSchema, settledEffectDetailSchema, settledEffectPageSchema } from '../../shared/schemas/registry.js';
 import {
   atlasLandingSchema, atlasManipulationSchema, atlasOutcomeSchema, atlasPooledSchema, atlasReferencePageSchema, createdSnapshotSchema, snapshotPageSchema,
@@ -105,6 +106,11 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     expectShape(createdSnapshotSchema, created, 201);
     expectShape(snapshotPageSchema, await anonymous(t.app).get('/api/snapshots'));
     expectShape(snapshotViewSchema, await anonymous(t.app).get(`/api/snapshots/${created.body.id}`));
+    const follow = await as.reviewer.post('/api/follows').send({ request });
+    expectShape(followSchema, follow, 201);
+    const { unsubscribe_token: token } = await t.ctx.db('follows').where({ id: follow.body.id }).first('unsubscribe_token');
+    expectShape(unsubscribeAnswerSchema, await anonymous(t.app).get(`/api/follows/unsubscribe?token=${token}`));
+    expectShape(apiErrorSchema, await anonymous(t.app).get('/api/follows/abc/feed.atom'), 400);
     expectShape(apiErrorSchema, await anonymous(t.app).get('/api/no-such-route'), 404);
     expectShape(apiErrorSchema, await anonymous(t.app).get('/api/effects?pageSize=0'), 400);
   });
