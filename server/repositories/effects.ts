@@ -220,3 +220,9 @@ export async function updateEffect(trx: Knex.Transaction, f: Pick<EffectRow, 'id
 export async function markEffectWithdrawn(trx: Knex.Transaction, f: Pick<EffectRow, 'id' | 'version'>, reason: string, actorId: number): Promise<void> {
   await trx('effects').where({ id: f.id }).update({ withdrawn_at: trx.fn.now(), withdrawn_reason: reason, version: f.version + 1, updated_by: actorId, updated_at: trx.fn.now() });
 }
+
+/** References with at least one settled effect (any metric or manipulation): settled, for the flow counts. */
+export async function settledReferenceCount(db: Db): Promise<number> {
+  const [row] = await settledEffectsFrom(db).countDistinct<{ n: string }[]>({ n: 'r.id' });
+  return Number(row.n);
+}

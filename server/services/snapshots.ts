@@ -5,7 +5,8 @@ import { NotFoundError } from '../lib/errors.js';
 import { toBibtex } from '../adapters/citations.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
-import { querySettledEffects, type SettledEffectRow } from '../repositories/effects.js';
+import { querySettledEffects, settledReferenceCount, type SettledEffectRow } from '../repositories/effects.js';
+import { codedReferenceCount } from '../repositories/extractions.js';
 import { refsForCitation } from '../repositories/refs.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows } from '../repositories/snapshots.js';
@@ -25,12 +26,15 @@ export const SOFTWARE = { name: 'Chronometa', version: pkg.version };
 /** PRISMA 2020 counts for the methods paragraph, from the screening records; null when they cannot be read. */
 export async function prismaForMethods(db: Db): Promise<PrismaCounts | null> {
   try {
+    // In turn: db may be the snapshot's transaction (one connection).
     const c = await prismaCounts(db);
+    const coded = await codedReferenceCount(db);
+    const settled = await settledReferenceCount(db);
     const reasons = Object.entries(c.excluded.byReason)
       .filter(([, n]) => n > 0)
       .sort((a, b) => b[1] - a[1])
       .map(([reason, count]) => ({ reason: EXCLUSION_REASON_LABELS[reason as ExclusionReason] ?? reason, count }));
-    return { identified: c.identified.total, duplicatesRemoved: c.duplicatesRemoved.total, screened: c.screened, excluded: c.excluded.total, excludedReasons: reasons, included: c.included };
+    return { identified: c.identified.total, duplicatesRemoved: c.duplicatesRemoved.total, screened: c.screened, excluded: c.excluded.total, excludedReasons: reasons, included: c.included, notYetScreened: c.awaitingScreening, coded, settled };
   } catch {
     return null;
   }

@@ -9,6 +9,10 @@ export interface PrismaCounts {
   /** exclusion reasons with counts, where the screening records give them */
   excludedReasons?: Array<{ reason: string; count: number }>;
   included: number;
+  /** per-synthesis flow (snapshots saved since): records not yet screened, references coded and settled */
+  notYetScreened?: number;
+  coded?: number;
+  settled?: number;
 }
 
 export interface MethodsInput {
@@ -99,7 +103,9 @@ export function methodsParagraph(m: MethodsInput): string {
   const prisma = p
     ? ` Study flow (PRISMA 2020): ${p.identified} records identified in the registry, ${p.duplicatesRemoved} duplicates removed, ${p.screened} records screened, ${p.excluded} excluded${
         p.excludedReasons && p.excludedReasons.length ? ` (${p.excludedReasons.map((r) => `${r.reason}: ${r.count}`).join('; ')})` : ''
-      }, ${p.included} included in the registry; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
+      }${p.notYetScreened != null ? `, ${p.notYetScreened} not yet screened` : ''}, ${p.included} included in the registry${
+        p.coded != null && p.settled != null ? `, ${p.coded} coded and ${p.settled} with settled effects` : ''
+      }; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
     : ` ${counts.references} references (${counts.studies} studies, ${counts.effects} effects) met this synthesis's filters; screening counts were not available.`;
   const software = ` Computed with ${m.software.name} ${m.software.version}${m.registryVersion != null ? ` on registry version ${m.registryVersion}` : ''}.`;
   const head = (multilevel ? multilevelModel(m, level) : model + hksj + hetero) + smdFamilySentence(q);

@@ -87,7 +87,15 @@ describe('snapshots', () => {
     const methods = await request(t.app).get(`/api/snapshots/${id}/methods.txt`);
     expect(methods.text).toMatch(/DerSimonian–Laird/);
     expect(methods.text).toMatch(/r = 0\.50/);
-    expect(methods.text).toMatch(/12 records identified in the registry, 0 duplicates removed, 12 records screened, 0 excluded, 12 included/);
+    // Counted straight from the tables: not yet screened, coded (a sheet past draft), with settled effects.
+    const db = t.ctx.db;
+    const unscreened = Number((await db('refs').whereNull('merged_into').where({ screening_status: 'unscreened' }).count<{ n: string }[]>({ n: '*' }))[0].n);
+    const coded = Number((await db('extractions').whereNot({ state: 'draft' }).countDistinct<{ n: string }[]>({ n: 'reference_id' }))[0].n);
+    expect(coded).toBe(12);
+    expect(methods.text).toMatch(
+      new RegExp(`12 records identified in the registry, 0 duplicates removed, 12 records screened, 0 excluded, ${unscreened} not yet screened, 12 included in the registry, ${coded} coded and 12 with settled effects; of these, 12 references`),
+    );
+    expect(frozen.prisma).toMatchObject({ notYetScreened: unscreened, coded, settled: 12 });
     expect(methods.text).toMatch(/Chronometa \d+\.\d+\.\d+ on registry version \d+/);
   });
 

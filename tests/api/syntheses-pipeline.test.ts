@@ -90,12 +90,13 @@ describe('synthesis pipeline (pure, over rows)', () => {
     const out = runSynthesis(effects, request({ method: 'PM', dependence: { mode: 'aggregate', r: 0.7 } }));
     const text = methodsParagraph({
       request: out.request, metricLabel: "Hedges' g", counts: out.counts, software: { name: 'Chronometa', version: '0.1.0' }, registryVersion: 12,
-      prisma: { identified: 40, duplicatesRemoved: 2, screened: 38, excluded: 10, included: 28 },
+      prisma: { identified: 40, duplicatesRemoved: 2, screened: 33, excluded: 5, included: 28, notYetScreened: 5, coded: 20, settled: 15 },
     });
+    expect(text).toMatch(/5 excluded, 5 not yet screened, 28 included in the registry, 20 coded and 15 with settled effects; of these/);
     expect(text).toMatch(/Paule–Mandel method \(Paule & Mandel, 1982\)/);
     expect(text).toMatch(/r = 0\.70/);
     expect(text).toMatch(/Chronometa 0\.1\.0 on registry version 12/);
-    expect(text).toMatch(/40 records identified.*2 duplicates removed.*38 records screened.*10 excluded.*28 included/);
+    expect(text).toMatch(/40 records identified.*2 duplicates removed.*33 records screened.*5 excluded.*28 included/);
     expect(text).toMatch(/8 references \(8 studies, 9 effects\)/);
     expect(text).toMatch(/Egger's regression test .*, Begg's rank correlation .* and trim-and-fill/);
     const fewer = methodsParagraph({
