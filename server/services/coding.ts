@@ -63,12 +63,14 @@ export async function claimReference(db: Knex, actorId: number, referenceId: num
  * curators). Blind coding: while a pair is not settled, only a curator outside the pair may read a
  * coder's sheet — the other coder is refused.
  */
+/** Refusals answer exactly like a missing id (no 403 that reveals the record), except to the other coder of a pair, who knows it exists. */
 async function assertCanRead(db: Db, actor: Actor | null, x: ExtractionRow) {
+  const hidden = new NotFoundError(`No extraction ${x.id}.`);
   if (x.kind === 'settled') {
-    if (x.state === 'draft' && !(actor && hasRole(actor.roles, 'curator'))) throw new ForbiddenError('A reopened record is visible to curators until it is settled again.');
+    if (x.state === 'draft' && !(actor && hasRole(actor.roles, 'curator'))) throw hidden;
     return;
   }
-  if (!actor) throw new ForbiddenError('Sign in to see coding sheets.');
+  if (!actor) throw hidden;
   if (x.coder_id === actor.id) return;
   const a = x.assignment_id ? await findAssignment(db, x.assignment_id) : null;
   const settled = a?.state === 'settled' || x.state === 'settled';
@@ -76,7 +78,7 @@ async function assertCanRead(db: Db, actor: Actor | null, x: ExtractionRow) {
   if (inPair && !settled) throw new ForbiddenError('Coding is blind: you can see the other coder’s sheet once the pair is settled.');
   if (settled && hasRole(actor.roles, 'contributor')) return;
   if (hasRole(actor.roles, 'curator')) return;
-  throw new ForbiddenError('Only its coder and curators can see this coding sheet.');
+  throw hidden;
 }
 
 function extractionView(x: ExtractionDetailRow, editable: boolean): ExtractionDetail['extraction'] {

@@ -29,7 +29,7 @@ export const TRIALS_FIT_QUEUE = 'trials.fit';
 /** The most participant × condition cells one set may have (each is one bootstrapped fit). */
 export const MAX_CELLS = 2000;
 
-const SEE_RULE = 'Trial data are visible to the coder of the sheet and to curators until the record is settled; after that they come with the snapshots that use them.';
+// Trial data are visible to the coder of the sheet and to curators; anyone else gets the very answer of a missing id.
 
 function canSee(actor: Actor, x: ExtractionRow) {
   return x.coder_id === actor.id || hasRole(actor.roles, 'curator');
@@ -45,7 +45,7 @@ async function visibleSet(db: Knex, actor: Actor, setId: number) {
   const set = await findTrialSet(db, setId);
   if (!set) throw new NotFoundError(`No trial data set ${setId}.`);
   const x = await sheetFor(db, set.extraction_id);
-  if (!canSee(actor, x)) throw new ForbiddenError(SEE_RULE);
+  if (!canSee(actor, x)) throw new NotFoundError(`No trial data set ${setId}.`);
   return { set, x };
 }
 
@@ -98,6 +98,7 @@ function refuseRows(errors: { line: number; message: string }[]): never {
 /** Stores an uploaded CSV of trials or counts on a coding sheet (the whole file or nothing). */
 export async function uploadTrialSet(db: Knex, actor: Actor, extractionId: number, file: { name: string; text: string }, meta: TrialUpload): Promise<TrialSet> {
   const x = await sheetFor(db, extractionId);
+  if (!canSee(actor, x)) throw new NotFoundError(`No extraction ${extractionId}.`);
   assertCoderDraft(actor, x);
   const parsed = parseTrialsCsv(file.text);
   if (parsed.errors.length) refuseRows(parsed.errors);
@@ -129,7 +130,7 @@ export async function uploadTrialSet(db: Knex, actor: Actor, extractionId: numbe
 
 export async function listTrialSets(db: Knex, actor: Actor, extractionId: number): Promise<TrialSetList> {
   const x = await sheetFor(db, extractionId);
-  if (!canSee(actor, x)) throw new ForbiddenError(SEE_RULE);
+  if (!canSee(actor, x)) throw new NotFoundError(`No extraction ${extractionId}.`);
   return { items: (await trialSetsOf(db, extractionId)).map((s) => setView(s, editableFor(actor, x))) };
 }
 

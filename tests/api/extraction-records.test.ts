@@ -28,7 +28,11 @@ describe('settled records over the API: read, reopen with a reason, edit the new
     expect(reopened.status).toBe(201);
     expect(reopened.body.registryVersion).toBe(v0 + 1);
     const draftId = reopened.body.recordId;
-    expect((await anonymous(t.app).get(`/api/records/${draftId}`)).status).toBe(403);
+    // a draft hidden from the caller answers exactly like an id that does not exist
+    const hidden = await anonymous(t.app).get(`/api/records/${draftId}`);
+    const missing = await anonymous(t.app).get('/api/records/999999');
+    expect(hidden.status).toBe(404);
+    expect(hidden.body).toEqual({ error: { ...missing.body.error, message: `No extraction ${draftId}.` } });
     expect((await anonymous(t.app).get(`/api/effects?referenceId=${refId}`)).body.total).toBe(0);
     const again = await curator.post(`/api/records/${recordId}/reopen`).send({ reason: 'twice' });
     expect(again.status).toBe(409);

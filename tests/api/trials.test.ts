@@ -226,22 +226,32 @@ describe('trial data', () => {
     expect((await curator.get(`/api/trial-sets/${setId}`)).status).toBe(200);
     expect((await curator.get(`/api/extractions/${extraction}/trial-sets`)).status).toBe(200);
     expect((await curator.get(`/api/trial-sets/${setId}/trials.csv`)).status).toBe(200);
+    // a sheet or set the caller cannot see answers exactly like one that does not exist
+    const missingSet = await curator.get('/api/trial-sets/999999');
+    const missingSheet = await curator.get('/api/extractions/999999/trial-sets');
+    expect(missingSet.status).toBe(404);
     for (const agent of [coder2]) {
-      for (const path of [`/api/trial-sets/${setId}`, `/api/extractions/${extraction}/trial-sets`, `/api/trial-sets/${setId}/trials.csv`, `/api/trial-sets/${setId}/contrast?parameter=pse&conditionA=delayed&conditionB=synchronous`]) {
+      for (const path of [`/api/trial-sets/${setId}`, `/api/trial-sets/${setId}/trials.csv`, `/api/trial-sets/${setId}/contrast?parameter=pse&conditionA=delayed&conditionB=synchronous`]) {
         const res = await agent.get(path);
-        expect(res.status, path).toBe(403);
-        expect(res.body.error.message).toMatch(/visible to the coder of the sheet and to curators/);
+        expect(res.status, path).toBe(404);
+        expect(res.body, path).toEqual({ error: { ...missingSet.body.error, message: `No trial data set ${setId}.` } });
       }
+      const list = await agent.get(`/api/extractions/${extraction}/trial-sets`);
+      expect(list.status).toBe(404);
+      expect(list.body).toEqual({ error: { ...missingSheet.body.error, message: `No extraction ${extraction}.` } });
+      expect((await upload(agent, extraction, trialsCsv(ORDER))).status).toBe(404);
+      expect((await agent.post(`/api/trial-sets/${setId}/fits`).send({})).status).toBe(404);
     }
-    for (const agent of [curator, coder2]) {
-      const fit = await agent.post(`/api/trial-sets/${setId}/fits`).send({});
-      expect(fit.status).toBe(403);
-    }
+    const fit = await curator.post(`/api/trial-sets/${setId}/fits`).send({});
+    expect(fit.status).toBe(403);
     const up = await upload(curator, extraction, trialsCsv(ORDER));
     expect(up.status).toBe(403);
     expect(up.body.error.message).toMatch(/Only the coder of this sheet/);
+    // non-contributors are refused by role, the same for an existing and a missing id
     for (const agent of [reviewer, await signIn(t.app, 'reader'), await signIn(t.app, 'admin')]) {
-      expect((await agent.get(`/api/trial-sets/${setId}`)).status).toBe(403);
+      const seen = await agent.get(`/api/trial-sets/${setId}`);
+      expect(seen.status).toBe(403);
+      expect(seen.body).toEqual((await agent.get('/api/trial-sets/999999')).body);
       expect((await upload(agent, extraction, trialsCsv(ORDER))).status).toBe(403);
     }
     expect((await anonymous(t.app).get(`/api/trial-sets/${setId}`)).status).toBe(401);
