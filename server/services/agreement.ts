@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import { cohensKappaFromPairs } from '../../shared/agreement/cohens-kappa.js';
 import { icc } from '../../shared/agreement/icc.js';
+import { iccWithheldReason } from '../../shared/agreement/reporting.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import type { Sheet } from '../../shared/schemas/extraction.js';
 import type { AgreementForReference, AgreementSummary, OverallAgreement, ReferenceAgreementPage } from '../../shared/schemas/reconciliation.js';
@@ -76,7 +77,10 @@ export function summarize(pairs: PairData[]): AgreementSummary {
   const all = pooled.length ? cohensKappaFromPairs(pooled) : null;
   const effectSizes = Object.entries(byMetric)
     .sort(([a], [b]) => a.localeCompare(b))
-    .map(([metric, v]) => ({ metric, items: v.length, icc: v.length >= 2 ? icc(v.map(([a, b]) => [a, b])).icc2_1 : null }));
+    .map(([metric, v]) => {
+      const iccNote = iccWithheldReason(v.length);
+      return { metric, items: v.length, icc: iccNote ? null : icc(v.map(([a, b]) => [a, b])).icc2_1, iccNote };
+    });
   return {
     pairs: pairs.length,
     categorical,

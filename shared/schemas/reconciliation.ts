@@ -208,7 +208,8 @@ export type WithdrawnRecord = z.infer<typeof withdrawnRecordSchema>;
 export const agreementQuerySchema = pagingSchema(['reference', 'agreement'] as const, 'agreement');
 export type AgreementQuery = z.infer<typeof agreementQuerySchema>;
 
-const effectAgreementSchema = z.object({ metric: z.string(), items: z.number().int(), icc: z.number().nullable() });
+/** icc is null when fewer than 5 pairs of values exist; iccNote then says why in words. */
+const effectAgreementSchema = z.object({ metric: z.string(), items: z.number().int(), icc: z.number().nullable(), iccNote: z.string().nullable() });
 const pooledAgreementSchema = z.object({ items: z.number().int(), percentAgreement: z.number().nullable(), kappa: z.number().nullable() });
 
 export const agreementSummarySchema = z.object({

@@ -167,7 +167,9 @@ describe('double coding over the API: assign, blind coding, dispute, reconcile, 
     expect(agreement.body.overall.pairs).toBe(2);
     const design = agreement.body.overall.categorical.find((c: any) => c.field === 'design');
     expect(design.percentAgreement).toBe(1);
-    expect(agreement.body.overall.effectSizes[0]).toMatchObject({ metric: 'g_s', items: 2 });
+    // 2 pairs of values: no ICC, and the answer says why
+    expect(agreement.body.overall.effectSizes[0]).toMatchObject({ metric: 'g_s', items: 2, icc: null });
+    expect(agreement.body.overall.effectSizes[0].iccNote).toMatch(/2 pairs of values; an ICC needs at least 5/);
   });
 
   it('a failed transaction leaves nothing behind; audit entries cannot be changed', async () => {

@@ -3,7 +3,9 @@ import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { Pager } from '../../components/ui/Pager';
 import { SortHeader } from '../../components/ui/SortHeader';
 import { useAgreement, useReferenceAgreement, type AgreementSummary, type ReferenceAgreementQuery } from '../../features/agreement/api/get-agreement';
+import { kappaCells } from '../../features/agreement/format';
 import { useHasRole } from '../../features/auth/api/get-me';
+import { ICC_MIN_PAIRS } from '../../../shared/agreement/reporting';
 import { fixed, percent as pct } from '../../lib/format';
 import { RequireRole } from './RequireRole';
 
@@ -29,17 +31,18 @@ function SummaryTables({ s }: { s: AgreementSummary }) {
               <td>{c.field}</td>
               <td className="num">{c.items}</td>
               <td className="num">{pct(c.percentAgreement)}</td>
-              <td className="num">{f(c.kappa)}</td>
-              <td className="num">{f(c.kappaSe)}</td>
+              <td className="num">{kappaCells(c.kappa, c.kappaSe).kappa}</td>
+              <td className="num">{kappaCells(c.kappa, c.kappaSe).se}</td>
             </tr>
           ))}
           <tr>
             <td>
-              <strong>all categorical fields</strong>
+              <strong>Summary over all fields</strong>
+              <span className="block text-xs text-ink-soft">one kappa over field-and-value categories pooled together: a summary, not Cohen's κ of any one field</span>
             </td>
             <td className="num">{s.allCategorical.items}</td>
             <td className="num">{pct(s.allCategorical.percentAgreement)}</td>
-            <td className="num">{f(s.allCategorical.kappa)}</td>
+            <td className="num">{kappaCells(s.allCategorical.kappa, null).kappa}</td>
             <td className="num">—</td>
           </tr>
         </tbody>
@@ -58,7 +61,7 @@ function SummaryTables({ s }: { s: AgreementSummary }) {
             <tr key={e.metric}>
               <td>{e.metric}</td>
               <td className="num">{e.items}</td>
-              <td className="num">{f(e.icc)}</td>
+              <td className="num">{e.iccNote ? <span className="text-xs">{e.iccNote}</span> : f(e.icc)}</td>
             </tr>
           ))}
         </tbody>
@@ -82,7 +85,7 @@ function AgreementBody() {
       <h1>Inter-coder agreement</h1>
       <p className="mb-3 text-sm text-ink-soft">
         From every double-coded pair once both coders submitted, aligned by study and effect. Kappa: Cohen (1960) with the Fleiss, Cohen & Everitt (1969) standard error.
-        ICC(2,1): Shrout & Fleiss (1979), two-way random effects, single rater, absolute agreement.
+        ICC(2,1): Shrout & Fleiss (1979), two-way random effects, single rater, absolute agreement; not computed from fewer than {ICC_MIN_PAIRS} pairs of values.
       </p>
       <ErrorNote error={error} />
       {isLoading && <Loading what="Computing agreement" />}
@@ -110,7 +113,7 @@ function AgreementBody() {
                     <th>Coders</th>
                     <th className="num">Items</th>
                     <SortHeader field="agreement" label="Agreement (%, 1 dp)" sort={q.sort} order={q.order} onSort={(sort, order) => setQ({ ...q, sort, order })} numeric />
-                    <th className="num">κ (2 dp)</th>
+                    <th className="num">Summary κ (2 dp)</th>
                     <th>ICC by metric (2 dp)</th>
                   </tr>
                 </thead>
@@ -121,8 +124,8 @@ function AgreementBody() {
                       <td>{r.coders}</td>
                       <td className="num">{r.items}</td>
                       <td className="num">{pct(r.percentAgreement)}</td>
-                      <td className="num">{f(r.kappa)}</td>
-                      <td className="text-xs">{r.effectSizes.map((e) => `${e.metric} ${f(e.icc)} (${e.items})`).join('; ') || '—'}</td>
+                      <td className="num">{kappaCells(r.kappa, null).kappa}</td>
+                      <td className="text-xs">{r.effectSizes.map((e) => `${e.metric} ${e.iccNote ? `not computed, fewer than ${ICC_MIN_PAIRS} pairs` : f(e.icc)} (${e.items})`).join('; ') || '—'}</td>
                     </tr>
                   ))}
                 </tbody>
