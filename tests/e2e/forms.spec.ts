@@ -61,6 +61,7 @@ export const specs: Spec[] = [
       await page.getByRole('table').getByRole('link').first().click();
       await page.getByRole('button', { name: 'Record decision' }).waitFor();
       await page.getByRole('radio', { name: '✕ Exclude' }).check();
+      await page.getByRole('combobox', { name: 'Reason' }).selectOption({ value: '' });
       await page.getByRole('button', { name: 'Record decision' }).click();
       await page.getByText('✕ an exclusion needs a reason').waitFor();
       await signOut(page);

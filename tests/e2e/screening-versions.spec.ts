@@ -37,6 +37,12 @@ export const specs: Spec[] = [
       }
       await decide(page, 'Exclude', 'Wrong population', 'children only');
       await page.getByText('✓ Recorded.').waitFor();
+      // Opened again, the form starts from the current decision.
+      await page.reload();
+      await page.getByRole('button', { name: 'Record decision' }).waitFor();
+      assert.ok(await page.getByRole('radio', { name: /Exclude/ }).isChecked(), 'the form starts from the exclusion');
+      assert.equal(await page.getByRole('combobox', { name: 'Reason' }).inputValue(), 'wrong_population');
+      assert.equal(await page.getByRole('textbox', { name: /^Note/ }).inputValue(), 'children only');
 
       await decide(stale, 'Include');
       await stale.getByRole('alert').getByText(/changed since you opened it .*now excluded by coder1/).waitFor();
@@ -47,6 +53,10 @@ export const specs: Spec[] = [
       const detail = await apiJson<{ reference: { screeningStatus: string; version: number }; screening: unknown[] }>(page, `/api/references/${refId}`);
       assert.equal(detail.reference.screeningStatus, 'included');
       assert.equal(detail.screening.length, 2);
+      await page.reload();
+      await page.getByRole('button', { name: 'Record decision' }).waitFor();
+      assert.ok(await page.getByRole('radio', { name: /Include/ }).isChecked(), 'the form starts from the inclusion');
+      assert.equal(await page.getByRole('textbox', { name: /^Note/ }).inputValue(), 'adults after all');
     },
   },
   {

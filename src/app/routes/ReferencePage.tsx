@@ -63,7 +63,7 @@ export function ReferencePage() {
       )}
 
       <h2>Screening</h2>
-      {contributor && !r.mergedInto && <DecisionForm refId={r.id} version={r.version} settledEffects={r.settledEffects} curator={curator} />}
+      {contributor && !r.mergedInto && <DecisionForm key={r.id} refId={r.id} version={r.version} current={data.screening[0]} settledEffects={r.settledEffects} curator={curator} />}
       {data.screening.length === 0 ? (
         <EmptyState>No decision yet.{contributor ? ' Record one above, or work through the screening queue.' : ''}</EmptyState>
       ) : (

@@ -7,22 +7,34 @@ import { Caution, ErrorNote } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
 import { showServerErrors } from '../../../lib/forms/server-errors';
 import { useDecide } from '../api/decide';
-import { decisionFormSchema } from '../forms/decision';
+import { decisionDefaults, decisionFormSchema, type DecisionValues } from '../forms/decision';
 
-type DecisionValues = { decision: ScreeningDecisionInput['decision']; reason: string; note: string };
-const EMPTY: DecisionValues = { decision: 'included', reason: '', note: '' };
 type DecisionFields = Omit<ScreeningDecisionInput, 'version'>;
 
-/** Include, or exclude with a reason (and a note when the reason is "other"), for one reference. */
-export function DecisionForm({ refId, version, settledEffects = 0, curator = false, onDecided }: { refId: number; version: number; settledEffects?: number; curator?: boolean; onDecided?: () => void }) {
+/** Include, or exclude with a reason (and a note when the reason is "other"), for one reference; starts from its current decision. */
+export function DecisionForm({
+  refId,
+  version,
+  current,
+  settledEffects = 0,
+  curator = false,
+  onDecided,
+}: {
+  refId: number;
+  version: number;
+  current?: Parameters<typeof decisionDefaults>[0];
+  settledEffects?: number;
+  curator?: boolean;
+  onDecided?: () => void;
+}) {
   const mutation = useDecide();
-  const form = useForm<DecisionValues, unknown, DecisionFields>({ resolver: formResolver(decisionFormSchema), defaultValues: EMPTY });
+  const form = useForm<DecisionValues, unknown, DecisionFields>({ resolver: formResolver(decisionFormSchema), defaultValues: decisionDefaults(current) });
   const { errors } = form.formState;
   const [decision, reason] = useWatch({ control: form.control, name: ['decision', 'reason'] });
   const submit = form.handleSubmit((input) =>
     mutation.mutate(
       { refId, input: { ...input, version } },
-      { onSuccess: () => (form.reset({ ...form.getValues(), note: '' }), onDecided?.()), onError: (err) => showServerErrors(err, form.setError, ['decision', 'reason', 'note']) },
+      { onSuccess: () => (form.reset(form.getValues()), onDecided?.()), onError: (err) => showServerErrors(err, form.setError, ['decision', 'reason', 'note']) },
     ),
   );
   return (

@@ -13,3 +13,11 @@ export const decisionFormSchema = z
     }),
   )
   .pipe(screeningDecisionFieldsSchema);
+
+export type DecisionValues = { decision: z.infer<typeof decisionFormSchema>['decision']; reason: string; note: string };
+
+/** What the form starts from: the reference's current decision (newest not undone), or an inclusion with nothing written. */
+export function decisionDefaults(current?: { decision: DecisionValues['decision']; reason: string | null; note: string | null } | null): DecisionValues {
+  if (!current) return { decision: 'included', reason: '', note: '' };
+  return { decision: current.decision, reason: current.decision === 'excluded' ? (current.reason ?? '') : '', note: current.note ?? '' };
+}
