@@ -89,7 +89,7 @@ export function methodsParagraph(m: MethodsInput): string {
     skip.has('trim-and-fill') ? '' : 'trim-and-fill (Duval & Tweedie, 2000)',
   ].filter(Boolean);
   const sensitivity = multilevel
-    ? [skip.has('leave-one-out') ? '' : 'leave-one-paper-out', skip.has('cumulative') ? '' : 'cumulative (by paper year)'].filter(Boolean)
+    ? [skip.has('leave-one-out') ? '' : 'leave-one-paper-out', skip.has('cumulative') ? '' : 'cumulative (by paper year, the first paper alone by REML among its effects)'].filter(Boolean)
     : [skip.has('leave-one-out') || counts.studies < 2 ? '' : 'leave-one-out', skip.has('cumulative') ? '' : 'cumulative (by year)'].filter(Boolean);
   const bias =
     (smallStudy.length ? ` Small-study effects were examined with ${smallStudy.length > 1 ? `${smallStudy.slice(0, -1).join(', ')} and ${smallStudy.at(-1)}` : smallStudy[0]}.` : '') +

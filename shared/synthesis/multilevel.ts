@@ -1,7 +1,7 @@
 import type { SubgroupVariable, SynthesisRequest } from '../schemas/synthesis.js';
 import { chiSquareUpperTail } from '../stats/chi-square.js';
-import { normalQuantileUpper } from '../stats/normal.js';
-import { poolMultilevel, poolMultilevelWithRobust, type MultilevelResult, type PoolResult, type RobustResult } from './engine.js';
+import { normalQuantileUpper, normalTwoTailed } from '../stats/normal.js';
+import { pool, poolMultilevel, poolMultilevelWithRobust, type MultilevelResult, type PoolResult, type RobustResult } from './engine.js';
 import type { MultilevelSummary, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SubgroupResult } from './types.js';
 
 /** Leave-one-paper-out and cumulative refit the model once per paper: beyond these they are skipped. */
@@ -177,7 +177,22 @@ export function leaveOnePaperOut(papers: PaperInfo[], byPaper: Map<number, numbe
   });
 }
 
-/** Cumulative by paper year: each row fits every paper up to this one (from the second paper on). */
+/**
+ * The first cumulative row: one paper cannot separate σ²_between from σ²_within, so its effects are pooled by
+ * REML random effects among themselves (a single effect stands as it is, tau² null).
+ */
+function onePaperRow(p: PaperInfo, idx: number[], y: ArrayLike<number>, v: ArrayLike<number>, request: MultilevelRequest): SensitivityRow {
+  const level = request.level ?? 0.95;
+  if (idx.length === 1) {
+    const half = normalQuantileUpper((1 - level) / 2) * Math.sqrt(v[idx[0]]);
+    const e = y[idx[0]];
+    return { label: p.label, studyId: p.firstStudyId, year: p.year, k: 1, estimate: e, ci_lower: e - half, ci_upper: e + half, p: normalTwoTailed(e / Math.sqrt(v[idx[0]])), tau2: null, I2: null };
+  }
+  const f = pool({ effects: idx.map((i) => y[i]), variances: idx.map((i) => v[i]), method: 'REML', hksj: request.hksj, level });
+  return { label: p.label, studyId: p.firstStudyId, year: p.year, k: f.k, estimate: f.estimate, ci_lower: f.ci_lower, ci_upper: f.ci_upper, p: f.p, tau2: f.tau2, I2: f.I2 };
+}
+
+/** Cumulative by paper year: each row fits every paper up to this one; the first paper alone as onePaperRow says. */
 export function cumulativeByPaper(papers: PaperInfo[], byPaper: Map<number, number[]>, y: ArrayLike<number>, v: ArrayLike<number>, cluster: ArrayLike<number>, request: MultilevelRequest): SensitivityRow[] {
   const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
   const ordered = [...papers].sort((a, b) => (a.year ?? 9999) - (b.year ?? 9999) || cmp(a.label, b.label));
@@ -185,7 +200,7 @@ export function cumulativeByPaper(papers: PaperInfo[], byPaper: Map<number, numb
   const rows: SensitivityRow[] = [];
   ordered.forEach((p, m) => {
     idx.push(...byPaper.get(p.id)!);
-    if (m >= 1) rows.push(sensitivityRow(p.label, p.firstStudyId, p.year, subsetFit(idx, y, v, cluster, request)));
+    rows.push(m === 0 ? onePaperRow(p, idx, y, v, request) : sensitivityRow(p.label, p.firstStudyId, p.year, subsetFit(idx, y, v, cluster, request)));
   });
   return rows;
 }

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
-import { poolMultilevel, robustPool } from '../../shared/stats/index.js';
+import { pool, poolMultilevel, robustPool } from '../../shared/stats/index.js';
 import { anonymous, createTestApp, resetDb, signIn, type TestApp } from '../support/test-app.js';
 import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';
 
@@ -42,7 +42,14 @@ describe('POST /api/syntheses with dependence { mode: "multilevel" }', () => {
     const papers = res.body.figures.forest.data.filter((tr: any) => tr.meta === 'paper');
     expect(papers).toHaveLength(13);
     expect(res.body.leaveOneOut).toHaveLength(13);
-    expect(res.body.cumulative).toHaveLength(12);
+    // cumulative starts at the first paper: its effects pooled by REML on their own (one paper has no σ²_between)
+    expect(res.body.cumulative).toHaveLength(13);
+    const first = res.body.cumulative[0];
+    const firstRows = res.body.rows.filter((r: any) => r.studyId === first.studyId || res.body.rows.find((q: any) => q.studyId === first.studyId)?.referenceId === r.referenceId);
+    expect(first.k).toBe(firstRows.length);
+    if (firstRows.length === 1) expect(first.estimate).toBeCloseTo(firstRows[0].effect, 12);
+    else expect(first.estimate).toBeCloseTo(pool({ effects: firstRows.map((r: any) => r.effect), variances: firstRows.map((r: any) => r.variance), method: 'REML' }).estimate, 12);
+    expect(res.body.cumulative[12].estimate).toBeCloseTo(res.body.result.estimate, 9);
     expect(res.body.unavailable.map((u: any) => u.analysis)).toEqual(expect.arrayContaining(["Egger's test", "Begg's test", 'trim-and-fill']));
   });
 

@@ -122,7 +122,8 @@ describe('a multilevel synthesis against metafor rma.mv and clubSandwich CR2', (
 
   it('leave-one-paper-out and cumulative by paper year refit the model (robust) as metafor does on each subset', () => {
     expect(worstRow(out.leaveOneOut!, ref.l1o)).toBeLessThan(TOL);
-    expect(worstRow(out.cumulative!, ref.cumul)).toBeLessThan(TOL);
+    // the first row is the first paper alone (REML among its effects, tests/api/syntheses-multilevel); the rest refit the model
+    expect(worstRow(out.cumulative!.slice(1), ref.cumul)).toBeLessThan(TOL);
   });
 
   it('subgroups fit the model in each subgroup, and meta-regression on standard duration gives the robust slope', () => {
