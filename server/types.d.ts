@@ -9,6 +9,8 @@ declare global {
       email: string | null;
       roles: Role[];
       via: 'session' | 'token';
+      /** The Bearer token the request came with (via 'token' only). */
+      tokenId?: number;
     }
   }
 }

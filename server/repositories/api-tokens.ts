@@ -1,7 +1,7 @@
 import type { Db } from './db.js';
 import type { ApiTokenRow, UserRow } from './rows.js';
 
-export async function insertToken(db: Db, row: Pick<ApiTokenRow, 'user_id' | 'name' | 'token_hash' | 'prefix'>): Promise<Pick<ApiTokenRow, 'id' | 'name' | 'prefix' | 'created_at'>> {
+export async function insertToken(db: Db, row: Pick<ApiTokenRow, 'user_id' | 'name' | 'token_hash' | 'prefix' | 'minted_by_token_id'>): Promise<Pick<ApiTokenRow, 'id' | 'name' | 'prefix' | 'created_at'>> {
   const [created] = await db<ApiTokenRow>('api_tokens').insert(row).returning(['id', 'name', 'prefix', 'created_at']);
   return created;
 }
@@ -10,10 +10,26 @@ export async function tokensOf(db: Db, userId: number): Promise<ApiTokenRow[]> {
   return db<ApiTokenRow>('api_tokens').where({ user_id: userId }).orderBy('id', 'desc');
 }
 
-/** Marks the user's live token revoked; false when there is none with that id. */
-export async function revokeToken(db: Db, userId: number, tokenId: number): Promise<boolean> {
-  const updated = await db<ApiTokenRow>('api_tokens').where({ id: tokenId, user_id: userId }).whereNull('revoked_at').update({ revoked_at: new Date() }).returning('id');
-  return updated.length > 0;
+/**
+ * Marks the user's live token revoked and, with it, every live token minted from it down the chain (children of
+ * children too); answers the ids revoked, the named token first, or [] when the user has no live token with that id.
+ */
+export async function revokeTokenChain(db: Db, userId: number, tokenId: number): Promise<number[]> {
+  const root = await db<ApiTokenRow>('api_tokens').where({ id: tokenId, user_id: userId }).whereNull('revoked_at').forUpdate().first('id');
+  if (!root) return [];
+  const chain = await db.raw<{ rows: { id: number }[] }>(
+    `with recursive chain(id) as (
+       select id from api_tokens where id = ?
+       union
+       select t.id from api_tokens t join chain c on t.minted_by_token_id = c.id
+     )
+     update api_tokens set revoked_at = now()
+      where id in (select id from chain) and revoked_at is null
+      returning id`,
+    [tokenId],
+  );
+  const ids = chain.rows.map((r) => r.id);
+  return [tokenId, ...ids.filter((id) => id !== tokenId).sort((a, b) => a - b)];
 }
 
 /** The owner of a live (not revoked) token, by the token's hash. */

@@ -50,6 +50,7 @@ export interface ApiTokenRow {
   created_at: Timestamp;
   last_used_at: Timestamp | null;
   revoked_at: Timestamp | null;
+  minted_by_token_id: number | null;
 }
 
 export type ScreeningStatus = 'unscreened' | 'included' | 'excluded';

@@ -21,7 +21,8 @@ export function tokensRouter(ctx: AppContext) {
 
   router.post('/tokens', async (req, res) => {
     const body = parseInput(tokenCreateSchema, req.body);
-    res.status(201).json(await createApiToken(ctx.db, req.user!.id, body.name));
+    // Behind the session-only rule above tokenId is unset; it is passed so a token-minted token is always chained.
+    res.status(201).json(await createApiToken(ctx.db, req.user!.id, body.name, req.user!.tokenId ?? null));
   });
 
   router.delete('/tokens/:id', async (req, res) => {

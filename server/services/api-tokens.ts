@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { Knex } from 'knex';
-import { insertToken, ownerOfTokenHash, revokeToken, tokensOf, touchToken } from '../repositories/api-tokens.js';
+import { insertToken, ownerOfTokenHash, revokeTokenChain, tokensOf, touchToken } from '../repositories/api-tokens.js';
 import { recordAudit } from '../repositories/audit.js';
 import { userRoles } from '../repositories/users.js';
 import type { ApiTokenList, CreatedToken } from '../../shared/schemas/users.js';
@@ -14,14 +14,15 @@ export async function userForToken(db: Knex, token: string): Promise<Express.Use
   const row = await ownerOfTokenHash(db, hashToken(token));
   if (!row) return null;
   void touchToken(db, row.token_id).catch(() => undefined);
-  return { id: row.id, login: row.login, name: row.name, email: row.email, roles: await userRoles(db, row.id), via: 'token' };
+  return { id: row.id, login: row.login, name: row.name, email: row.email, roles: await userRoles(db, row.id), via: 'token', tokenId: row.token_id };
 }
 
-export async function createApiToken(db: Knex, userId: number, name: string): Promise<CreatedToken> {
+/** `mintedByTokenId`: the Bearer token the caller was authenticated with, if any (revoking it revokes this one). */
+export async function createApiToken(db: Knex, userId: number, name: string, mintedByTokenId: number | null = null): Promise<CreatedToken> {
   const token = `cmt_${randomBytes(24).toString('base64url')}`;
   return db.transaction(async (trx) => {
-    const row = await insertToken(trx, { user_id: userId, name, token_hash: hashToken(token), prefix: token.slice(0, 10) });
-    await recordAudit(trx, { actorId: userId, action: 'token.created', entityType: 'api_token', entityId: row.id, details: { name } });
+    const row = await insertToken(trx, { user_id: userId, name, token_hash: hashToken(token), prefix: token.slice(0, 10), minted_by_token_id: mintedByTokenId });
+    await recordAudit(trx, { actorId: userId, action: 'token.created', entityType: 'api_token', entityId: row.id, details: mintedByTokenId === null ? { name } : { name, mintedByTokenId } });
     return { id: row.id, name: row.name, prefix: row.prefix, createdAt: iso(row.created_at), token };
   });
 }
@@ -33,7 +34,8 @@ export async function listApiTokens(db: Knex, userId: number): Promise<ApiTokenL
 
 export async function revokeApiToken(db: Knex, userId: number, tokenId: number): Promise<void> {
   await db.transaction(async (trx) => {
-    if (!(await revokeToken(trx, userId, tokenId))) throw new NotFoundError(`You have no active token with id ${tokenId}.`);
-    await recordAudit(trx, { actorId: userId, action: 'token.revoked', entityType: 'api_token', entityId: tokenId });
+    const revoked = await revokeTokenChain(trx, userId, tokenId);
+    if (!revoked.length) throw new NotFoundError(`You have no active token with id ${tokenId}.`);
+    await recordAudit(trx, { actorId: userId, action: 'token.revoked', entityType: 'api_token', entityId: tokenId, details: revoked.length > 1 ? { alsoRevoked: revoked.slice(1) } : undefined });
   });
 }
