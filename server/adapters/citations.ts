@@ -115,3 +115,9 @@ export function parseEntry(text: string, format: 'bibtex' | 'ris'): Record<strin
 export function toBibtex(records: Record<string, unknown>[]): string {
   return new Cite(records).format('bibtex', { format: 'text' }) as string;
 }
+
+/** One CSL-JSON record as a BibTeX and an RIS entry. */
+export function cslEntries(record: Record<string, unknown>): { bibtex: string; ris: string } {
+  const cite = new Cite([record]);
+  return { bibtex: cite.format('bibtex', { format: 'text' }) as string, ris: cite.format('ris', { format: 'text' }) as string };
+}

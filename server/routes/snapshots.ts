@@ -5,7 +5,7 @@ import { requireRole } from '../auth/require-role.js';
 import { UnauthorizedError } from '../lib/errors.js';
 import { snapshotCreateSchema, snapshotIdSchema, snapshotListQuerySchema } from '../../shared/schemas/synthesis.js';
 import { snapshotTrialsCsv } from '../services/trials.js';
-import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
+import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCitation, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
 
 /** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
 export function snapshotsRouter(ctx: AppContext) {
@@ -27,6 +27,10 @@ export function snapshotsRouter(ctx: AppContext) {
 
   router.get('/snapshots/:id', async (req, res) => {
     res.json(snapshotView(await load(req.params), origin));
+  });
+
+  router.get('/snapshots/:id/citation', async (req, res) => {
+    res.json(snapshotCitation(await load(req.params), origin));
   });
 
   router.get('/snapshots/:id/export.csv', async (req, res) => {

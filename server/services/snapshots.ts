@@ -2,7 +2,7 @@ import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import type { Knex } from 'knex';
 import { NotFoundError } from '../lib/errors.js';
-import { toBibtex } from '../adapters/citations.js';
+import { cslEntries, toBibtex } from '../adapters/citations.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
 import { querySettledEffects, settledReferenceCount, type SettledEffectRow } from '../repositories/effects.js';
@@ -15,7 +15,7 @@ import { prismaCounts } from './screening.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
-import { METHOD_LABELS, type CreatedSnapshot, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { METHOD_LABELS, type CreatedSnapshot, type SnapshotCitation, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
 import type { SynthesisOutput } from '../../shared/synthesis/types.js';
@@ -129,6 +129,29 @@ export async function loadSnapshot(db: Knex, id: string): Promise<StoredSnapshot
   };
 }
 
+/** How to cite the snapshot itself (a data set of this registry), from what was stored when it was saved. */
+export function snapshotCitation(s: StoredSnapshot, appOrigin: string): SnapshotCitation {
+  const url = `${appOrigin}/snapshots/${s.id}`;
+  const date = s.createdAt.slice(0, 10);
+  const [y, m, d] = date.split('-').map(Number);
+  const identifier = `chronometa:snapshot:${s.id}`;
+  const key = `chronometa_${s.id}`;
+  const cslJson = {
+    id: key,
+    'citation-key': key,
+    type: 'dataset',
+    title: s.title,
+    author: [{ literal: `${SOFTWARE.name} registry` }],
+    publisher: SOFTWARE.name,
+    version: `registry version ${s.registryVersion}`,
+    issued: { 'date-parts': [[y, m, d]] },
+    URL: url,
+    note: `Snapshot ${identifier}, registry version ${s.registryVersion}; ${s.software}`,
+  };
+  const text = `${SOFTWARE.name} registry (${y}). ${s.title} [Data set, registry version ${s.registryVersion}, saved ${date}]. ${SOFTWARE.name}. ${url}`;
+  return { id: s.id, identifier, url, registryVersion: s.registryVersion, date, text, cslJson, ...cslEntries(cslJson) };
+}
+
 /** What GET /api/snapshots/:id answers: the frozen synthesis plus its provenance. */
 export function snapshotView(s: StoredSnapshot, appOrigin: string): SnapshotView {
   const { references, ...rest } = s;
@@ -143,6 +166,7 @@ export function snapshotView(s: StoredSnapshot, appOrigin: string): SnapshotView
     software: s.software,
     methods: s.methods,
     prisma: s.prisma,
+    citation: snapshotCitation(s, appOrigin),
     effects: s.effects,
     references: references.map(({ csl: _csl, ...r }) => r),
   };

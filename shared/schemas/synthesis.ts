@@ -224,6 +224,22 @@ export type CreatedSnapshot = z.infer<typeof createdSnapshotSchema>;
 
 export const snapshotReferenceSchema = z.object({ id: z.number().int(), title: z.string(), year: z.number().int().nullable(), doi: z.string().nullable(), firstAuthor: z.string().nullable() });
 
+/** GET /api/snapshots/:id/citation (and the snapshot's `citation`): how to cite the snapshot itself. */
+export const snapshotCitationSchema = z.object({
+  id: z.string(),
+  /** stable identifier, `chronometa:snapshot:<id>` */
+  identifier: z.string(),
+  url: z.string(),
+  registryVersion: z.number().int(),
+  /** the day it was saved, YYYY-MM-DD (UTC) */
+  date: z.string().regex(/^\d{4}-\d{2}-\d{2}$/),
+  text: z.string(),
+  cslJson: z.record(z.string(), z.unknown()),
+  bibtex: z.string(),
+  ris: z.string(),
+});
+export type SnapshotCitation = z.infer<typeof snapshotCitationSchema>;
+
 /** GET /api/snapshots/:id (and export.json): the frozen synthesis with its provenance. */
 export const snapshotViewSchema = z.custom<SynthesisOutput>().and(
   z.object({
@@ -236,6 +252,7 @@ export const snapshotViewSchema = z.custom<SynthesisOutput>().and(
     software: z.string(),
     methods: z.string(),
     prisma: z.custom<PrismaCounts>().nullable(),
+    citation: snapshotCitationSchema,
     effects: z.array(settledEffectRowSchema),
     references: z.array(snapshotReferenceSchema),
   }),

@@ -16,7 +16,7 @@ import {
 import { followSchema, unsubscribeAnswerSchema } from '../../shared/schemas/following.js';
 import { manipulationPageSchema, settledEffectDetailSchema, settledEffectPageSchema } from '../../shared/schemas/registry.js';
 import {
-  atlasLandingSchema, atlasManipulationSchema, atlasOutcomeSchema, atlasPooledSchema, atlasReferencePageSchema, createdSnapshotSchema, snapshotPageSchema,
+  atlasLandingSchema, atlasManipulationSchema, atlasOutcomeSchema, atlasPooledSchema, atlasReferencePageSchema, createdSnapshotSchema, snapshotCitationSchema, snapshotPageSchema,
   snapshotViewSchema, synthesisAnswerSchema, synthesisFacetsSchema,
 } from '../../shared/schemas/synthesis.js';
 import { adminUserPageSchema, apiTokenListSchema, createdTokenSchema, meSchema } from '../../shared/schemas/users.js';
@@ -106,6 +106,7 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     expectShape(createdSnapshotSchema, created, 201);
     expectShape(snapshotPageSchema, await anonymous(t.app).get('/api/snapshots'));
     expectShape(snapshotViewSchema, await anonymous(t.app).get(`/api/snapshots/${created.body.id}`));
+    expectShape(snapshotCitationSchema, await anonymous(t.app).get(`/api/snapshots/${created.body.id}/citation`));
     const follow = await as.reviewer.post('/api/follows').send({ request });
     expectShape(followSchema, follow, 201);
     const { unsubscribe_token: token } = await t.ctx.db('follows').where({ id: follow.body.id }).first('unsubscribe_token');

@@ -21,6 +21,7 @@ describeAccess(
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/export.csv`, who: 'anyone', bad: { path: '/api/snapshots/x/export.csv' } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/effects.csv`, who: 'anyone', bad: { path: '/api/snapshots/0000000000000000/effects.csv' } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/export.json`, who: 'anyone', bad: { path: '/api/snapshots/%20/export.json' } },
+    { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/citation`, who: 'anyone', bad: { path: '/api/snapshots/NOT-AN-ID/citation' } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/references.bib`, who: 'anyone', bad: { path: '/api/snapshots/short/references.bib' } },
     { method: 'get', path: (ids) => `/api/snapshots/${ids.snapshot}/methods.txt`, who: 'anyone', bad: { path: '/api/snapshots/0000000000000000/methods.txt' } },
     { method: 'get', path: '/api/atlas', who: 'anyone' },
