@@ -107,6 +107,8 @@ export interface ScreeningDecisionRow {
   decided_at: Timestamp;
   undone_at: Timestamp | null;
   undone_by: number | null;
+  /** the settled records this exclusion withdrew (its undo restores them) */
+  withdrawn_records: number[];
 }
 
 export interface AttachmentRow {
@@ -242,7 +244,7 @@ export interface DiscrepancyRow {
   created_at: Timestamp;
 }
 
-export type SettlementKind = 'matched' | 'reconciled' | 'direct' | 'reopened' | 'withdrawn' | 'edited';
+export type SettlementKind = 'matched' | 'reconciled' | 'direct' | 'reopened' | 'withdrawn' | 'edited' | 'restored';
 
 export interface SettlementRow {
   id: number;

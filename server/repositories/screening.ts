@@ -1,8 +1,8 @@
 import type { Db } from './db.js';
 import type { ScreeningDecisionRow } from './rows.js';
 
-export async function insertDecision(db: Db, d: Pick<ScreeningDecisionRow, 'ref_id' | 'decision' | 'reason' | 'note' | 'decided_by'>): Promise<Pick<ScreeningDecisionRow, 'id' | 'decided_at'>> {
-  const [row] = await db<ScreeningDecisionRow>('screening_decisions').insert(d).returning(['id', 'decided_at']);
+export async function insertDecision(db: Db, d: Pick<ScreeningDecisionRow, 'ref_id' | 'decision' | 'reason' | 'note' | 'decided_by' | 'withdrawn_records'>): Promise<Pick<ScreeningDecisionRow, 'id' | 'decided_at'>> {
+  const [row] = await db('screening_decisions').insert({ ...d, withdrawn_records: JSON.stringify(d.withdrawn_records) }).returning(['id', 'decided_at']);
   return row;
 }
 

@@ -107,6 +107,35 @@ export async function withdrawRecordIn(trx: Knex.Transaction, actorId: number, r
   return { recordId, state: 'withdrawn' as const, registryVersion };
 }
 
+/**
+ * Settles again the records a screening exclusion withdrew (its undo), inside the caller's transaction: one registry
+ * change for all. Refuses, in words, when any of them is no longer the reference's withdrawn current record or
+ * another settled record of the reference took its place. Returns the new registry version.
+ */
+export async function restoreWithdrawnRecordsIn(trx: Knex.Transaction, actorId: number, referenceId: number, recordIds: number[], reason: string): Promise<number> {
+  const rows: ExtractionRow[] = await trx('extractions').whereIn('id', recordIds).orderBy('id').forUpdate().select('*');
+  for (const id of recordIds) {
+    const x = rows.find((r) => r.id === id);
+    const cannot = `Record ${id}, withdrawn by this exclusion,`;
+    if (!x || x.kind !== 'settled' || x.reference_id !== referenceId) throw new ConflictError(`${cannot} no longer belongs to reference ${referenceId}; the exclusion cannot be undone.`, { recordId: id });
+    if (x.superseded_by) throw new ConflictError(`${cannot} was replaced by record ${x.superseded_by}; the exclusion cannot be undone.`, { recordId: id });
+    if (x.state !== 'withdrawn') throw new ConflictError(`${cannot} is ${x.state} now, not withdrawn; the exclusion cannot be undone.`, { recordId: id });
+  }
+  const others: { id: number }[] = await trx('extractions')
+    .where({ reference_id: referenceId, kind: 'settled', state: 'settled' })
+    .whereNull('superseded_by')
+    .whereNotIn('id', recordIds)
+    .select('id');
+  if (others.length)
+    throw new ConflictError(`Reference ${referenceId} has been settled again since the exclusion (record ${others[0].id}); restoring the withdrawn record would count its effects twice, so the exclusion cannot be undone.`, { settledRecords: others.map((o) => o.id) });
+  for (const x of rows) {
+    await updateExtraction(trx, x.id, { state: 'settled', version: x.version + 1, updated_by: actorId });
+    await insertSettlement(trx, { referenceId, assignmentId: x.assignment_id, recordId: x.id, kind: 'restored', actorId, rationale: reason });
+    await recordAudit(trx, { actorId, action: 'record.restore', entityType: 'extraction', entityId: x.id, details: { reason } });
+  }
+  return bumpRegistry(trx, { kind: 'restore', referenceId, actorId, details: { reason, records: recordIds } });
+}
+
 /** Locks a settled effect and its record; refuses effects outside the current settled registry. */
 async function lockSettledEffect(trx: Knex.Transaction, effectId: number): Promise<{ f: EffectRow; x: ExtractionRow }> {
   const f = await lockEffect(trx, effectId);

@@ -10,7 +10,7 @@ import { lockRef, refCounts, unscreenedRefs, updateRef } from '../repositories/r
 import { decisionsOf, exclusionReasonCounts, insertDecision, markUndone } from '../repositories/screening.js';
 import { lockSettledRecordsOf } from '../repositories/settled-effects.js';
 import type { Actor } from './coding.js';
-import { withdrawRecordIn } from './records.js';
+import { restoreWithdrawnRecordsIn, withdrawRecordIn } from './records.js';
 import { summary } from './references.js';
 
 /**
@@ -34,7 +34,7 @@ export async function decide(db: Knex, refId: number, input: ScreeningDecisionIn
     const withdrawnRecords = input.decision === 'excluded' ? await lockSettledRecordsOf(trx, refId) : [];
     if (withdrawnRecords.length && !hasRole(actor.roles, 'curator'))
       throw new ForbiddenError(`Reference ${refId} has settled effects; only a curator may exclude it (that withdraws them).`);
-    const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id });
+    const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id, withdrawn_records: withdrawnRecords });
     await updateRef(trx, refId, { screening_status: input.decision, version: r.version + 1 });
     let registryVersion: number | null = null;
     const why = `Excluded at screening: ${input.reason ? EXCLUSION_REASON_LABELS[input.reason] : ''}${input.note ? ` (${input.note})` : ''}`;
@@ -56,7 +56,8 @@ export async function decide(db: Knex, refId: number, input: ScreeningDecisionIn
 /**
  * Takes back the reference's latest decision: it stops counting (kept in the table, marked undone, audited) and the
  * reference returns to the decision before it, or to unscreened. Only its screener or a curator may, against the
- * version they saw.
+ * version they saw. Undoing an exclusion that withdrew settled records settles exactly those again (a curator's
+ * call, one registry change), or refuses with 409 when that is no longer safe.
  */
 export async function undoLast(db: Knex, refId: number, input: ScreeningUndoInput, actor: { id: number; roles: Role[] }): Promise<ScreeningUndoResult> {
   return db.transaction(async (trx) => {
@@ -69,17 +70,23 @@ export async function undoLast(db: Knex, refId: number, input: ScreeningUndoInpu
     if (!last) throw new ConflictError(`Reference ${refId} has no decision to undo.`);
     if (last.decided_by !== actor.id && !hasRole(actor.roles, 'curator'))
       throw new ForbiddenError(`The last decision on reference ${refId} is ${last.login ?? 'someone else'}'s; only they or a curator may undo it.`);
+    const restoredRecords = (last.withdrawn_records ?? []).map(Number);
+    if (restoredRecords.length && !hasRole(actor.roles, 'curator'))
+      throw new ForbiddenError(`Undoing the exclusion of reference ${refId} settles its withdrawn effects again; only a curator may.`);
     await markUndone(trx, last.id, actor.id);
     const screeningStatus = before?.decision ?? 'unscreened';
     await updateRef(trx, refId, { screening_status: screeningStatus, version: r.version + 1 });
+    const registryVersion = restoredRecords.length
+      ? await restoreWithdrawnRecordsIn(trx, actor.id, refId, restoredRecords, `Exclusion undone at screening (decision ${last.id})`)
+      : null;
     await recordAudit(trx, {
       actorId: actor.id,
       action: 'screening.undo',
       entityType: 'reference',
       entityId: refId,
-      details: { undoneDecision: last.id, decision: last.decision, reason: last.reason, now: screeningStatus },
+      details: { undoneDecision: last.id, decision: last.decision, reason: last.reason, now: screeningStatus, restoredRecords },
     });
-    return { refId, undone: { id: Number(last.id), decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1 };
+    return { refId, undone: { id: Number(last.id), decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1, restoredRecords, registryVersion };
   });
 }
 

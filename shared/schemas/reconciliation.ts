@@ -187,7 +187,7 @@ export const recordHistorySchema = z.object({
     z.object({
       id: z.number().int(),
       recordId: z.number().int(),
-      kind: z.enum(['matched', 'reconciled', 'direct', 'reopened', 'withdrawn', 'edited']),
+      kind: z.enum(['matched', 'reconciled', 'direct', 'reopened', 'withdrawn', 'edited', 'restored']),
       by: z.string().nullable(),
       rationale: z.string(),
       at: timestamp,

@@ -248,6 +248,10 @@ export const screeningUndoResultSchema = z.object({
   /** What the reference is now: the decision before it, or unscreened. */
   screeningStatus: z.enum(SCREENING_STATUSES),
   version: z.number().int(),
+  /** The settled records the undone exclusion had withdrawn, settled again. */
+  restoredRecords: z.array(z.number().int()),
+  /** The registry version after restoring them (null when nothing was restored). */
+  registryVersion: z.number().int().nullable(),
 });
 export type ScreeningUndoResult = z.infer<typeof screeningUndoResultSchema>;
 

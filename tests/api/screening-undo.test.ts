@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { screeningUndoResultSchema } from '../../shared/schemas/references.js';
 import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { bib, clearSearch } from '../support/references.js';
+import { settleInventedReference } from './syntheses-fixtures.js';
 
 describe('screening: undo of the last decision', () => {
   let t: TestApp;
@@ -76,5 +77,55 @@ describe('screening: undo of the last decision', () => {
     const bad = await coder.post(`/api/references/${ids[2]}/screening/undo`).send({});
     expect(bad.status).toBe(400);
     expect(bad.body.error.details[0].path).toBe('body.version');
+  });
+
+  it('undoing a curator’s exclusion settles exactly the records it withdrew again: back in a synthesis, one registry change, audited', async () => {
+    const s = await settleInventedReference(t.ctx.db, 'luminance', 2015, [{ mean1: 660, mean2: 600, sd: 80, n: 16, second: { mean1: 650, mean2: 605 } }]);
+    const id = s.referenceId;
+    const synthesis = async () => (await coder.post('/api/syntheses').send({ filters: { manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' }, method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } })).body;
+    const before = await synthesis();
+    expect(before.counts).toEqual({ effects: 2, studies: 1, references: 1 });
+    expect((await decide(coder, id, { decision: 'included' })).status).toBe(201);
+    const excluded = await decide(curator, id, { decision: 'excluded', reason: 'review_article' });
+    expect(excluded.body.withdrawnRecords).toEqual([s.recordId]);
+    // Nothing left to pool, and the effects list is empty.
+    expect((await coder.get(`/api/effects?referenceId=${id}`)).body.total).toBe(0);
+
+    // A contributor may not undo a curator's exclusion.
+    expect((await undo(coder, id)).status).toBe(403);
+    const changes = async () => Number((await t.ctx.db('registry_changes').count({ n: '*' }).first())!.n);
+    const changesBefore = await changes();
+    const res = await undo(curator, id);
+    expect(res.status).toBe(200);
+    const body = screeningUndoResultSchema.parse(res.body);
+    expect(body).toMatchObject({ undone: { decision: 'excluded' }, screeningStatus: 'included', restoredRecords: [s.recordId] });
+    expect(await changes()).toBe(changesBefore + 1);
+    expect(body.registryVersion).toBeGreaterThan(excluded.body.registryVersion);
+    const after = await synthesis();
+    expect(after.counts).toEqual({ effects: 2, studies: 1, references: 1 });
+    expect(after.registryVersion).toBe(body.registryVersion);
+    expect(after.result.estimate).toBeCloseTo(before.result.estimate, 12);
+    expect((await t.ctx.db('extractions').where({ id: s.recordId }).first()).state).toBe('settled');
+    const settlement = await t.ctx.db('settlements').where({ record_id: s.recordId }).orderBy('id', 'desc').first();
+    expect(settlement).toMatchObject({ kind: 'restored', rationale: expect.stringMatching(/Exclusion undone at screening/) });
+    expect(await t.ctx.db('audit_log').where({ action: 'record.restore', entity_id: String(s.recordId) })).toHaveLength(1);
+    const audit = await t.ctx.db('audit_log').where({ action: 'screening.undo', entity_id: String(id) }).first();
+    expect(audit.details).toMatchObject({ decision: 'excluded', restoredRecords: [s.recordId] });
+  });
+
+  it('refuses (409, in words) to restore when the reference was settled again since the exclusion, and changes nothing', async () => {
+    const s = await settleInventedReference(t.ctx.db, 'luminance', 2016, [{ mean1: 640, mean2: 600, sd: 80, n: 20 }]);
+    const id = s.referenceId;
+    const excluded = await decide(curator, id, { decision: 'excluded', reason: 'review_article' });
+    expect(excluded.body.withdrawnRecords).toEqual([s.recordId]);
+    // Another settled record of the same reference appears (as a later coding would make).
+    const [other] = await t.ctx.db('extractions').insert({ reference_id: id, kind: 'settled', state: 'settled', record_version: 1, updated_by: null }).returning('id');
+    const v = await version(id);
+    const res = await undo(curator, id);
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(new RegExp(`settled again since the exclusion \\(record ${other.id}\\).*cannot be undone`));
+    expect((await coder.get(`/api/references/${id}`)).body.reference).toMatchObject({ version: v, screeningStatus: 'excluded' });
+    expect((await t.ctx.db('extractions').where({ id: s.recordId }).first()).state).toBe('withdrawn');
+    expect(await t.ctx.db('screening_decisions').where({ ref_id: id }).whereNotNull('undone_at')).toHaveLength(0);
   });
 });
