@@ -34,6 +34,8 @@ export async function insertFollow(db: Db, f: Pick<FollowRow, 'user_id' | 'reque
 export const findFollow = (db: Db, id: number): Promise<FollowRow | undefined> => db('follows').where({ id }).first();
 export const listFollowsOf = (db: Db, userId: number): Promise<FollowRow[]> => db('follows').where({ user_id: userId }).orderBy('id');
 export const followsBehind = (db: Db, version: number): Promise<FollowRow[]> => db('follows').where('last_version', '<', version).orderBy('id');
+/** Deletes a follow only when it is the user's own; answers how many rows went. */
+export const deleteFollowOf = (db: Db, userId: number, id: number): Promise<number> => db('follows').where({ id, user_id: userId }).delete();
 export const deleteFollowByToken = (db: Db, token: string): Promise<number> => db('follows').where({ unsubscribe_token: token }).delete();
 
 export async function markFollowChecked(db: Db, id: number, version: number, result?: unknown, mailedAt?: Date): Promise<void> {

@@ -3,7 +3,7 @@ import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { requireSignIn } from '../auth/require-role.js';
 import { followCreateSchema, followIdSchema, unsubscribeSchema } from '../../shared/schemas/following.js';
-import { followFeed, followSynthesis, unsubscribe } from '../services/following.js';
+import { followFeed, followSynthesis, listMyFollows, stopFollowing, unsubscribe } from '../services/following.js';
 
 /** Following a synthesis: anyone signed in follows; the feed and the unsubscribe link work signed out. */
 export function followsRouter(ctx: AppContext) {
@@ -12,6 +12,17 @@ export function followsRouter(ctx: AppContext) {
   router.post('/follows', requireSignIn, async (req, res) => {
     const input = parseInput(followCreateSchema, req.body);
     res.status(201).json(await followSynthesis(ctx.db, req.user!.id, input, ctx.appOrigin));
+  });
+
+  router.get('/follows', requireSignIn, async (req, res) => {
+    res.json(await listMyFollows(ctx.db, req.user!.id, ctx.appOrigin));
+  });
+
+  // Takes no body: the path names the follow and the session the follower.
+  router.delete('/follows/:id', requireSignIn, async (req, res) => {
+    const { id } = parseInput(followIdSchema, req.params, 'path');
+    await stopFollowing(ctx.db, req.user!.id, id);
+    res.status(204).end();
   });
 
   router.get('/follows/:id/feed.atom', async (req, res) => {

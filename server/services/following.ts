@@ -8,9 +8,10 @@ import { queueMails } from './mail.js';
 import { NotFoundError } from '../lib/errors.js';
 import { contactsOf } from '../repositories/users.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
-import { deleteFollowByToken, findFollow, followsBehind, insertFollow, insertFollowEvent, listFollowEvents, markFollowChecked, type FollowRow } from '../repositories/follows.js';
+import { deleteFollowByToken, deleteFollowOf, findFollow, listFollowsOf, followsBehind, insertFollow, insertFollowEvent, listFollowEvents, markFollowChecked, type FollowRow } from '../repositories/follows.js';
 import { atomFeed, compareFollowed, describeEvent, type FollowedResult } from '../../shared/following/compare.js';
-import type { Follow, FollowCreate, UnsubscribeAnswer } from '../../shared/schemas/following.js';
+import { followedRequestSummary } from '../../shared/following/summary.js';
+import type { Follow, FollowCreate, FollowList, UnsubscribeAnswer } from '../../shared/schemas/following.js';
 import type { SynthesisRequest } from '../../shared/schemas/synthesis.js';
 
 type Stored = FollowedResult & { fingerprint: string };
@@ -48,6 +49,17 @@ export async function followSynthesis(db: Knex, userId: number, input: FollowCre
     last_version: version,
   });
   return view(row, origin);
+}
+
+/** The caller's own follows, oldest first, each with its request in words. */
+export async function listMyFollows(db: Knex, userId: number, origin: string): Promise<FollowList> {
+  const rows = await listFollowsOf(db, userId);
+  return { items: rows.map((f) => ({ ...view(f, origin), summary: followedRequestSummary(f.request) })) };
+}
+
+/** Signed in, without the mail's link: only the follower may stop; anyone else is told there is no such follow. */
+export async function stopFollowing(db: Knex, userId: number, id: number): Promise<void> {
+  if ((await deleteFollowOf(db, userId, id)) === 0) throw new NotFoundError(`You follow nothing with id ${id}.`);
 }
 
 /** Signed out, from the mail's link: the token alone says which follow. */

@@ -26,6 +26,12 @@ export const followSchema = z.object({
 });
 export type Follow = z.infer<typeof followSchema>;
 
+/** One of the caller's own follows, with the followed request in words. */
+export const followListItemSchema = followSchema.extend({ summary: z.string() });
+export type FollowListItem = z.infer<typeof followListItemSchema>;
+export const followListSchema = z.object({ items: z.array(followListItemSchema) });
+export type FollowList = z.infer<typeof followListSchema>;
+
 /** The signed-out unsubscribe link's answer: false when the token no longer names a follow. */
 export const unsubscribeAnswerSchema = z.object({ unsubscribed: z.boolean() });
 export type UnsubscribeAnswer = z.infer<typeof unsubscribeAnswerSchema>;

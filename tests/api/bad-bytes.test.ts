@@ -39,7 +39,7 @@ const FIELDS = [
 ];
 
 /** Routes that read nothing from a body (the path says it all): a body is ignored and the write is the route's own. */
-const TAKES_NO_BODY = new Set(['put /api/admin/users/:id/roles/:role', 'delete /api/admin/users/:id/roles/:role']);
+const TAKES_NO_BODY = new Set(['put /api/admin/users/:id/roles/:role', 'delete /api/admin/users/:id/roles/:role', 'delete /api/follows/:id']);
 
 function badObject(bad: string) {
   const body: Record<string, unknown> = Object.fromEntries(FIELDS.map((f) => [f, bad]));
