@@ -21,6 +21,21 @@ export async function insertSnapshot(db: Db, s: NewSnapshot): Promise<void> {
   });
 }
 
+/**
+ * The lock on saving one request (jsonb's text is canonical), held to the end of the transaction: `wait` blocks
+ * until it is free, otherwise answers false at once when another transaction holds it.
+ */
+export async function lockSnapshotRequest(db: Db, request: unknown, wait: boolean): Promise<boolean> {
+  const fn = wait ? 'pg_advisory_xact_lock' : 'pg_try_advisory_xact_lock';
+  const r = await db.raw(`SELECT ${fn}(hashtext('snapshot:' || ?::jsonb::text)) AS got`, [JSON.stringify(request)]);
+  return wait || r.rows[0].got === true;
+}
+
+/** Snapshots of exactly this request at this registry version (jsonb equality ignores key order). */
+export async function snapshotsOfRequest(db: Db, request: unknown, registryVersion: number): Promise<Array<Pick<SnapshotRow, 'id' | 'title' | 'metric'>>> {
+  return db('snapshots').where('registry_version', registryVersion).whereRaw('request = ?::jsonb', [JSON.stringify(request)]).orderBy('created_at').select('id', 'title', 'metric');
+}
+
 export async function findSnapshot(db: Db, id: string): Promise<(SnapshotRow & Pick<UserRow, 'login' | 'name'>) | undefined> {
   return db('snapshots').leftJoin('users', 'users.id', 'snapshots.created_by').where('snapshots.id', id).first('snapshots.*', 'users.login', 'users.name');
 }

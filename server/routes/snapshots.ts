@@ -22,7 +22,8 @@ export function snapshotsRouter(ctx: AppContext) {
 
   router.post('/snapshots', requireRole('reviewer'), async (req, res) => {
     const { title, ...request } = parseInput(snapshotCreateSchema, req.body);
-    res.status(201).json(await createSnapshot(ctx.db, req.user!.id, request, title, origin));
+    const created = await createSnapshot(ctx.db, req.user!.id, request, title, origin);
+    res.status(created.existing ? 200 : 201).json(created);
   });
 
   router.get('/snapshots/:id', async (req, res) => {

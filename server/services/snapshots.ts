@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import type { Knex } from 'knex';
-import { NotFoundError } from '../lib/errors.js';
+import { ConflictError, NotFoundError } from '../lib/errors.js';
 import { cslEntries, toBibtex } from '../adapters/citations.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
@@ -9,7 +9,7 @@ import { querySettledEffects, settledReferenceCount, type SettledEffectRow } fro
 import { codedReferenceCount } from '../repositories/extractions.js';
 import { refsForCitation } from '../repositories/refs.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
-import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows } from '../repositories/snapshots.js';
+import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows, lockSnapshotRequest, snapshotsOfRequest } from '../repositories/snapshots.js';
 import { requestFilters, synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
@@ -53,12 +53,45 @@ export function defaultTitle(request: SynthesisRequest, metric: string): string 
 }
 
 const newId = () => randomBytes(8).toString('hex');
+const links = (id: string, appOrigin: string) => ({ id, url: `${appOrigin}/snapshots/${id}`, apiUrl: `${appOrigin}/api/snapshots/${id}` });
 
+class SameRequestBeingSaved extends Error {}
+
+/** The snapshot already saved of this request and title (or the default title) on this registry version. */
+async function sameSnapshot(db: Db, request: SynthesisRequest, title: string | undefined, registryVersion: number, appOrigin: string): Promise<CreatedSnapshot | null> {
+  const same = (await snapshotsOfRequest(db, request, registryVersion)).find((r) => r.title === (title ?? defaultTitle(request, r.metric)));
+  return same ? { ...links(same.id, appOrigin), registryVersion, existing: true } : null;
+}
+
+/**
+ * Saves a snapshot, or answers the one already saved of the same request and title on this registry version.
+ * While the same request is being saved elsewhere this one waits for that save, then looks again outside a
+ * repeatable-read view (one taken before that save committed would not see its row).
+ */
 export async function createSnapshot(db: Knex, actorId: number, request: SynthesisRequest, title: string | undefined, appOrigin: string): Promise<CreatedSnapshot> {
+  for (let attempt = 0; ; attempt += 1) {
+    try {
+      return await saveSnapshot(db, actorId, request, title, appOrigin);
+    } catch (err) {
+      if (!(err instanceof SameRequestBeingSaved)) throw err;
+      if (attempt >= 9) throw new ConflictError('The same snapshot is being saved by another request; try again.');
+      const found = await db.transaction(async (trx) => {
+        await lockSnapshotRequest(trx, request, true);
+        return sameSnapshot(trx, request, title, await currentRegistryVersion(trx), appOrigin);
+      });
+      if (found) return found;
+    }
+  }
+}
+
+async function saveSnapshot(db: Knex, actorId: number, request: SynthesisRequest, title: string | undefined, appOrigin: string): Promise<CreatedSnapshot> {
   // One consistent view of the registry: the version, the rows and the counts belong together.
   return db.transaction(
     async (trx) => {
+      if (!(await lockSnapshotRequest(trx, request, false))) throw new SameRequestBeingSaved();
       const registryVersion = await currentRegistryVersion(trx);
+      const same = await sameSnapshot(trx, request, title, registryVersion, appOrigin);
+      if (same) return same;
       const effects = await querySettledEffects(trx, requestFilters(request));
       const output = synthesize(effects, request);
       const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
@@ -89,7 +122,7 @@ export async function createSnapshot(db: Knex, actorId: number, request: Synthes
         entityId: id,
         details: { registryVersion, k: output.counts.studies, metric: output.metric, method: request.method },
       });
-      return { id, url: `${appOrigin}/snapshots/${id}`, apiUrl: `${appOrigin}/api/snapshots/${id}`, registryVersion };
+      return { ...links(id, appOrigin), registryVersion, existing: false };
     },
     { isolationLevel: 'repeatable read' },
   );

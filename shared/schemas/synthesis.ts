@@ -219,7 +219,14 @@ export const snapshotPageSchema = pageSchema(snapshotSummarySchema);
 export type SnapshotPage = z.infer<typeof snapshotPageSchema>;
 
 /** POST /api/snapshots */
-export const createdSnapshotSchema = z.object({ id: z.string(), url: z.string(), apiUrl: z.string(), registryVersion: z.number().int() });
+export const createdSnapshotSchema = z.object({
+  id: z.string(),
+  url: z.string(),
+  apiUrl: z.string(),
+  registryVersion: z.number().int(),
+  /** true when the same request and title were saved before on this registry version: this is that snapshot (200, not 201) */
+  existing: z.boolean(),
+});
 export type CreatedSnapshot = z.infer<typeof createdSnapshotSchema>;
 
 export const snapshotReferenceSchema = z.object({ id: z.number().int(), title: z.string(), year: z.number().int().nullable(), doi: z.string().nullable(), firstAuthor: z.string().nullable() });

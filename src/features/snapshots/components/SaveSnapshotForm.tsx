@@ -34,7 +34,7 @@ export function SaveSnapshotForm({ request }: { request: SynthesisRequest }) {
       </Button>
       {save.data && (
         <p role="status" className="text-sm">
-          ✓ Saved, frozen at registry version {save.data.registryVersion}: <Link to={`/snapshots/${save.data.id}`}>{save.data.url}</Link>
+          ✓ {save.data.existing ? 'Already saved, the same request' : 'Saved'}, frozen at registry version {save.data.registryVersion}: <Link to={`/snapshots/${save.data.id}`}>{save.data.url}</Link>
         </p>
       )}
       {!titleError && <ErrorNote error={save.error} title="Not saved" />}
