@@ -23,6 +23,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/reconciliation', label: 'Reconcile', role: 'curator' },
   { to: '/agreement', label: 'Agreement', role: ['curator', 'reviewer'] },
   { to: '/manipulations', label: 'Vocabulary' },
+  { to: '/follows', label: 'My follows', signedIn: true },
   { to: '/settings/tokens', label: 'API tokens', signedIn: true },
   { to: '/admin/people', label: 'People', role: 'admin' },
   { to: '/admin/audit', label: 'Audit log', role: 'admin' },

@@ -22,6 +22,7 @@ import { ScreeningPage } from './routes/ScreeningPage';
 import { SearchPage } from './routes/SearchPage';
 import { SnapshotsPage } from './routes/SnapshotsPage';
 import { TokensPage } from './routes/TokensPage';
+import { FollowsPage } from './routes/FollowsPage';
 
 // Heavy screens load their code on first visit, each in its own chunk (plotly is fetched only when a plot draws).
 const lazyScreen = <M,>(load: () => Promise<M>, pick: (m: M) => ComponentType) => async () => ({ Component: pick(await load()) });
@@ -42,6 +43,7 @@ export function screens(qc: QueryClient): RouteObject[] {
   return [
     { index: true, element: <HomePage /> },
     { path: 'settings/tokens', element: <TokensPage /> },
+    { path: 'follows', element: <FollowsPage /> },
     { path: 'synthesis', lazy: SynthesisPage, loader: load.synthesis },
     { path: 'snapshots', element: <SnapshotsPage /> },
     { path: 'snapshots/:id', lazy: SnapshotPage, loader: load.snapshot },

@@ -36,12 +36,14 @@ const synthesis = domain('syntheses');
 const snapshots = domain('snapshots');
 const mail = domain('mail');
 const trials = domain('trials');
+const follows = domain('follows');
 
 export const queryKeys = {
   auth: { ...auth, me: () => [...auth.all, 'me'] as const },
   users,
   audit,
   tokens,
+  follows,
   mail: {
     ...mail,
     /** The delivery log is the domain's list; the mailbox (what the mail catcher received) sits beside it. */
