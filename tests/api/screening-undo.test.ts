@@ -1,7 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { screeningUndoResultSchema } from '../../shared/schemas/references.js';
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
-import { bib, clearSearch } from '../support/references.js';
+import { type Agent, type TestApp } from '../support/test-app.js';
+import { importBibtex, screeningTeam } from '../support/screening-team.js';
+import { bib } from '../support/references.js';
 import { settleInventedReference } from './syntheses-fixtures.js';
 
 describe('screening: undo of the last decision', () => {
@@ -14,15 +15,9 @@ describe('screening: undo of the last decision', () => {
   const decide = async (who: Agent, id: number, body: object) => who.post(`/api/references/${id}/screening`).send({ ...body, version: await version(id) });
   const undo = async (who: Agent, id: number) => who.post(`/api/references/${id}/screening/undo`).send({ version: await version(id) });
   beforeAll(async () => {
-    t = await createTestApp();
-    await resetDb(t.ctx.db);
-    await clearSearch(t);
-    coder = await signIn(t.app, 'coder1');
-    coder2 = await signIn(t.app, 'coder2');
-    curator = await signIn(t.app, 'curator');
+    ({ t, coder, coder2, curator } = await screeningTeam());
     const text = Array.from({ length: 3 }, (_, i) => bib(`u${i}`, { title: `Undo study ${i} on duration judgement`, author: `Undo${i}, B`, year: String(2010 + i), doi: `10.5555/undo.${i}` })).join('\n');
-    const res = await coder.post('/api/imports').send({ format: 'bibtex', text });
-    ids.push(...res.body.entries.map((e: { referenceId: number }) => e.referenceId));
+    ids.push(...(await importBibtex(coder, text)));
   });
   afterAll(async () => {
     await t.close();

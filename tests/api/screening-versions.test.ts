@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
-import { bib, clearSearch } from '../support/references.js';
+import { type Agent, type TestApp } from '../support/test-app.js';
+import { importBibtex, screeningTeam } from '../support/screening-team.js';
+import { bib } from '../support/references.js';
 import { settleInventedReference } from './syntheses-fixtures.js';
 
 describe('screening decisions carry a version; excluding settled effects is a curator’s call', () => {
@@ -10,14 +11,8 @@ describe('screening decisions carry a version; excluding settled effects is a cu
   let curator: Agent;
   let refId: number;
   beforeAll(async () => {
-    t = await createTestApp();
-    await resetDb(t.ctx.db);
-    await clearSearch(t);
-    coder = await signIn(t.app, 'coder1');
-    coder2 = await signIn(t.app, 'coder2');
-    curator = await signIn(t.app, 'curator');
-    const res = await coder.post('/api/imports').send({ format: 'bibtex', text: bib('v1', { title: 'Two tabs on one interval timing study', author: 'Tabs, A', year: '2011', doi: '10.5555/screen.tabs' }) });
-    refId = res.body.entries[0].referenceId;
+    ({ t, coder, coder2, curator } = await screeningTeam());
+    [refId] = await importBibtex(coder, bib('v1', { title: 'Two tabs on one interval timing study', author: 'Tabs, A', year: '2011', doi: '10.5555/screen.tabs' }));
   });
   afterAll(async () => {
     await t.close();

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
-import { bib, clearSearch } from '../support/references.js';
+import { type Agent, type TestApp } from '../support/test-app.js';
+import { importBibtex, screeningTeam } from '../support/screening-team.js';
+import { bib } from '../support/references.js';
 
 describe('screening', () => {
   let t: TestApp;
@@ -9,15 +10,9 @@ describe('screening', () => {
   let curator: Agent;
   const ids: number[] = [];
   beforeAll(async () => {
-    t = await createTestApp();
-    await resetDb(t.ctx.db);
-    await clearSearch(t);
-    coder = await signIn(t.app, 'coder1');
-    coder2 = await signIn(t.app, 'coder2');
-    curator = await signIn(t.app, 'curator');
+    ({ t, coder, coder2, curator } = await screeningTeam());
     const text = Array.from({ length: 6 }, (_, i) => bib(`s${i}`, { title: `Screening study number ${i} on interval timing`, author: `Person${i}, A`, year: String(2000 + i), doi: `10.5555/screen.${i}` })).join('\n');
-    const res = await coder.post('/api/imports').send({ format: 'bibtex', text });
-    ids.push(...res.body.entries.map((e: { referenceId: number }) => e.referenceId));
+    ids.push(...(await importBibtex(coder, text)));
   });
   afterAll(async () => {
     await t.close();
