@@ -61,24 +61,30 @@ export async function claimReference(db: Knex, actorId: number, referenceId: num
 /**
  * Who may read an extraction: its coder; for a settled record, anyone (drafts of a reopened record:
  * curators). Blind coding: while a pair is not settled, only a curator outside the pair may read a
- * coder's sheet — the other coder is refused.
+ * coder's sheet — the other coder is 'blind' (they know it exists: the assignment names it).
  */
-/** Refusals answer exactly like a missing id (no 403 that reveals the record), except to the other coder of a pair, who knows it exists. */
-async function assertCanRead(db: Db, actor: Actor | null, x: ExtractionRow) {
-  const hidden = new NotFoundError(`No extraction ${x.id}.`);
-  if (x.kind === 'settled') {
-    if (x.state === 'draft' && !(actor && hasRole(actor.roles, 'curator'))) throw hidden;
-    return;
-  }
-  if (!actor) throw hidden;
-  if (x.coder_id === actor.id) return;
+async function visibilityOf(db: Db, actor: Actor | null, x: ExtractionRow): Promise<'visible' | 'blind' | 'hidden'> {
+  if (x.kind === 'settled') return x.state === 'draft' && !(actor && hasRole(actor.roles, 'curator')) ? 'hidden' : 'visible';
+  if (!actor) return 'hidden';
+  if (x.coder_id === actor.id) return 'visible';
   const a = x.assignment_id ? await findAssignment(db, x.assignment_id) : null;
   const settled = a?.state === 'settled' || x.state === 'settled';
   const inPair = a && (a.coder1_id === actor.id || a.coder2_id === actor.id);
-  if (inPair && !settled) throw new ForbiddenError('Coding is blind: you can see the other coder’s sheet once the pair is settled.');
-  if (settled && hasRole(actor.roles, 'contributor')) return;
-  if (hasRole(actor.roles, 'curator')) return;
-  throw hidden;
+  if (inPair && !settled) return 'blind';
+  if (settled && hasRole(actor.roles, 'contributor')) return 'visible';
+  return hasRole(actor.roles, 'curator') ? 'visible' : 'hidden';
+}
+
+/** Refusals answer exactly like a missing id (no 403 that reveals the record), except to the other coder of a pair, who knows it exists. */
+async function assertCanRead(db: Db, actor: Actor | null, x: ExtractionRow) {
+  const seen = await visibilityOf(db, actor, x);
+  if (seen === 'hidden') throw new NotFoundError(`No extraction ${x.id}.`);
+  if (seen === 'blind') throw new ForbiddenError('Coding is blind: you can see the other coder’s sheet once the pair is settled.');
+}
+
+/** Writes refuse a sheet the caller may not see like a missing id, before anything else can tell it apart. */
+async function assertNotHidden(db: Db, actor: Actor, x: ExtractionRow) {
+  if ((await visibilityOf(db, actor, x)) === 'hidden') throw new NotFoundError(`No extraction ${x.id}.`);
 }
 
 function extractionView(x: ExtractionDetailRow, editable: boolean): ExtractionDetail['extraction'] {
@@ -101,6 +107,7 @@ export async function getExtraction(db: Knex, actor: Actor | null, id: number): 
 async function lockEditable(trx: Knex.Transaction, actor: Actor, id: number, version: number) {
   const x = await lockExtraction(trx, id);
   if (!x) throw new NotFoundError(`No extraction ${id}.`);
+  await assertNotHidden(trx, actor, x);
   const mine = x.kind === 'coding' ? x.coder_id === actor.id : hasRole(actor.roles, 'curator');
   if (!mine) throw new ForbiddenError(x.kind === 'coding' ? 'Only its coder can edit a coding sheet.' : 'Only curators edit a reopened record.');
   if (x.state !== 'draft') throw new ConflictError(`This sheet is ${x.state} and can no longer be edited.`);
@@ -136,6 +143,7 @@ export async function submitExtraction(ctx: MailingDeps, actor: Actor, id: numbe
   const result = await ctx.db.transaction(async (trx): Promise<SubmitResult> => {
     let peek = await findExtraction(trx, id);
     if (!peek) throw new NotFoundError(`No extraction ${id}.`);
+    await assertNotHidden(trx, actor, peek);
     if (peek.kind !== 'coding') throw new UnprocessableError('A reopened record is settled, not submitted.');
     // A claim may be paired while it is submitted: the reference's lock orders the two (createAssignment takes it too).
     if (!peek.assignment_id) {
