@@ -28,8 +28,13 @@ function withinTime(work: Promise<void>, timeoutMs = PART_TIMEOUT_MS): Promise<v
 }
 
 async function httpReachable(url: string, timeoutMs = PART_TIMEOUT_MS) {
-  const res = await fetch(url, { signal: AbortSignal.timeout(timeoutMs), redirect: 'manual' });
-  await res.body?.cancel();
+  try {
+    const res = await fetch(url, { signal: AbortSignal.timeout(timeoutMs), redirect: 'manual' });
+    await res.body?.cancel();
+  } catch (err) {
+    const cause = (err as { cause?: { code?: string } }).cause?.code ?? (err as Error).message;
+    throw new Error(`${new URL(url).origin} cannot be reached (${cause})`);
+  }
 }
 
 function smtpGreets(host: string, port: number, timeoutMs = PART_TIMEOUT_MS) {
@@ -54,13 +59,14 @@ const notConfigured = Promise.resolve<PartState>({ state: 'not configured' });
 /** Whether the database and each configured outside service answer; the app is unavailable without its database. */
 export async function checkHealth(deps: { db: Knex; env: Env }): Promise<{ available: boolean; body: Health }> {
   const { env } = deps;
-  const [database, search, mail, oauth] = await Promise.all([
+  const [database, search, mail, oauth, doi] = await Promise.all([
     timed(() => withinTime(ping(deps.db))),
     env.MEILI_HOST ? timed(() => httpReachable(new URL('/health', env.MEILI_HOST).toString())) : notConfigured,
     env.SMTP_HOST && env.SMTP_PORT ? timed(() => smtpGreets(env.SMTP_HOST!, env.SMTP_PORT!)) : notConfigured,
     timed(() => httpReachable(new URL(env.GITHUB_AUTHORIZATION_URL).origin)),
+    timed(() => httpReachable(new URL(env.DOI_RESOLVER_URL).origin)),
   ]);
-  const parts = { database, search, mail, oauth };
+  const parts = { database, search, mail, oauth, doi };
   const allUp = Object.values(parts).every((p) => p.state !== 'down');
   return { available: database.state === 'up', body: { status: database.state !== 'up' ? 'unavailable' : allUp ? 'ok' : 'degraded', parts } };
 }

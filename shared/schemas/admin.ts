@@ -62,6 +62,6 @@ export type MailboxPage = z.infer<typeof mailboxPageSchema>;
 const partSchema = z.object({ state: z.enum(['up', 'down', 'not configured']), ms: z.number().optional(), message: z.string().optional() });
 export const healthSchema = z.object({
   status: z.enum(['ok', 'degraded', 'unavailable']),
-  parts: z.object({ database: partSchema, search: partSchema, mail: partSchema, oauth: partSchema }),
+  parts: z.object({ database: partSchema, search: partSchema, mail: partSchema, oauth: partSchema, doi: partSchema }),
 });
 export type Health = z.infer<typeof healthSchema>;

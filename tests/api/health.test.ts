@@ -15,7 +15,7 @@ describe('health and configuration', () => {
     expect(res.status).toBe(200);
     expect(res.body.parts.database.state).toBe('up');
     expect(res.body.parts.oauth.state).toBe('up');
-    expect(Object.keys(res.body.parts).sort()).toEqual(['database', 'mail', 'oauth', 'search']);
+    expect(Object.keys(res.body.parts).sort()).toEqual(['database', 'doi', 'mail', 'oauth', 'search']);
   });
 
   it('answers 503 when the database is unreachable', async () => {
