@@ -56,3 +56,51 @@ export async function listSnapshots(db: Db, q: PageRequest & { sort: 'created_at
   );
   return { total, rows };
 }
+
+/** What a snapshot's feed and re-check need without its whole output: the request and its headline result. */
+export interface SnapshotHead {
+  id: string;
+  title: string;
+  registry_version: string | number;
+  request: unknown;
+  result: unknown;
+  created_at: Date;
+}
+
+export async function findSnapshotHead(db: Db, id: string): Promise<SnapshotHead | undefined> {
+  return db('snapshots').where({ id }).first('id', 'title', 'registry_version', 'request', 'created_at', db.raw(`output->'result' AS result`));
+}
+
+/** The snapshot's frozen effects and pooled rows (their weights). */
+export async function snapshotEffectsAndRows(db: Db, id: string): Promise<{ effects: unknown; rows: unknown }> {
+  return db('snapshots').where({ id }).first('effects', db.raw(`output->'rows' AS rows`));
+}
+
+/** Snapshots not yet checked against this registry version, with what each last saw (null: never checked). */
+export async function snapshotsBehind(db: Db, version: number): Promise<Array<SnapshotHead & { fingerprint: string | null }>> {
+  return db('snapshots as s')
+    .leftJoin('snapshot_watch as w', 'w.snapshot_id', 's.id')
+    .where((q) => q.whereNull('w.last_version').orWhere('w.last_version', '<', version))
+    .orderBy('s.created_at')
+    .select('s.id', 's.title', 's.registry_version', 's.request', 's.created_at', db.raw(`s.output->'result' AS result`), 'w.fingerprint');
+}
+
+export async function markSnapshotChecked(db: Db, id: string, fingerprint: string, version: number): Promise<void> {
+  await db('snapshot_watch').insert({ snapshot_id: id, fingerprint, last_version: version }).onConflict('snapshot_id').merge();
+}
+
+export interface SnapshotChangeRow {
+  id: number;
+  snapshot_id: string;
+  at: Date;
+  registry_version: string | number;
+  result: unknown;
+  changes: unknown;
+  events: unknown;
+}
+
+export async function insertSnapshotChange(db: Db, c: Pick<SnapshotChangeRow, 'snapshot_id' | 'registry_version' | 'result' | 'changes' | 'events'>): Promise<void> {
+  await db('snapshot_changes').insert({ ...c, result: JSON.stringify(c.result), changes: JSON.stringify(c.changes), events: JSON.stringify(c.events) });
+}
+
+export const listSnapshotChanges = (db: Db, id: string): Promise<SnapshotChangeRow[]> => db('snapshot_changes').where({ snapshot_id: id }).orderBy('id', 'desc').limit(50);

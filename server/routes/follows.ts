@@ -2,10 +2,10 @@ import { Router } from 'express';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { requireSignIn } from '../auth/require-role.js';
-import { followCreateSchema, followIdSchema, unsubscribeSchema } from '../../shared/schemas/following.js';
-import { followFeed, followSynthesis, listMyFollows, stopFollowing, unsubscribe } from '../services/following.js';
+import { followChangesQuerySchema, followCreateSchema, followIdSchema, unsubscribeSchema } from '../../shared/schemas/following.js';
+import { followChanges, followFeed, followSynthesis, listMyFollows, stopFollowing, unsubscribe } from '../services/following.js';
 
-/** Following a synthesis: anyone signed in follows; the feed and the unsubscribe link work signed out. */
+/** Following a synthesis or a snapshot: anyone signed in follows; the feed and the unsubscribe link work signed out. */
 export function followsRouter(ctx: AppContext) {
   const router = Router();
 
@@ -23,6 +23,13 @@ export function followsRouter(ctx: AppContext) {
     const { id } = parseInput(followIdSchema, req.params, 'path');
     await stopFollowing(ctx.db, req.user!.id, id);
     res.status(204).end();
+  });
+
+  // The follower's own: the results compared are a synthesis run for them.
+  router.get('/follows/:id/changes', requireSignIn, async (req, res) => {
+    const { id } = parseInput(followIdSchema, req.params, 'path');
+    const { since } = parseInput(followChangesQuerySchema, req.query, 'query');
+    res.json(await followChanges(ctx.db, req.user!.id, id, since, ctx.appOrigin));
   });
 
   router.get('/follows/:id/feed.atom', async (req, res) => {

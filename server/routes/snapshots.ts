@@ -5,6 +5,7 @@ import { requireRole } from '../auth/require-role.js';
 import { UnauthorizedError } from '../lib/errors.js';
 import { snapshotCreateSchema, snapshotIdSchema, snapshotListQuerySchema } from '../../shared/schemas/synthesis.js';
 import { snapshotTrialsCsv } from '../services/trials.js';
+import { snapshotDiff, snapshotFeed } from '../services/snapshot-changes.js';
 import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCitation, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
 
 /** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
@@ -28,6 +29,16 @@ export function snapshotsRouter(ctx: AppContext) {
 
   router.get('/snapshots/:id', async (req, res) => {
     res.json(snapshotView(await load(req.params), origin));
+  });
+
+  // How today's registry differs from the snapshot (the snapshot itself never changes).
+  router.get('/snapshots/:id/diff', async (req, res) => {
+    res.json(await snapshotDiff(ctx.db, parseInput(snapshotIdSchema, req.params, 'path').id));
+  });
+
+  router.get('/snapshots/:id/feed.atom', async (req, res) => {
+    const xml = await snapshotFeed(ctx.db, parseInput(snapshotIdSchema, req.params, 'path').id, origin);
+    res.type('application/atom+xml; charset=utf-8').send(xml);
   });
 
   router.get('/snapshots/:id/citation', async (req, res) => {

@@ -1,3 +1,6 @@
+import type { PooledRow } from '../synthesis/types.js';
+import type { PoolResult } from '../stats/types.js';
+
 /** A followed synthesis's result, as last notified or as re-run now. */
 export interface FollowedResult {
   k: number;
@@ -8,6 +11,13 @@ export interface FollowedResult {
   tau2: number | null;
   /** study label → percent weight */
   weights: Record<string, number>;
+}
+
+/** The compared numbers of a synthesis: its pooled result and each pooled unit's weight. */
+export function followedResultOf(output: { result: PoolResult; rows: PooledRow[] }): FollowedResult {
+  const r = output.result;
+  const weights = Object.fromEntries(output.rows.map((row) => [`${row.referenceId}/${row.studyId}:${row.label}`, row.weight]));
+  return { k: r.k, estimate: r.estimate, se: r.se, ciLower: r.ci_lower, ciUpper: r.ci_upper, tau2: r.tau2, weights };
 }
 
 export interface FollowThresholds {

@@ -13,7 +13,7 @@ import {
   duplicatePageSchema, importPageSchema, importResultSchema, prismaCountsSchema, referenceDetailSchema, referencePageSchema, screeningQueueSchema,
   searchResultSchema,
 } from '../../shared/schemas/references.js';
-import { followListSchema, followSchema, unsubscribeAnswerSchema } from '../../shared/schemas/following.js';
+import { followChangesSchema, followListSchema, followSchema, snapshotDiffSchema, unsubscribeAnswerSchema } from '../../shared/schemas/following.js';
 import { manipulationPageSchema, settledEffectDetailSchema, settledEffectPageSchema } from '../../shared/schemas/registry.js';
 import {
   atlasLandingSchema, atlasManipulationSchema, atlasOutcomeSchema, atlasPooledSchema, atlasReferencePageSchema, createdSnapshotSchema, snapshotCitationSchema, snapshotPageSchema,
@@ -110,6 +110,10 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     const follow = await as.reviewer.post('/api/follows').send({ request });
     expectShape(followSchema, follow, 201);
     expectShape(followListSchema, await as.reviewer.get('/api/follows'));
+    expectShape(followChangesSchema, await as.reviewer.get(`/api/follows/${follow.body.id}/changes`));
+    expectShape(followSchema, await as.reviewer.post('/api/follows').send({ snapshotId: created.body.id }), 201);
+    expectShape(snapshotDiffSchema, await anonymous(t.app).get(`/api/snapshots/${created.body.id}/diff`));
+    expectShape(apiErrorSchema, await anonymous(t.app).get('/api/snapshots/NOT-AN-ID/feed.atom'), 400);
     const { unsubscribe_token: token } = await t.ctx.db('follows').where({ id: follow.body.id }).first('unsubscribe_token');
     expectShape(unsubscribeAnswerSchema, await anonymous(t.app).get(`/api/follows/unsubscribe?token=${token}`));
     expectShape(apiErrorSchema, await anonymous(t.app).get('/api/follows/abc/feed.atom'), 400);
