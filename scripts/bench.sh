@@ -17,7 +17,7 @@ pg_up "$RUN_ID" "$PG_PORT" scratch || exit 1
 pg_create_db chronometa_bench
 export DB_NAME=chronometa_bench
 source scripts/local-env.sh
-export NODE_ENV=test AUTH_RATE_LIMIT_PER_MINUTE=100000000 COMPUTE_RATE_LIMIT_PER_MINUTE=100000000 JOBS_ENABLED=false
+export NODE_ENV=test AUTH_RATE_LIMIT_PER_MINUTE=100000000 CALLER_BUDGET_PER_MINUTE=100000000 JOBS_ENABLED=false
 npm run --silent db:migrate >/dev/null || exit 1
 
 status=0

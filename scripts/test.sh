@@ -46,7 +46,7 @@ pg_up "$RUN_ID" "$PG_PORT" scratch || exit 1
 pg_create_db chronometa_test
 export DB_NAME=chronometa_test
 source scripts/local-env.sh
-export NODE_ENV=test UPLOAD_DIR="$RESULTS_DIR/uploads" AUTH_RATE_LIMIT_PER_MINUTE=100000 COMPUTE_RATE_LIMIT_PER_MINUTE=100000
+export NODE_ENV=test UPLOAD_DIR="$RESULTS_DIR/uploads" AUTH_RATE_LIMIT_PER_MINUTE=100000 CALLER_BUDGET_PER_MINUTE=100000000
 
 v_pass=0; v_fail=0; vitest_rc=0
 if [ -z "${E2E_ONLY:-}" ]; then

@@ -9,6 +9,7 @@ import { createPassport } from './auth/passport.js';
 import { bearerAuth, bearerToken } from './auth/api-tokens.js';
 import { originCheck } from './auth/origin-check.js';
 import { errorHandler, notFoundApi } from './lib/error-handler.js';
+import { budgetGate, CallerBudget } from './lib/caller-budget.js';
 import { authRouter } from './routes/auth.js';
 import { healthRouter } from './routes/health.js';
 import { meRouter } from './routes/me.js';
@@ -61,10 +62,6 @@ export function buildApp(ctx: AppContext) {
 
   // A Bearer token is checked before any router (the early ones too), so a revoked token is refused everywhere.
   app.use(bearerAuth(ctx.db));
-  // Routers that need larger bodies (bulk compute, uploads) mount their own parsers before this one.
-  for (const mount of earlyApiRouters) app.use('/api', mount(ctx));
-  app.use(express.json({ limit: '2mb' }));
-  app.use(express.urlencoded({ extended: false, limit: '1mb' }));
 
   const PgStore = connectPgSimple(session);
   const sessionMiddleware = session({
@@ -88,6 +85,12 @@ export function buildApp(ctx: AppContext) {
       initialize(req, res, () => restore(req, res, next));
     });
   });
+  // The caller is known from here on (session or token), so one budget covers every API route, the early ones too.
+  app.use('/api', budgetGate(new CallerBudget(env.CALLER_BUDGET_PER_MINUTE), (req) => req.path === '/health'));
+  // Routers that need larger bodies (bulk compute, uploads) mount their own parsers before this one.
+  for (const mount of earlyApiRouters) app.use('/api', mount(ctx));
+  app.use(express.json({ limit: '2mb' }));
+  app.use(express.urlencoded({ extended: false, limit: '1mb' }));
   app.use(originCheck([env.APP_ORIGIN, ...extraOrigins(env)]));
 
   app.use('/auth', authRouter(ctx, passport));

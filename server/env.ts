@@ -18,7 +18,8 @@ const envSchema = z.object({
   GITHUB_USER_EMAIL_URL: z.url().default('https://api.github.com/user/emails'),
   ADMIN_LOGINS: z.string().default(''),
   AUTH_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).default(120),
-  COMPUTE_RATE_LIMIT_PER_MINUTE: z.coerce.number().int().min(1).default(600),
+  /** cost units each caller may spend a minute across the API (a cheap read is 1; server/lib/caller-budget.ts) */
+  CALLER_BUDGET_PER_MINUTE: z.coerce.number().int().min(1).default(3000),
   MEILI_HOST: optionalUrl,
   MEILI_API_KEY: z.string().optional(),
   DOI_RESOLVER_URL: z.url().default('https://doi.org'),

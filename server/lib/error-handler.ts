@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ApiError } from '../../shared/schemas/common.js';
 import { AppError } from './errors.js';
+import { RateLimitedError } from './caller-budget.js';
 import { isDatabaseUnavailable } from './db-unavailable.js';
 
 const refusal = (code: string, message: string, details?: unknown): ApiError => ({ error: { code, message, ...(details !== undefined ? { details } : {}) } });
@@ -19,6 +20,7 @@ const VALUE_REFUSALS: Record<string, string> = {
 export function errorHandler(exposeInternals: boolean): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (err instanceof AppError) {
+      if (err instanceof RateLimitedError) res.set('Retry-After', String(err.retryAfterS));
       res.status(err.status).json(refusal(err.code, err.message, err.details));
       return;
     }

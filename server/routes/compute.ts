@@ -1,6 +1,6 @@
 import express, { Router } from 'express';
 import type { AppContext } from '../context.js';
-import { perMinuteLimit } from '../lib/rate-limit.js';
+import { chargeCaller, costs, prepayBody } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
 import { UnprocessableError, ValidationError } from '../lib/errors.js';
 import { computeEffect, pool, StatsInputError, StatsRangeError } from '../../shared/stats/index.js';
@@ -8,21 +8,22 @@ import { effectInputSchema, poolInputSchema } from '../../shared/schemas/compute
 
 /**
  * The stateless compute routes: POST /api/compute/pool and POST /api/compute/effect take and return the
- * same JSON as `npm run meta -- pool|effect`. Open to anyone, rate-limited per client, bodies up to
+ * same JSON as `npm run meta -- pool|effect`. Open to anyone, paid from the caller's budget by k, bodies up to
  * 200,000 effects (their own JSON parser, 20 MB, so it is mounted among the early routers).
  */
-export function computeRouter(ctx: AppContext) {
+export function computeRouter(_ctx: AppContext) {
   const router = Router();
-  const limiter = perMinuteLimit(ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE, 'Too many compute requests; wait a minute and try again.');
   // 200,000 effects and variances as JSON text are at most ~10 MB
   const json = express.json({ limit: '20mb' });
+  const prepay = prepayBody();
 
-  router.post('/compute/pool', limiter, json, (req, res) => {
+  router.post('/compute/pool', prepay, json, (req, res) => {
     const input = parseInput(poolInputSchema, req.body);
+    chargeCaller(req, costs.pool(input.effects.length), `Pooling ${input.effects.length} effects`);
     res.json(run(() => pool(input)));
   });
 
-  router.post('/compute/effect', limiter, json, (req, res) => {
+  router.post('/compute/effect', prepay, json, (req, res) => {
     const input = parseInput(effectInputSchema, req.body);
     res.json(run(() => computeEffect(input)));
   });

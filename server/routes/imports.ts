@@ -6,6 +6,7 @@ import { IMPORT_FORMATS, importEntriesQuerySchema, importListQuerySchema, import
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { ValidationError } from '../lib/errors.js';
+import { costs, prepayBody } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
 import { getImport, importDois, importText, listImports } from '../services/imports.js';
 
@@ -15,7 +16,7 @@ const EXTENSIONS: Record<string, ImportFormat> = { '.bib': 'bibtex', '.bibtex': 
 /** Pasted files can be large: this parser runs before the app's 2 MB JSON parser, for POST /imports only. */
 export function importsBodyRouter() {
   const router = Router();
-  router.post('/imports', express.json({ limit: '25mb' }));
+  router.post('/imports', prepayBody(costs.import), express.json({ limit: '25mb' }));
   return router;
 }
 

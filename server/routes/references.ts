@@ -8,6 +8,7 @@ import { exportQuerySchema, referenceEditSchema, referenceListQuerySchema, scree
 import { requireRole, requireSignIn } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { ValidationError } from '../lib/errors.js';
+import { chargeCaller, costs } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
 import { addAttachment, ATTACHMENT_MAX_BYTES, attachmentFile } from '../services/attachments.js';
 import { editReference, exportReferences, getReference, listReferences, mergeReferences } from '../services/references.js';
@@ -35,6 +36,7 @@ export function referencesRouter(ctx: AppContext) {
 
   router.get('/references/export', async (req, res) => {
     const q = parseInput(exportQuerySchema, req.query, 'query');
+    chargeCaller(req, costs.references(q.ids.length), `An export of ${q.ids.length} references`);
     const out = await exportReferences(ctx.db, q.ids, q.format);
     res.attachment(out.filename).type(out.type).send(out.body);
   });

@@ -1,11 +1,13 @@
-import { Router } from 'express';
+import { Router, type Request } from 'express';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
 import { requireRole } from '../auth/require-role.js';
 import { UnauthorizedError } from '../lib/errors.js';
+import { chargeCaller, costs } from '../lib/caller-budget.js';
 import { snapshotCreateSchema, snapshotIdSchema, snapshotListQuerySchema } from '../../shared/schemas/synthesis.js';
 import { snapshotTrialsCsv } from '../services/trials.js';
 import { snapshotDiff, snapshotFeed } from '../services/snapshot-changes.js';
+import { synthesisSize } from '../services/synthesis.js';
 import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCitation, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
 
 /** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
@@ -13,6 +15,12 @@ export function snapshotsRouter(ctx: AppContext) {
   const router = Router();
   const origin = ctx.appOrigin;
   const load = (params: unknown) => loadSnapshot(ctx.db, parseInput(snapshotIdSchema, params, 'path').id);
+  /** a snapshot's exports are paid by their rows */
+  const loadForExport = async (req: Request) => {
+    const s = await load(req.params);
+    chargeCaller(req, costs.export(s.effects.length), `An export of ${s.effects.length} effects`);
+    return s;
+  };
   const attachment = (name: string) => `attachment; filename="${name}"`;
 
   router.get('/snapshots', async (req, res) => {
@@ -23,6 +31,8 @@ export function snapshotsRouter(ctx: AppContext) {
 
   router.post('/snapshots', requireRole('reviewer'), async (req, res) => {
     const { title, ...request } = parseInput(snapshotCreateSchema, req.body);
+    const k = await synthesisSize(ctx.db, request);
+    chargeCaller(req, costs.synthesis(k), `Saving a synthesis of ${k} effects`);
     const created = await createSnapshot(ctx.db, req.user!.id, request, title, origin);
     res.status(created.existing ? 200 : 201).json(created);
   });
@@ -46,28 +56,28 @@ export function snapshotsRouter(ctx: AppContext) {
   });
 
   router.get('/snapshots/:id/export.csv', async (req, res) => {
-    const s = await load(req.params);
+    const s = await loadForExport(req);
     res.type('text/csv; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.csv`)).send(snapshotCsv(s));
   });
 
   router.get('/snapshots/:id/effects.csv', async (req, res) => {
-    const s = await load(req.params);
+    const s = await loadForExport(req);
     res.type('text/csv; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}-effects.csv`)).send(snapshotEffectsCsv(s));
   });
 
   router.get('/snapshots/:id/export.json', async (req, res) => {
-    const s = await load(req.params);
+    const s = await loadForExport(req);
     res.set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.json`)).json(snapshotView(s, origin));
   });
 
   router.get('/snapshots/:id/trials.csv', async (req, res) => {
-    const s = await load(req.params);
+    const s = await loadForExport(req);
     const csv = await snapshotTrialsCsv(ctx.db, s.effects.map((e) => e.id));
     res.type('text/csv; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}-trials.csv`)).send(csv);
   });
 
   router.get('/snapshots/:id/references.bib', async (req, res) => {
-    const s = await load(req.params);
+    const s = await loadForExport(req);
     res.type('application/x-bibtex; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.bib`)).send(snapshotBibtex(s));
   });
 

@@ -1,9 +1,9 @@
 import { Router } from 'express';
 import type { AppContext } from '../context.js';
-import { perMinuteLimit } from '../lib/rate-limit.js';
+import { chargeCaller, costs } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
 import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
-import { liveSynthesisExport, registrySynthesis, synthesisFacets } from '../services/synthesis.js';
+import { liveSynthesisExport, registrySynthesis, synthesisFacets, synthesisSize } from '../services/synthesis.js';
 import { RegistryCache } from '../services/registry-cache.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
@@ -14,13 +14,14 @@ export function synthesesRouter(ctx: AppContext) {
   // registry version (any settled change retires them all); the header says whether this one was computed.
   const answers = new RegistryCache(64);
 
-  // Signed-out callers share the compute routes' per-client limit; signed-in users and tokens are not limited.
-  const anonymousLimit = perMinuteLimit(ctx.env.COMPUTE_RATE_LIMIT_PER_MINUTE, 'Too many syntheses from this address; wait a minute, or sign in.', (req) => !!req.user);
-
-  router.post('/syntheses', anonymousLimit, async (req, res) => {
+  // Each synthesis is paid from the caller's budget by the number of effects it covers (a kept answer costs less).
+  router.post('/syntheses', async (req, res) => {
     const request = parseInput(synthesisRequestSchema, req.body);
+    const key = JSON.stringify(request);
+    const [k, kept] = await Promise.all([synthesisSize(ctx.db, request), answers.has(ctx.db, key)]);
+    chargeCaller(req, costs.synthesis(k, kept), `A synthesis of ${k} effects`);
     let computed = false;
-    const body = await answers.get(ctx.db, JSON.stringify(request), () => {
+    const body = await answers.get(ctx.db, key, () => {
       computed = true;
       return registrySynthesis(ctx.db, request);
     });
@@ -28,9 +29,11 @@ export function synthesesRouter(ctx: AppContext) {
   });
 
   // A link (GET) so a browser downloads it as it is and a script can fetch it; the name carries the registry version.
-  router.get('/syntheses/export/:file', anonymousLimit, async (req, res) => {
+  router.get('/syntheses/export/:file', async (req, res) => {
     const { file } = parseInput(synthesisExportPathSchema, req.params, 'path');
     const { request } = parseInput(synthesisExportQuerySchema, req.query, 'query');
+    const k = await synthesisSize(ctx.db, request);
+    chargeCaller(req, costs.synthesis(k), `An export of a synthesis of ${k} effects`);
     const out = await liveSynthesisExport(ctx.db, request, file);
     res.type(out.type).set('Content-Disposition', `attachment; filename="${out.name}"`).send(out.body);
   });

@@ -30,6 +30,12 @@ export class RegistryCache {
     return this.inflight;
   }
 
+  /** Whether an answer for `name` is kept (or being computed) for the current registry version. */
+  async has(db: Knex, name: string): Promise<boolean> {
+    const key = await this.versionKey(db);
+    return key === this.key && this.entries.has(name);
+  }
+
   async get(db: Knex, name: string, compute: () => Promise<unknown>): Promise<string> {
     const key = await this.versionKey(db);
     if (key !== this.key) {

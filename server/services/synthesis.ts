@@ -39,6 +39,11 @@ export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: S
   return { registryVersion, effects, output: synthesize(effects, request) };
 }
 
+/** How many settled effects a request covers (what its computation costs grows with). */
+export async function synthesisSize(db: Knex, request: SynthesisRequest): Promise<number> {
+  return (await settledEffectsFor(db, requestFilters(request))).effects.length;
+}
+
 /** What POST /api/syntheses answers: the synthesis and the registry version it was computed on. */
 export async function registrySynthesis(db: Knex, request: SynthesisRequest): Promise<SynthesisAnswer> {
   const { registryVersion, output } = await synthesizeRegistry(db, request);

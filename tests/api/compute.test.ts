@@ -75,11 +75,11 @@ describe('POST /api/compute/pool and /api/compute/effect', () => {
 describe('rate limit on the compute routes', () => {
   let t: TestApp;
   beforeAll(async () => {
-    t = await createTestApp({ env: { COMPUTE_RATE_LIMIT_PER_MINUTE: '3' } });
+    t = await createTestApp({ env: { CALLER_BUDGET_PER_MINUTE: '3' } });
   });
   afterAll(() => t.close());
 
-  it('answers 429 in the error shape once a client exceeds its per-minute allowance', async () => {
+  it('answers 429 in the error shape once a caller has spent its budget for the minute', async () => {
     const statuses: number[] = [];
     for (let i = 0; i < 5; i++) statuses.push((await request(t.app).post('/api/compute/effect').send({ measure: 'fisher_z', r: 0.3, n: 20 })).status);
     expect(statuses.slice(0, 3)).toEqual([200, 200, 200]);
