@@ -2,6 +2,7 @@ import express, { type Router } from 'express';
 import session from 'express-session';
 import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
+import compression from 'compression';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { AppContext } from './context.js';
@@ -59,6 +60,9 @@ export function buildApp(ctx: AppContext) {
       hsts: env.APP_ORIGIN.startsWith('https'),
     }),
   );
+
+  // gzip (or deflate) for callers that accept it, above 1 kB; zlib runs off the event loop, in libuv's pool.
+  app.use(compression({ threshold: 1024 }));
 
   // A Bearer token is checked before any router (the early ones too), so a revoked token is refused everywhere.
   app.use(bearerAuth(ctx.db));
