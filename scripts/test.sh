@@ -34,10 +34,11 @@ mkdir -p "$RESULTS_DIR"
 PIDS=()
 cleanup() {
   for p in "${PIDS[@]}"; do kill "$p" 2>/dev/null; done
+  for f in "$RESULTS_DIR"/stand-ins/*.pid; do [ -f "$f" ] && kill "$(cat "$f")" 2>/dev/null; done
   wait 2>/dev/null
   pg_down
   [ -n "${PG_CLUSTER_DIR:-}" ] && rm -rf "$PG_CLUSTER_DIR"
-  rm -rf "$RESULTS_DIR/client"
+  rm -rf "$RESULTS_DIR/client" "$RESULTS_DIR/stand-ins"
 }
 trap cleanup EXIT
 trap 'exit 130' INT TERM
@@ -68,8 +69,12 @@ if [ $# -eq 0 ]; then
   npm run --silent db:migrate && npm run --silent db:seed || e2e_rc=1
   node_modules/.bin/vite build --logLevel error --outDir "$CLIENT_DIR" || e2e_rc=1
   # Each stand-in in its own process, as under npm start: one failing does not take the others down.
+  # A spec may stop one and start it again (tests/e2e/stand-ins.ts): each one's pid is kept in STAND_IN_DIR.
+  export STAND_IN_DIR="$RESULTS_DIR/stand-ins"
+  mkdir -p "$STAND_IN_DIR"
   for fake in oauth search doi mail; do
     node_modules/.bin/tsx server/fakes/run.ts "$fake" >> "$RESULTS_DIR/fakes.log" 2>&1 & PIDS+=($!)
+    echo $! > "$STAND_IN_DIR/$fake.pid"
   done
   node_modules/.bin/tsx server/index.ts > "$RESULTS_DIR/server.log" 2>&1 & PIDS+=($!)
   for _ in $(seq 1 120); do curl -fsS -o /dev/null "$APP_ORIGIN/api/health" 2>/dev/null && break; sleep 0.5; done

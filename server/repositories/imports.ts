@@ -44,6 +44,11 @@ export async function entryCounts(db: Db, batchId: number): Promise<EntryCounts>
   return countStatuses(await db<ImportEntryRow>('import_entries').where({ batch_id: batchId }).select('status'));
 }
 
+/** How many entries of a batch are pending with a message holding `phrase` (their last look-up found the resolver away). */
+export async function pendingSaying(db: Db, batchId: number, phrase: string): Promise<number> {
+  return countRows(db<ImportEntryRow>('import_entries').where({ batch_id: batchId, status: 'pending' }).whereLike('message', `%${phrase}%`));
+}
+
 /** Entries of a batch in file order: all of them, or one page (optionally of one status), and how many match. */
 export async function batchEntries(db: Db, batchId: number, paging?: PageRequest & { status?: EntryStatus }) {
   const filtered = db<ImportEntryRow>('import_entries').where({ batch_id: batchId }).modify((qb) => (paging?.status ? qb.where('status', paging.status) : qb));

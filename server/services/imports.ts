@@ -6,7 +6,7 @@ import { NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
 import {
-  batchEntries, countStatuses, entryCounts, entryReferenceIds, finishBatchIfDone, findBatch, insertBatch, insertEntries, listBatches, markBatchDone,
+  batchEntries, countStatuses, entryCounts, entryReferenceIds, finishBatchIfDone, findBatch, insertBatch, insertEntries, listBatches, markBatchDone, pendingSaying,
   pendingEntries, settleEntry, type BatchWithLogin, type EntryCounts,
 } from '../repositories/imports.js';
 import { findRefByDoi, insertRefs, insertRefUnlessDoiTaken, liveRefsWithTitleKeys, refIdsByDoi } from '../repositories/refs.js';
@@ -298,7 +298,8 @@ export async function getImport(db: Knex, id: number, paging?: PageRequest & { s
     ...(e.entry_key ? { key: e.entry_key } : {}),
     ...(e.likely_duplicate_of ? { likelyDuplicateOf: e.likely_duplicate_of } : {}),
   }));
-  return { batch: batchView(row, counts), entries: view, entriesTotal: total };
+  const resolverUnreachable = counts.pending ? await pendingSaying(db, id, RESOLVER_UNREACHABLE) : 0;
+  return { batch: batchView(row, counts), entries: view, entriesTotal: total, resolverUnreachable };
 }
 
 export async function listImports(db: Knex, q: PageRequest & { sort: 'created_at' | 'format' | 'total'; order: 'asc' | 'desc' }): Promise<ImportPage> {

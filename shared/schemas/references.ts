@@ -51,6 +51,8 @@ export const importResultSchema = z.object({
   entries: z.array(importEntryViewSchema),
   /** How many entries match (all of them, or those of the requested status). */
   entriesTotal: z.number().int(),
+  /** Pending DOI look-ups whose last attempt found the resolver unreachable (they are retried). */
+  resolverUnreachable: z.number().int(),
 });
 export type ImportResult = z.infer<typeof importResultSchema>;
 export const importPageSchema = pageSchema(importBatchViewSchema);

@@ -36,6 +36,7 @@ describe('DOI look-ups during a resolver outage', () => {
     });
     expect(waiting.batch.state).toBe('running');
     expect(waiting.batch.counts).toEqual({ imported: 0, duplicate: 0, rejected: 0, pending: 3 });
+    expect(waiting.resolverUnreachable).toBe(3);
     for (const e of waiting.entries) expect(e.message).toMatch(/resolver unreachable, will retry \(the DOI resolver could not be reached/);
 
     resolver = await startDoiResolver(port);
@@ -44,6 +45,7 @@ describe('DOI look-ups during a resolver outage', () => {
       return r.body.batch.state === 'done' ? r.body : undefined;
     }, 25_000);
     expect(done.batch.counts).toEqual({ imported: 2, duplicate: 0, rejected: 1, pending: 0 });
+    expect(done.resolverUnreachable).toBe(0);
     expect(done.entries[2].message).toMatch(/no such DOI at the resolver \(404\)/);
     expect(await t.ctx.db('refs').where({ doi: '10.5555/chrono.2018.014', source: 'doi' }).first()).toBeTruthy();
   }, 40_000);

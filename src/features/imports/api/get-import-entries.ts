@@ -8,6 +8,8 @@ export interface EntriesQuery {
   status: EntryStatus | '';
   /** Changes as a running batch progresses, so the page is asked for again. */
   processed: number;
+  /** Look-ups waiting for the resolver: their entries' messages change without progress. */
+  unreachable: number;
 }
 
 export const getImportEntries = (id: number, q: EntriesQuery) =>

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import type { EntryStatus } from '../../../../shared/schemas/references';
-import { ErrorNote, Loading } from '../../../components/ui/Notice';
+import { Caution, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { useImportEntries } from '../api/get-import-entries';
 import { useImport } from '../api/get-import';
@@ -27,7 +27,8 @@ export function BatchReport({ id }: { id: number }) {
   const [page, setPage] = useState(1);
   const [status, setStatus] = useState<EntryStatus | ''>('');
   const processed = data?.batch.processed ?? 0;
-  const entries = useImportEntries(id, { page, status, processed });
+  const unreachable = data?.resolverUnreachable ?? 0;
+  const entries = useImportEntries(id, { page, status, processed, unreachable });
   if (isLoading) return <Loading what="Loading the import report" />;
   if (error) return <ErrorNote error={error} />;
   if (!data) return null;
@@ -45,6 +46,12 @@ export function BatchReport({ id }: { id: number }) {
             … Looking up DOIs: {batch.processed} of {batch.total} done ({pct}%).
           </p>
           <progress className="h-3 w-full" max={batch.total} value={batch.processed} aria-label="Import progress" />
+          {unreachable > 0 && (
+            <Caution title="DOI resolver unreachable">
+              {unreachable === 1 ? '1 DOI waits' : `${unreachable} DOIs wait`}: the resolver could not be reached, so the look-up will retry by
+              itself, more slowly each time, for about an hour. You may leave this page; the report fills in once the resolver answers.
+            </Caution>
+          )}
         </div>
       ) : (
         <p role="status" className="mb-3 text-sm font-semibold">
