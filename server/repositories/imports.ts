@@ -106,6 +106,18 @@ export async function importsOfRef(db: Db, refId: number): Promise<Array<{ batch
     .select('import_batches.id as batch_id', 'import_batches.format', 'import_entries.idx', 'import_entries.status', 'import_batches.created_at');
 }
 
+/** The batch that created each of these references (its imported entry); references not created by an import are absent. */
+export async function creatingBatchesOf(db: Db, refIds: number[]): Promise<Map<number, number>> {
+  if (!refIds.length) return new Map();
+  const rows: { reference_id: number; batch_id: number }[] = await db('import_entries')
+    .where('status', 'imported')
+    .whereIn('reference_id', refIds)
+    .groupBy('reference_id')
+    .select('reference_id')
+    .min({ batch_id: 'batch_id' });
+  return new Map(rows.map((r) => [Number(r.reference_id), Number(r.batch_id)]));
+}
+
 /** Import entries found to duplicate a record, by their batch's format (PRISMA "records identified"). */
 export async function duplicateEntriesByFormat(db: Db): Promise<{ source: string; n: number }[]> {
   const rows: { source: string; n: number }[] = await db('import_entries')

@@ -278,6 +278,12 @@ export async function attachmentsOf(db: Db, refId: number): Promise<(AttachmentR
     .select('reference_attachments.*', 'users.login');
 }
 
+/** The attachments of several references (a queue page), oldest first. */
+export async function attachmentsOfRefs(db: Db, refIds: number[]): Promise<AttachmentRow[]> {
+  if (!refIds.length) return [];
+  return db<AttachmentRow>('reference_attachments').whereIn('ref_id', refIds).orderBy('id').select('*');
+}
+
 /** What a bibliography needs of each reference, in id order. */
 export async function refsForCitation(db: Db, ids: number[]): Promise<Pick<RefRow, 'id' | 'csl' | 'title' | 'year' | 'doi' | 'first_author' | 'merged_into'>[]> {
   return ids.length ? db<RefRow>('refs').whereIn('id', ids).orderBy('id').select('id', 'csl', 'title', 'year', 'doi', 'first_author', 'merged_into') : [];

@@ -1,12 +1,14 @@
 import type { Knex } from 'knex';
-import type { PrismaFlow, ScreeningDecisionInput, ScreeningQueue, ScreeningResult, ScreeningUndoInput, ScreeningUndoResult } from '../../shared/schemas/references.js';
+import type {
+  PrismaFlow, ScreeningBatchDecisionInput, ScreeningBatchResult, ScreeningBatchUndoInput, ScreeningBatchUndoResult, ScreeningDecisionInput, ScreeningQueue, ScreeningResult, ScreeningUndoInput, ScreeningUndoResult,
+} from '../../shared/schemas/references.js';
 import { hasRole, type Role } from '../../shared/roles.js';
 import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../shared/vocabulary/screening.js';
 import { ConflictError, ForbiddenError, NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
-import { duplicateEntriesByFormat } from '../repositories/imports.js';
-import { lockRef, refCounts, unscreenedRefs, updateRef } from '../repositories/refs.js';
+import { creatingBatchesOf, duplicateEntriesByFormat } from '../repositories/imports.js';
+import { attachmentsOfRefs, lockRef, refCounts, unscreenedRefs, updateRef } from '../repositories/refs.js';
 import { decisionsOf, exclusionReasonCounts, insertDecision, markUndone } from '../repositories/screening.js';
 import { lockSettledRecordsOf } from '../repositories/settled-effects.js';
 import type { Actor } from './coding.js';
@@ -19,37 +21,64 @@ import { summary } from './references.js';
  * records with the exclusion as the reason, in the same transaction.
  */
 export async function decide(db: Knex, refId: number, input: ScreeningDecisionInput, actor: Actor): Promise<ScreeningResult> {
-  return db.transaction(async (trx) => {
-    const r = await lockRef(trx, refId);
-    if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
-    if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; screen that one.`, { mergedInto: r.merged_into });
-    if (r.version !== input.version) {
-      const [last] = await decisionsOf(trx, refId);
-      const now = last ? `, now ${last.decision} by ${last.login ?? 'someone'} at ${iso(last.decided_at).slice(0, 16).replace('T', ' ')} UTC` : '';
-      throw new ConflictError(`Reference ${refId} changed since you opened it (version ${r.version}${now}); reload it before deciding.`, {
-        currentVersion: r.version,
-        screeningStatus: r.screening_status,
-      });
-    }
-    const withdrawnRecords = input.decision === 'excluded' ? await lockSettledRecordsOf(trx, refId) : [];
-    if (withdrawnRecords.length && !hasRole(actor.roles, 'curator'))
-      throw new ForbiddenError(`Reference ${refId} has settled effects; only a curator may exclude it (that withdraws them).`);
-    const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id, withdrawn_records: withdrawnRecords });
-    await updateRef(trx, refId, { screening_status: input.decision, version: r.version + 1 });
-    let registryVersion: number | null = null;
-    const why = `Excluded at screening: ${input.reason ? EXCLUSION_REASON_LABELS[input.reason] : ''}${input.note ? ` (${input.note})` : ''}`;
-    for (const id of withdrawnRecords) registryVersion = (await withdrawRecordIn(trx, actor.id, id, why)).registryVersion;
-    await recordAudit(trx, {
-      actorId: actor.id,
-      action: 'screening.decide',
-      entityType: 'reference',
-      entityId: refId,
-      details: { decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, previous: r.screening_status, withdrawnRecords },
+  return db.transaction((trx) => decideIn(trx, refId, input, actor));
+}
+
+async function decideIn(trx: Knex.Transaction, refId: number, input: ScreeningDecisionInput, actor: Actor): Promise<ScreeningResult> {
+  const r = await lockRef(trx, refId);
+  if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
+  if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; screen that one.`, { mergedInto: r.merged_into });
+  if (r.version !== input.version) {
+    const [last] = await decisionsOf(trx, refId);
+    const now = last ? `, now ${last.decision} by ${last.login ?? 'someone'} at ${iso(last.decided_at).slice(0, 16).replace('T', ' ')} UTC` : '';
+    throw new ConflictError(`Reference ${refId} changed since you opened it (version ${r.version}${now}); reload it before deciding.`, {
+      currentVersion: r.version,
+      screeningStatus: r.screening_status,
     });
-    return {
-      id: row.id, refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
-      screeningStatus: input.decision, version: r.version + 1, withdrawnRecords, registryVersion,
-    };
+  }
+  const withdrawnRecords = input.decision === 'excluded' ? await lockSettledRecordsOf(trx, refId) : [];
+  if (withdrawnRecords.length && !hasRole(actor.roles, 'curator'))
+    throw new ForbiddenError(`Reference ${refId} has settled effects; only a curator may exclude it (that withdraws them).`);
+  const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id, withdrawn_records: withdrawnRecords });
+  await updateRef(trx, refId, { screening_status: input.decision, version: r.version + 1 });
+  let registryVersion: number | null = null;
+  const why = `Excluded at screening: ${input.reason ? EXCLUSION_REASON_LABELS[input.reason] : ''}${input.note ? ` (${input.note})` : ''}`;
+  for (const id of withdrawnRecords) registryVersion = (await withdrawRecordIn(trx, actor.id, id, why)).registryVersion;
+  await recordAudit(trx, {
+    actorId: actor.id,
+    action: 'screening.decide',
+    entityType: 'reference',
+    entityId: refId,
+    details: { decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, previous: r.screening_status, withdrawnRecords },
+  });
+  return {
+    id: row.id, refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
+    screeningStatus: input.decision, version: r.version + 1, withdrawnRecords, registryVersion,
+  };
+}
+
+/**
+ * One decision for several references at once, each against the version its screener saw, in one transaction:
+ * a refusal for any of them (stale, merged, settled effects) refuses them all, naming that reference.
+ */
+export async function decideMany(db: Knex, input: ScreeningBatchDecisionInput, actor: Actor): Promise<ScreeningBatchResult> {
+  const { items, ...decision } = input;
+  return db.transaction(async (trx) => {
+    const results: ScreeningResult[] = [];
+    // In id order, so two overlapping batches lock their references in the same order.
+    for (const it of [...items].sort((a, b) => a.refId - b.refId)) results.push(await decideIn(trx, it.refId, { ...decision, version: it.version }, actor));
+    const order = new Map(items.map((it, i) => [it.refId, i]));
+    return { results: results.sort((a, b) => order.get(a.refId)! - order.get(b.refId)!) };
+  });
+}
+
+/** Takes back the latest decision of several references in one transaction (a batch decision, undone as one). */
+export async function undoMany(db: Knex, input: ScreeningBatchUndoInput, actor: { id: number; roles: Role[] }): Promise<ScreeningBatchUndoResult> {
+  return db.transaction(async (trx) => {
+    const results: ScreeningUndoResult[] = [];
+    for (const it of [...input.items].sort((a, b) => a.refId - b.refId)) results.push(await undoIn(trx, it.refId, { version: it.version }, actor));
+    const order = new Map(input.items.map((it, i) => [it.refId, i]));
+    return { results: results.sort((a, b) => order.get(a.refId)! - order.get(b.refId)!) };
   });
 }
 
@@ -60,41 +89,59 @@ export async function decide(db: Knex, refId: number, input: ScreeningDecisionIn
  * call, one registry change), or refuses with 409 when that is no longer safe.
  */
 export async function undoLast(db: Knex, refId: number, input: ScreeningUndoInput, actor: { id: number; roles: Role[] }): Promise<ScreeningUndoResult> {
-  return db.transaction(async (trx) => {
-    const r = await lockRef(trx, refId);
-    if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
-    if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; it has no decision to undo.`, { mergedInto: r.merged_into });
-    if (r.version !== input.version)
-      throw new ConflictError(`Reference ${refId} changed since you opened it (now version ${r.version}); reload it before undoing.`, { currentVersion: r.version, screeningStatus: r.screening_status });
-    const [last, before] = await decisionsOf(trx, refId);
-    if (!last) throw new ConflictError(`Reference ${refId} has no decision to undo.`);
-    if (last.decided_by !== actor.id && !hasRole(actor.roles, 'curator'))
-      throw new ForbiddenError(`The last decision on reference ${refId} is ${last.login ?? 'someone else'}'s; only they or a curator may undo it.`);
-    const restoredRecords = (last.withdrawn_records ?? []).map(Number);
-    if (restoredRecords.length && !hasRole(actor.roles, 'curator'))
-      throw new ForbiddenError(`Undoing the exclusion of reference ${refId} settles its withdrawn effects again; only a curator may.`);
-    await markUndone(trx, last.id, actor.id);
-    const screeningStatus = before?.decision ?? 'unscreened';
-    await updateRef(trx, refId, { screening_status: screeningStatus, version: r.version + 1 });
-    const registryVersion = restoredRecords.length
-      ? await restoreWithdrawnRecordsIn(trx, actor.id, refId, restoredRecords, `Exclusion undone at screening (decision ${last.id})`)
-      : null;
-    await recordAudit(trx, {
-      actorId: actor.id,
-      action: 'screening.undo',
-      entityType: 'reference',
-      entityId: refId,
-      details: { undoneDecision: last.id, decision: last.decision, reason: last.reason, now: screeningStatus, restoredRecords },
-    });
-    return { refId, undone: { id: Number(last.id), decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1, restoredRecords, registryVersion };
-  });
+  return db.transaction((trx) => undoIn(trx, refId, input, actor));
 }
 
-/** The next unscreened references, oldest first, and how many are left. */
+async function undoIn(trx: Knex.Transaction, refId: number, input: ScreeningUndoInput, actor: { id: number; roles: Role[] }): Promise<ScreeningUndoResult> {
+  const r = await lockRef(trx, refId);
+  if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
+  if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; it has no decision to undo.`, { mergedInto: r.merged_into });
+  if (r.version !== input.version)
+    throw new ConflictError(`Reference ${refId} changed since you opened it (now version ${r.version}); reload it before undoing.`, { currentVersion: r.version, screeningStatus: r.screening_status });
+  const [last, before] = await decisionsOf(trx, refId);
+  if (!last) throw new ConflictError(`Reference ${refId} has no decision to undo.`);
+  if (last.decided_by !== actor.id && !hasRole(actor.roles, 'curator'))
+    throw new ForbiddenError(`The last decision on reference ${refId} is ${last.login ?? 'someone else'}'s; only they or a curator may undo it.`);
+  const restoredRecords = (last.withdrawn_records ?? []).map(Number);
+  if (restoredRecords.length && !hasRole(actor.roles, 'curator'))
+    throw new ForbiddenError(`Undoing the exclusion of reference ${refId} settles its withdrawn effects again; only a curator may.`);
+  await markUndone(trx, last.id, actor.id);
+  const screeningStatus = before?.decision ?? 'unscreened';
+  await updateRef(trx, refId, { screening_status: screeningStatus, version: r.version + 1 });
+  const registryVersion = restoredRecords.length
+    ? await restoreWithdrawnRecordsIn(trx, actor.id, refId, restoredRecords, `Exclusion undone at screening (decision ${last.id})`)
+    : null;
+  await recordAudit(trx, {
+    actorId: actor.id,
+    action: 'screening.undo',
+    entityType: 'reference',
+    entityId: refId,
+    details: { undoneDecision: last.id, decision: last.decision, reason: last.reason, now: screeningStatus, restoredRecords },
+  });
+  return { refId, undone: { id: Number(last.id), decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1, restoredRecords, registryVersion };
+}
+
+/** CSL-JSON keeps keywords as one string ("a, b; c") or, from some sources, a list. */
+export function cslKeywords(csl: Record<string, unknown> | null | undefined): string[] {
+  const raw = csl?.keyword ?? csl?.keywords;
+  const parts = Array.isArray(raw) ? raw.filter((k): k is string => typeof k === 'string') : typeof raw === 'string' ? raw.split(/[;,]/) : [];
+  return [...new Set(parts.map((k) => k.trim()).filter(Boolean))];
+}
+
+/** The next unscreened references, oldest first, with what a screener reads (abstract, keywords, attachments), why each is here, and how many are left. */
 export async function queue(db: Knex, q: { limit: number; batch?: number }): Promise<ScreeningQueue> {
   const { total, rows } = await unscreenedRefs(db, q);
+  const ids = rows.map((r) => r.id);
+  const [batches, attachments] = await Promise.all([creatingBatchesOf(db, ids), attachmentsOfRefs(db, ids)]);
   return {
-    items: rows.map((r) => ({ ...summary(r), abstract: typeof r.csl?.abstract === 'string' ? r.csl.abstract : null, version: r.version })),
+    items: rows.map((r) => ({
+      ...summary(r),
+      abstract: typeof r.csl?.abstract === 'string' ? r.csl.abstract : null,
+      version: r.version,
+      keywords: cslKeywords(r.csl),
+      attachments: attachments.filter((a) => a.ref_id === r.id).map((a) => ({ id: a.id, filename: a.filename, sizeBytes: a.size_bytes, mime: a.mime })),
+      why: { kind: 'new' as const, batch: batches.get(r.id) ?? null },
+    })),
     remaining: total,
   };
 }

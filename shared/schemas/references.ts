@@ -257,9 +257,37 @@ export const screeningUndoResultSchema = z.object({
 });
 export type ScreeningUndoResult = z.infer<typeof screeningUndoResultSchema>;
 
+const batchItemsSchema = z
+  .array(z.object({ refId: idParam, version: z.number({ message: 'send the reference version you saw' }).int().positive() }), { message: 'send the references as a list' })
+  .min(1, 'choose at least one reference')
+  .max(100, 'decide at most 100 references at once')
+  .refine((items) => new Set(items.map((i) => i.refId)).size === items.length, 'each reference once');
+
+/** POST /api/screening/decisions: one decision for several references, each with the version its screener saw. */
+export const screeningBatchDecisionSchema = decisionFields.extend({ items: batchItemsSchema }).superRefine(decisionRules);
+export type ScreeningBatchDecisionInput = z.infer<typeof screeningBatchDecisionSchema>;
+export const screeningBatchResultSchema = z.object({ results: z.array(screeningResultSchema) });
+export type ScreeningBatchResult = z.infer<typeof screeningBatchResultSchema>;
+
+/** POST /api/screening/decisions/undo: takes back the latest decision of each reference, all or none. */
+export const screeningBatchUndoSchema = z.object({ items: batchItemsSchema });
+export type ScreeningBatchUndoInput = z.infer<typeof screeningBatchUndoSchema>;
+export const screeningBatchUndoResultSchema = z.object({ results: z.array(screeningUndoResultSchema) });
+export type ScreeningBatchUndoResult = z.infer<typeof screeningBatchUndoResultSchema>;
+
 /** GET /api/screening/queue */
+/** Why a reference is in the queue: new (with the import batch that created it, null when it came another way). */
+export const queueReasonSchema = z.object({ kind: z.enum(['new']), batch: z.number().int().nullable() });
 export const screeningQueueSchema = z.object({
-  items: z.array(referenceSummarySchema.extend({ abstract: z.string().nullable(), version: z.number().int() })),
+  items: z.array(
+    referenceSummarySchema.extend({
+      abstract: z.string().nullable(),
+      version: z.number().int(),
+      keywords: z.array(z.string()),
+      attachments: z.array(attachmentSchema.pick({ id: true, filename: true, sizeBytes: true, mime: true })),
+      why: queueReasonSchema,
+    }),
+  ),
   remaining: z.number().int(),
 });
 export type ScreeningQueue = z.infer<typeof screeningQueueSchema>;

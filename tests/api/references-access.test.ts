@@ -19,6 +19,8 @@ describeAccess(
     { method: 'post', path: '/api/references/merge', body: { a: 999998, b: 999999 }, who: ['curator'], bad: { body: { a: 'x' } } },
     { method: 'get', path: '/api/screening/queue', who: ['contributor'], bad: { path: '/api/screening/queue?limit=100000' } },
     { method: 'get', path: '/api/screening/counts', who: 'anyone' },
+    { method: 'post', path: '/api/screening/decisions', body: { items: [{ refId: 999999, version: 1 }], decision: 'included' }, who: ['contributor'], bad: { body: { items: [], decision: 'included' } } },
+    { method: 'post', path: '/api/screening/decisions/undo', body: { items: [{ refId: 999999, version: 1 }] }, who: ['contributor'], bad: { body: { items: 'all' } } },
     { method: 'post', path: (ids) => `/api/references/${ids.a}/screening/undo`, body: { version: 999 }, who: ['contributor'], bad: { body: { version: 'latest' } } },
     { method: 'get', path: '/api/duplicates', who: ['curator'], bad: { path: '/api/duplicates?status=sideways' } },
     { method: 'post', path: '/api/duplicates/999999/merge', body: {}, who: ['curator'], bad: { path: '/api/duplicates/abc/merge' } },

@@ -10,7 +10,8 @@ import {
   reconciliationQueueSchema, recordHistorySchema, referenceAgreementPageSchema,
 } from '../../shared/schemas/reconciliation.js';
 import {
-  duplicatePageSchema, importPageSchema, importResultSchema, prismaCountsSchema, referenceDetailSchema, referencePageSchema, screeningQueueSchema,
+  duplicatePageSchema, importPageSchema, importResultSchema, prismaCountsSchema, referenceDetailSchema, referencePageSchema, screeningBatchResultSchema, screeningBatchUndoResultSchema,
+  screeningQueueSchema,
   searchResultSchema,
 } from '../../shared/schemas/references.js';
 import { followChangesSchema, followListSchema, followSchema, snapshotDiffSchema, unsubscribeAnswerSchema } from '../../shared/schemas/following.js';
@@ -56,7 +57,11 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     const list = await as.curator.get('/api/references?pageSize=5');
     expectShape(referencePageSchema, list);
     expectShape(referenceDetailSchema, await as.curator.get(`/api/references/${list.body.items[0].id}`));
-    expectShape(screeningQueueSchema, await as.coder1.get('/api/screening/queue'));
+    const queue = await as.coder1.get('/api/screening/queue');
+    expectShape(screeningQueueSchema, queue);
+    const items = [{ refId: queue.body.items[0].id, version: queue.body.items[0].version }];
+    expectShape(screeningBatchResultSchema, await as.coder1.post('/api/screening/decisions').send({ items, decision: 'included' }), 201);
+    expectShape(screeningBatchUndoResultSchema, await as.coder1.post('/api/screening/decisions/undo').send({ items: [{ ...items[0], version: items[0].version + 1 }] }));
     expectShape(prismaCountsSchema, await anonymous(t.app).get('/api/screening/counts'));
     expectShape(duplicatePageSchema, await as.curator.get('/api/duplicates'));
     const imports = await as.coder1.get('/api/imports');
