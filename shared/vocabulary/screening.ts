@@ -23,13 +23,3 @@ export const EXCLUSION_REASON_LABELS: Record<ExclusionReason, string> = {
   duplicate_publication: 'Duplicate publication',
   other: 'Other (explained)',
 };
-
-/** Keys for the screening queue: one key per reason so a contributor never leaves the keyboard. */
-export const EXCLUSION_REASON_KEYS: Record<ExclusionReason, string> = {
-  wrong_population: '1',
-  not_time_perception: '2',
-  no_usable_statistics: '3',
-  review_article: '4',
-  duplicate_publication: '5',
-  other: '6',
-};

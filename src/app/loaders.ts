@@ -10,6 +10,8 @@ import { CURRENT_VOCABULARY, WHOLE_VOCABULARY, manipulationsQueryOptions } from 
 import { pairQueryOptions } from '../features/reconciliation/api/get-pair';
 import { referenceQueryOptions } from '../features/references/api/get-reference';
 import { firstReferencesQuery, referencesQueryOptions } from '../features/references/api/get-references';
+import { countsQueryOptions } from '../features/screening/api/get-counts';
+import { QUEUE_LIMIT, queueQueryOptions } from '../features/screening/api/get-queue';
 import { snapshotQueryOptions } from '../features/snapshots/api/get-snapshot';
 import { facetsQueryOptions } from '../features/synthesis/api/get-facets';
 import { synthesisQueryOptions } from '../features/synthesis/api/run-synthesis';
@@ -37,6 +39,16 @@ export function screenLoaders(qc: QueryClient) {
       const id = positiveId(params.id);
       return settled(me(), id !== null && qc.ensureQueryData(referenceQueryOptions(id)));
     },
+    screening: ({ request }: LoaderFunctionArgs) => {
+      const batch = Number(new URL(request.url).searchParams.get('batch')) || undefined;
+      return settled(
+        me(),
+        qc.ensureQueryData(queueQueryOptions({ limit: QUEUE_LIMIT, batch })),
+        qc.ensureQueryData(countsQueryOptions()),
+        qc.ensureQueryData(manipulationsQueryOptions(CURRENT_VOCABULARY)),
+      );
+    },
+    prismaFlow: () => settled(qc.ensureQueryData(countsQueryOptions())),
     atlas: () => settled(qc.ensureQueryData(atlasQueryOptions())),
     atlasManipulation: ({ params }: LoaderFunctionArgs) => {
       const term = params.term ?? '';

@@ -18,6 +18,7 @@ import { NotFoundPage } from './routes/NotFoundPage';
 import { ReferencePage } from './routes/ReferencePage';
 import { ReferencesPage } from './routes/ReferencesPage';
 import { RouteErrorPage } from './routes/RouteErrorPage';
+import { PrismaFlowPage } from './routes/PrismaFlowPage';
 import { ScreeningPage } from './routes/ScreeningPage';
 import { SearchPage } from './routes/SearchPage';
 import { SnapshotsPage } from './routes/SnapshotsPage';
@@ -54,7 +55,8 @@ export function screens(qc: QueryClient): RouteObject[] {
     { path: 'imports/:id', element: <ImportBatchPage /> },
     { path: 'references', element: <ReferencesPage />, loader: load.references },
     { path: 'references/:id', element: <ReferencePage />, loader: load.reference },
-    { path: 'screening', element: <ScreeningPage /> },
+    { path: 'screening', element: <ScreeningPage />, loader: load.screening },
+    { path: 'screening/counts', element: <PrismaFlowPage />, loader: load.prismaFlow },
     { path: 'duplicates', element: <DuplicatesPage /> },
     { path: 'search', element: <SearchPage /> },
     { path: 'extractions', element: <MyExtractionsPage /> },

@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import type { Spec } from './run.js';
 import { appUrl, signInThroughPage, signOut } from './browser.js';
+import { decideByKeys } from './screening-keys.js';
 
 const stamp = Date.now().toString(36);
 const SCRIPT_TITLE = `<script>window.__injected = 1</script> Looming ${stamp} and the stretching of seconds`;
@@ -44,8 +45,8 @@ export const specs: Spec[] = [
       // the batch's screening queue holds only the reference it created
       const batchId = new URL(page.url()).pathname.split('/').pop();
       await page.goto(appUrl(`/screening?batch=${batchId}`));
-      await page.getByText('1 reference waiting from batch').waitFor();
-      await page.getByRole('article', { name: 'Reference to screen' }).getByRole('heading', { name: `Empty intervals ${stamp}` }).waitFor();
+      await page.getByText('1 record waiting from batch').waitFor();
+      await page.getByRole('article', { name: 'Record being read' }).getByRole('heading', { name: `Empty intervals ${stamp}` }).waitFor();
       await signOut(page);
     },
   },
@@ -73,23 +74,23 @@ export const specs: Spec[] = [
       const batchLink = page.getByRole('link', { name: /^batch \d+$/ });
       const batchId = (await batchLink.innerText()).replace('batch ', '');
       await page.goto(appUrl(`/screening?batch=${batchId}`));
-      await page.getByText('2 references waiting from batch').waitFor();
-      const article = page.getByRole('article', { name: 'Reference to screen' });
-      const first = await article.getByRole('heading').innerText();
-      await page.keyboard.press('i');
+      await page.getByText('2 records waiting from batch').waitFor();
+      const reader = page.getByRole('article', { name: 'Record being read' });
+      const first = await reader.getByRole('heading', { level: 2 }).innerText();
+      await decideByKeys(page, 'inc');
       await page.getByText(`Last: ✓ Included: ${first}`).waitFor();
-      await page.getByText('1 reference waiting from batch').waitFor();
-      await page.keyboard.press('3');
+      await page.getByText('1 record waiting from batch').waitFor();
+      await decideByKeys(page, 'no us');
       await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
-      await page.getByText('0 references waiting from batch').waitFor();
+      await page.getByText('0 records waiting from batch').waitFor();
       // Taking the exclusion back returns the reference to the queue; deciding again empties it.
-      await page.getByRole('button', { name: '↶ Take back' }).click();
-      await page.getByText(/↶ Taken back: excluded on #\d+, now unscreened/).waitFor();
-      await page.getByText('1 reference waiting from batch').waitFor();
-      await page.keyboard.press('3');
+      await page.getByRole('button', { name: '↶ Take back (U)' }).click();
+      await page.getByText(/↶ Taken back: #\d+ is waiting again/).waitFor();
+      await page.getByText('1 record waiting from batch').waitFor();
+      await decideByKeys(page, 'nus');
       await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
-      await page.getByText('0 references waiting from batch').waitFor();
-      await page.getByText('Nothing is waiting.').waitFor();
+      await page.getByText('0 records waiting from batch').waitFor();
+      await page.getByText('Nothing is waiting from this batch.').waitFor();
 
       // Search: by a title word, and by author with a status filter.
       await page.getByRole('banner').getByRole('link', { name: 'Search' }).click();

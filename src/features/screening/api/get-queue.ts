@@ -12,3 +12,6 @@ export const queueQueryOptions = (q: { limit: number; batch?: number }) => query
 export function useQueue(q: { limit: number; batch?: number }) {
   return useQuery(queueQueryOptions(q));
 }
+
+/** How many records the reading list shows at once. */
+export const QUEUE_LIMIT = 50;

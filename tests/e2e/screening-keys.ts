@@ -1,0 +1,14 @@
+import type { Page } from 'playwright-core';
+
+/** Decides the record (or the marked ones) from the keyboard: Enter, the first letters of a choice, Enter, a note, Enter. */
+export async function decideByKeys(page: Page, letters: string, note?: string) {
+  await page.keyboard.press('Enter');
+  const chooser = page.getByRole('region', { name: 'Decision' });
+  await chooser.getByRole('combobox').waitFor();
+  await page.keyboard.type(letters);
+  await page.keyboard.press('Enter');
+  await chooser.getByRole('textbox', { name: /^Note/ }).waitFor();
+  if (note) await page.keyboard.type(note);
+  await page.keyboard.press('Enter');
+  await chooser.waitFor({ state: 'detached' });
+}
