@@ -3,11 +3,12 @@ import type { EffectSheet } from '../../shared/schemas/extraction.js';
 import type { ComputedEffect, Reported } from '../../shared/extraction/compute.js';
 import type { StoredEffect } from '../../shared/extraction/stored-sheet.js';
 import type { Derivation } from '../../shared/schemas/trials.js';
+import { effectQuantity } from '../../shared/vocabulary/parameters.js';
 import type { EffectRow } from './rows.js';
 
 export type EffectColumns = Pick<
   EffectRow,
-  'label' | 'outcome' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'page' | 'locator' | 'quote' | 'trial_set_id'
+  'label' | 'outcome' | 'parameter' | 'unit' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'page' | 'locator' | 'quote' | 'trial_set_id'
 > & { reported: string; derivation: string | null };
 
 /**
@@ -15,9 +16,13 @@ export type EffectColumns = Pick<
  * it cannot be computed yet: a draft); `keep` supplies provenance the edit did not send (a curator's correction).
  */
 export function effectColumns(e: EffectSheet, manipulationId: number | null, computed: ComputedEffect | null, keep?: Pick<EffectRow, 'page' | 'locator' | 'quote'>): EffectColumns {
+  // an effect that names no parameter or unit stands for its outcome kind's usual ones (the sheet shows which)
+  const quantity = effectQuantity(e);
   return {
     label: e.label ?? '',
     outcome: e.outcome ?? null,
+    parameter: quantity?.parameter ?? null,
+    unit: quantity?.unit ?? null,
     manipulation_id: manipulationId,
     report_form: e.form ?? null,
     reported: JSON.stringify(e.reported ?? {}),
@@ -44,6 +49,8 @@ export function storedEffect(f: EffectRow & { term: string | null }): StoredEffe
     label: f.label,
     outcome: u(f.outcome),
     manipulation: u(f.term),
+    parameter: u(f.parameter),
+    unit: u(f.unit),
     form: u(f.report_form),
     reported: (f.reported ?? {}) as Reported,
     // a stored assumed r is the value used; the form shows it as the assumption

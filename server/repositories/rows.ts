@@ -7,6 +7,7 @@ import type { Metric } from '../../shared/stats/metrics.js';
 import type { Design } from '../../shared/vocabulary/designs.js';
 import type { Modality } from '../../shared/vocabulary/modalities.js';
 import type { OutcomeKind } from '../../shared/vocabulary/outcomes.js';
+import type { Parameter, Unit } from '../../shared/vocabulary/parameters.js';
 import type { Population } from '../../shared/vocabulary/populations.js';
 import type { Task } from '../../shared/vocabulary/tasks.js';
 
@@ -205,6 +206,8 @@ export interface EffectRow {
   position: number;
   label: string;
   outcome: OutcomeKind | null;
+  parameter: Parameter | null;
+  unit: Unit | null;
   manipulation_id: number | null;
   report_form: ReportForm | null;
   reported: Json;

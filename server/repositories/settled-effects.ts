@@ -5,6 +5,8 @@ import type { Db } from './db.js';
 export interface SettledEffectFilters {
   manipulation?: string | string[];
   outcome?: string;
+  parameter?: string;
+  unit?: string;
   /** one metric, or several (a synthesis pooling an SMD family) */
   metric?: string | string[];
   population?: string;
@@ -36,6 +38,8 @@ export function settledEffectsFrom(db: Db) {
 /** The filters other than manipulation, on a query built from settledEffectsFrom. */
 export function applyStudyFilters(q: Knex.QueryBuilder, f: SettledEffectFilters) {
   if (f.outcome) q.where('f.outcome', f.outcome);
+  if (f.parameter) q.where('f.parameter', f.parameter);
+  if (f.unit) q.where('f.unit', f.unit);
   if (Array.isArray(f.metric)) q.whereIn('f.metric', f.metric);
   else if (f.metric) q.where('f.metric', f.metric);
   if (f.population) q.where('s.population', f.population);

@@ -8,6 +8,7 @@ import {
   synthesisRequestSchema, type AtlasLanding, type AtlasManipulation, type AtlasOutcome, type AtlasPooled, type AtlasReferencePage, type PooledCell,
 } from '../../shared/schemas/synthesis.js';
 import { OUTCOMES, type OutcomeKind } from '../../shared/vocabulary/outcomes.js';
+import { quantityLabel } from '../../shared/vocabulary/parameters.js';
 import { runSynthesis, metricLabel } from '../../shared/synthesis/run.js';
 import { cautionsFor } from '../../shared/synthesis/cautions.js';
 
@@ -53,12 +54,15 @@ export async function atlasLanding(db: Knex): Promise<AtlasLanding> {
 
 const DEFAULT_REQUEST = { method: 'DL', hksj: false, dependence: { mode: 'aggregate', r: 0.5 } } as const;
 
-/** The current pooled estimate of each (outcome kind, metric) cell of one manipulation's or outcome's effects. */
+/** The filters of one cell: the given ones and the cell's parameter and unit (when recorded). */
+const withQuantity = (f: Record<string, string>, r: SettledEffect): Record<string, string> => ({ ...f, ...(r.parameter && r.unit ? { parameter: r.parameter, unit: r.unit } : {}) });
+
+/** The current pooled estimate of each (outcome kind, parameter and unit, metric) cell of one manipulation's or outcome's effects. */
 function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => Record<string, string>, withFigure: boolean): PooledCell[] {
-  const cells = groupBy(rows, (r) => `${r.outcome}\u0000${r.manipulation}\u0000${r.metric}`);
+  const cells = groupBy(rows, (r) => `${r.outcome}\u0000${r.manipulation}\u0000${r.parameter ?? ''}\u0000${r.unit ?? ''}\u0000${r.metric}`);
   return [...cells.values()]
     .map((rs) => {
-      const f = filters(rs[0]);
+      const f = withQuantity(filters(rs[0]), rs[0]);
       const request = synthesisRequestSchema.parse({ ...DEFAULT_REQUEST, filters: f });
       const out = runSynthesis(rs, request);
       const r = out.result;
@@ -67,6 +71,9 @@ function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => R
         outcomeLabel: outcomeLabel(rs[0].outcome),
         manipulation: rs[0].manipulation,
         manipulationLabel: rs[0].manipulationLabel ?? rs[0].manipulation,
+        parameter: rs[0].parameter ?? null,
+        unit: rs[0].unit ?? null,
+        quantityLabel: rs[0].parameter && rs[0].unit ? quantityLabel(rs[0].parameter, rs[0].unit) : null,
         metric: rs[0].metric,
         metricLabel: metricLabel(rs[0].metric),
         filters: f,

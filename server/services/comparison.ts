@@ -4,7 +4,7 @@ import { computeReported, type Reported } from '../../shared/extraction/compute.
 /** The categorical and numeric fields compared between two coders, per study and per effect. */
 export const STUDY_CATEGORICAL = ['design', 'population', 'diagnosis', 'modality', 'task'] as const;
 export const STUDY_NUMERIC = ['n1', 'n2', 'standardMs'] as const;
-export const EFFECT_CATEGORICAL = ['outcome', 'manipulation', 'metric'] as const;
+export const EFFECT_CATEGORICAL = ['outcome', 'manipulation', 'parameter', 'unit', 'metric'] as const;
 
 export const FIELD_LABELS: Record<string, string> = {
   studies: 'number of studies',
@@ -19,6 +19,8 @@ export const FIELD_LABELS: Record<string, string> = {
   standardMs: 'standard duration (ms)',
   outcome: 'outcome kind',
   manipulation: 'manipulation',
+  parameter: 'parameter (what was measured)',
+  unit: 'unit',
   metric: 'metric',
   effect: 'effect size and variance',
 };
@@ -74,7 +76,7 @@ export function compareSheets(a: Sheet, b: Sheet): Discrepancy[] {
       const va = effectValue(ea[j]);
       const vb = effectValue(eb[j]);
       const et = `${at}, effect ${j + 1}`;
-      for (const f of ['outcome', 'manipulation'] as const) {
+      for (const f of ['outcome', 'manipulation', 'parameter', 'unit'] as const) {
         if (norm(ea[j][f]) !== norm(eb[j][f])) push(`studies.${i}.effects.${j}.${f}`, f, `${et}: ${FIELD_LABELS[f]}`, ea[j][f] ?? null, eb[j][f] ?? null);
       }
       if (va.metric !== vb.metric || !numbersAgree(va.effect, vb.effect) || !numbersAgree(va.variance, vb.variance)) {

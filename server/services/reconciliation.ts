@@ -80,7 +80,7 @@ function checkValue(field: string, value: unknown): unknown {
     if (!r.success) throw fail(r.error.issues[0].message);
     return r.data ?? null;
   }
-  if (field === 'outcome' || field === 'manipulation') {
+  if (field === 'outcome' || field === 'manipulation' || field === 'parameter' || field === 'unit') {
     const r = effectDraftSchema.shape[field].safeParse(value);
     if (!r.success || r.data === undefined) throw fail(r.success ? 'enter a value' : r.error.issues[0].message);
     return r.data;

@@ -24,6 +24,7 @@ import { staleEdit } from './edit-conflicts.js';
 import { settledMail } from './extraction-mails.js';
 import { queueMails, type OutgoingMail } from './mail.js';
 import { resolveManipulations } from './manipulations.js';
+import { assertQuantities } from './quantities.js';
 import { parseCompleteSheet, saveSheet } from './settlement.js';
 
 export async function listRecords(db: Knex, referenceId: number): Promise<RecordHistory> {
@@ -150,7 +151,10 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
   return db.transaction(async (trx) => {
     const { f, x } = await lockSettledEffect(trx, effectId);
     if (f.version !== input.version) throw await staleEdit(trx, `Effect ${effectId}`, f);
-    const e = input.effect;
+    // an edit that names no parameter (or unit) keeps the stored one while the outcome kind (or parameter) stays
+    const keptParameter = input.effect.parameter ?? (input.effect.outcome === f.outcome ? (f.parameter ?? undefined) : undefined);
+    const keptUnit = input.effect.unit ?? (keptParameter !== undefined && keptParameter === f.parameter ? (f.unit ?? undefined) : undefined);
+    const e = { ...input.effect, parameter: keptParameter, unit: keptUnit };
     const problems: { path: string; message: string }[] = [];
     if (!e.outcome) problems.push({ path: 'body.effect.outcome', message: 'choose an outcome kind' });
     if (!e.manipulation) problems.push({ path: 'body.effect.manipulation', message: 'choose a manipulation' });
@@ -161,12 +165,13 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
     if (e.outcome && metrics.length && !metrics.some((m) => OUTCOMES[e.outcome!].metrics.includes(m)))
       problems.push({ path: 'body.effect.form', message: `${OUTCOMES[e.outcome].label} is not pooled as ${metrics.map((m) => METRIC_LABELS[m]).join(' or ')}` });
     if (problems.length) throw new ValidationError(`${problems[0].path}: ${problems[0].message}`, problems);
+    assertQuantities([{ at: '', label: `Effect ${effectId}`, effect: e }], 'body.effect.');
     const ids = await resolveManipulations(trx, [e.manipulation!]);
-    const before = { outcome: f.outcome, manipulationId: f.manipulation_id, form: f.report_form, reported: f.reported, effect: f.effect, variance: f.variance };
+    const before = { outcome: f.outcome, parameter: f.parameter, unit: f.unit, manipulationId: f.manipulation_id, form: f.report_form, reported: f.reported, effect: f.effect, variance: f.variance };
     const r = c!.result!;
     const row = await updateEffect(trx, f, effectColumns({ ...e, label: e.label ?? f.label }, ids.get(e.manipulation!)!, r, f), actorId);
     await insertSettlement(trx, { referenceId: x.reference_id, assignmentId: x.assignment_id, recordId: x.id, kind: 'edited', actorId, rationale: input.reason });
-    await recordAudit(trx, { actorId, action: 'effect.edit', entityType: 'effect', entityId: effectId, details: { reason: input.reason, before, after: { effect: r.effect, variance: r.variance, form: e.form } } });
+    await recordAudit(trx, { actorId, action: 'effect.edit', entityType: 'effect', entityId: effectId, details: { reason: input.reason, before, after: { effect: r.effect, variance: r.variance, form: e.form, parameter: row.parameter, unit: row.unit } } });
     const registryVersion = await bumpRegistry(trx, { kind: 'effect.edit', referenceId: x.reference_id, extractionId: x.id, effectId, actorId, details: { reason: input.reason } });
     return { id: row.id, version: row.version, effect: r.effect, variance: r.variance, metric: r.metric, formula: r.formula, registryVersion };
   });

@@ -8,6 +8,7 @@ import { findRef } from '../repositories/refs.js';
 import { bumpRegistry } from '../repositories/registry-version.js';
 import type { SettlementKind } from '../repositories/rows.js';
 import { resolveManipulations } from './manipulations.js';
+import { assertQuantities, sheetEffects } from './quantities.js';
 
 export type { SettlementKind };
 export { currentRecord };
@@ -19,6 +20,7 @@ export function parseCompleteSheet(sheet: unknown, where = 'sheet'): Sheet {
 
 /** Writes a sheet into an extraction, resolving its manipulation terms first (an unknown term is a 400). */
 export async function saveSheet(trx: Knex.Transaction, extractionId: number, sheet: Sheet, opts: { studyIds?: (number | null)[]; actorId?: number | null } = {}) {
+  assertQuantities(sheetEffects(sheet), 'body.sheet.');
   const termIds = await resolveManipulations(trx, sheetTerms(sheet));
   await writeSheet(trx, extractionId, sheet, { ...opts, termIds });
 }

@@ -6,10 +6,11 @@ import { querySettledEffects } from '../repositories/effects.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest, SYNTHESIS_EXPORT_FILES } from '../../shared/schemas/synthesis.js';
-import { MixedMetricsError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
+import { MixedMetricsError, MixedQuantitiesError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
 import { SmdFamilyFilterError, metricFilter } from '../../shared/synthesis/metric-choice.js';
 import { MultilevelModelError } from '../../shared/synthesis/run-multilevel.js';
 import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
+import { PARAMETER_LABELS, UNIT_LABELS, type Parameter, type Unit } from '../../shared/vocabulary/parameters.js';
 
 /** The settled-effect filters a request means (an SMD family widens the metric filter to its members). */
 export function requestFilters(request: SynthesisRequest): SettledEffectFilters {
@@ -27,6 +28,7 @@ export function synthesize(effects: readonly SettledEffect[], request: Synthesis
     return runSynthesis(effects, request);
   } catch (err) {
     if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics, choices: err.choices });
+    if (err instanceof MixedQuantitiesError) throw new UnprocessableError(err.message, { quantities: err.quantities, choices: err.choices });
     if (err instanceof NoEffectsError) throw new UnprocessableError(err.message, { effects: 0 });
     if (err instanceof MultilevelModelError) throw new UnprocessableError(err.message, { dependence: 'multilevel' });
     throw err;
@@ -87,6 +89,8 @@ export async function synthesisFacets(db: Knex): Promise<SynthesisFacets> {
     effects: rows.length,
     manipulations: tally((r) => r.manipulation).map((f) => ({ ...f, label: labels.get(f.value) ?? f.value })),
     outcomes: tally((r) => r.outcome),
+    parameters: tally((r) => r.parameter ?? null).map((f) => ({ ...f, label: PARAMETER_LABELS[f.value as Parameter] ?? f.value })),
+    units: tally((r) => r.unit ?? null).map((f) => ({ ...f, label: UNIT_LABELS[f.value as Unit] ?? f.value })),
     metrics: tally((r) => r.metric),
     populations: tally((r) => r.population),
     modalities: tally((r) => r.modality),

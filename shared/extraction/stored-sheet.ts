@@ -21,6 +21,8 @@ export function toSheet(studies: StoredStudy[], notes = ''): Sheet {
         label: e.label,
         outcome: e.outcome,
         manipulation: e.manipulation,
+        parameter: e.parameter,
+        unit: e.unit,
         form: e.form,
         reported: e.reported,
         assumedR: e.assumedR,

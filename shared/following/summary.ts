@@ -10,7 +10,7 @@ export function followedRequestSummary(request: unknown): string {
   const f = q.filters;
   const parts: string[] = [];
   if (f.manipulation !== undefined) parts.push(`manipulation: ${([] as string[]).concat(f.manipulation).join(', ')}`);
-  for (const kind of ['outcome', 'metric', 'population', 'modality', 'task', 'design'] as const) {
+  for (const kind of ['outcome', 'parameter', 'unit', 'metric', 'population', 'modality', 'task', 'design'] as const) {
     const v = f[kind];
     if (v !== undefined) parts.push(`${kind}: ${valueLabel(kind, v)}`);
   }

@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { DESIGNS } from '../vocabulary/designs.js';
 import { MODALITIES } from '../vocabulary/modalities.js';
 import { OUTCOME_KINDS, OUTCOMES, METRIC_LABELS } from '../vocabulary/outcomes.js';
+import { PARAMETERS, UNITS, quantityProblem } from '../vocabulary/parameters.js';
 import { POPULATIONS } from '../vocabulary/populations.js';
 import { TASKS } from '../vocabulary/tasks.js';
 import { REPORT_FORMS, REPORTED_KEYS, METRICS_OF_FORM, tryComputeReported, type Reported } from '../extraction/compute.js';
@@ -31,6 +32,9 @@ export const effectDraftSchema = z.object({
   label: z.preprocess(blank, z.string().trim().max(200, 'at most 200 characters').default('')),
   outcome: z.preprocess(blank, z.enum(OUTCOME_KINDS, 'choose an outcome kind').optional()),
   manipulation: z.preprocess(blank, termSchema.optional()),
+  /** what was measured and in which unit (blank: the outcome kind's usual ones, shown on the sheet) */
+  parameter: z.preprocess(blank, z.enum(PARAMETERS, 'choose what was measured').optional()),
+  unit: z.preprocess(blank, z.enum(UNITS, 'choose a unit').optional()),
   form: z.preprocess(blank, z.enum(REPORT_FORMS, 'choose how the result was reported').optional()),
   reported: reportedSchema.default({}),
   assumedR: z.preprocess(blank, z.coerce.number().gt(-1, 'must be above −1').lt(1, 'must be below 1').optional()),
@@ -84,6 +88,8 @@ export function checkSheetComplete(sheet: Sheet, ctx: z.RefinementCtx) {
       const q = [...p, 'effects', j];
       if (!e.outcome) required(ctx, [...q, 'outcome'], 'choose an outcome kind');
       if (!e.manipulation) required(ctx, [...q, 'manipulation'], 'choose a manipulation');
+      const quantity = quantityProblem(e, (k) => OUTCOMES[k].label);
+      if (quantity) required(ctx, [...q, quantity.field], quantity.message);
       if (!e.form) {
         required(ctx, [...q, 'form'], 'choose how the result was reported');
         return;
@@ -196,6 +202,8 @@ export const storedEffectSchema = z.object({
   label: z.string(),
   outcome: z.enum(OUTCOME_KINDS).optional(),
   manipulation: z.string().optional(),
+  parameter: z.enum(PARAMETERS).optional(),
+  unit: z.enum(UNITS).optional(),
   form: z.enum(REPORT_FORMS).optional(),
   reported: reportedSchema,
   assumedR: z.number().optional(),

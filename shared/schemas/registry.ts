@@ -16,6 +16,9 @@ export const settledEffectRowSchema = z.object({
   referenceLabel: z.string(),
   year: z.number().int().nullable(),
   outcome: z.string(),
+  /** what was measured and its unit; absent in snapshots frozen before both were recorded */
+  parameter: z.string().nullable().optional(),
+  unit: z.string().nullable().optional(),
   manipulation: z.string(),
   manipulationLabel: z.string(),
   ...computedSchema.shape,

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { METHODS } from '../stats/types.js';
 import { METRICS, SMD_FAMILIES } from '../stats/metrics.js';
+import { PARAMETERS, UNITS } from '../vocabulary/parameters.js';
 import type { PoolResult } from '../stats/types.js';
 import type { PrismaCounts } from '../synthesis/methods.js';
 import type { Caution, PlotFigure, SynthesisOutput } from '../synthesis/types.js';
@@ -15,6 +16,8 @@ export const synthesisFiltersSchema = z
   .object({
     manipulation: z.union([term, z.array(term).min(1).max(50)]).optional(),
     outcome: term.optional(),
+    parameter: z.enum(PARAMETERS).optional(),
+    unit: z.enum(UNITS).optional(),
     metric: z.enum(METRICS).optional(),
     population: term.optional(),
     modality: term.optional(),
@@ -128,6 +131,8 @@ export const synthesisFacetsSchema = z.object({
   effects: z.number().int(),
   manipulations: z.array(facetSchema),
   outcomes: z.array(facetSchema),
+  parameters: z.array(facetSchema),
+  units: z.array(facetSchema),
   metrics: z.array(facetSchema),
   populations: z.array(facetSchema),
   modalities: z.array(facetSchema),
@@ -148,6 +153,10 @@ export const pooledCellSchema = z.object({
   outcomeLabel: z.string(),
   manipulation: z.string(),
   manipulationLabel: z.string(),
+  /** what the cell's effects measured, in which unit */
+  parameter: z.string().nullable(),
+  unit: z.string().nullable(),
+  quantityLabel: z.string().nullable(),
   metric: z.string(),
   metricLabel: z.string(),
   filters: z.record(z.string(), z.string()),

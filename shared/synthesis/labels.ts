@@ -4,6 +4,7 @@ import { MODALITY_LABELS, type Modality } from '../vocabulary/modalities.js';
 import { TASK_LABELS, type Task } from '../vocabulary/tasks.js';
 import { DESIGN_LABELS, type Design } from '../vocabulary/designs.js';
 import type { Metric } from '../stats/metrics.js';
+import { PARAMETER_LABELS, UNIT_LABELS, type Parameter, type Unit } from '../vocabulary/parameters.js';
 
 /** A vocabulary value in words (falls back to the value itself). */
 export function valueLabel(kind: string, value: string): string {
@@ -12,6 +13,10 @@ export function valueLabel(kind: string, value: string): string {
       return OUTCOMES[value as OutcomeKind]?.label ?? value;
     case 'metric':
       return METRIC_LABELS[value as Metric] ?? value;
+    case 'parameter':
+      return PARAMETER_LABELS[value as Parameter] ?? value;
+    case 'unit':
+      return UNIT_LABELS[value as Unit] ?? value;
     case 'population':
       return POPULATION_LABELS[value as Population] ?? value;
     case 'modality':

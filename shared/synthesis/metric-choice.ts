@@ -1,5 +1,6 @@
 import { RAW_SCORE_SMDS, SMD_FAMILY_METRICS, isRawScoreSmd, LEGACY_SMD_KEY, type Metric, type SmdFamily } from '../stats/metrics.js';
 import { METRIC_LABELS, SMD_FAMILY_LABELS } from '../vocabulary/outcomes.js';
+import { quantityLabel, type Parameter, type Unit } from '../vocabulary/parameters.js';
 import type { SynthesisRequest } from '../schemas/synthesis.js';
 import type { SettledEffect } from './types.js';
 
@@ -56,17 +57,60 @@ export class MixedMetricsError extends Error {
 
 const plural = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
 
+/** Raised when the matching effects measured different parameters or used different units: never pooled together. */
+export class MixedQuantitiesError extends Error {
+  constructor(
+    readonly quantities: Array<{ parameter: string | null; unit: string | null; label: string; count: number }>,
+    readonly choices: PoolingChoice[],
+  ) {
+    super(
+      `These effects measured ${quantities.length} different quantities (${quantities.map((q) => `${q.label}: ${q.count}`).join(', ')}); effects of different parameters or units are never pooled together.` +
+        ` Add a parameter and unit filter, e.g. "filters": { "parameter": "${choices[0]?.request.filters.parameter ?? quantities[0].parameter}", "unit": "${choices[0]?.request.filters.unit ?? quantities[0].unit}" }, or take one of the choices.`,
+    );
+  }
+}
+
+const NOT_RECORDED = 'parameter and unit not recorded';
+
+/** Refuses (MixedQuantitiesError, one choice per parameter and unit) effects that are not one parameter in one unit. */
+export function assertOneQuantity(effects: readonly SettledEffect[], request: SynthesisRequest): void {
+  const byQuantity = new Map<string, { parameter: string | null; unit: string | null; count: number }>();
+  for (const e of effects) {
+    const key = `${e.parameter ?? ''}\u0000${e.unit ?? ''}`;
+    const q = byQuantity.get(key);
+    if (q) q.count++;
+    else byQuantity.set(key, { parameter: e.parameter ?? null, unit: e.unit ?? null, count: 1 });
+  }
+  if (byQuantity.size <= 1) return;
+  const quantities = [...byQuantity.values()]
+    .map((q) => ({ ...q, label: q.parameter && q.unit ? quantityLabel(q.parameter, q.unit) : NOT_RECORDED }))
+    .sort((a, b) => b.count - a.count || (a.label < b.label ? -1 : 1));
+  const choices: PoolingChoice[] = quantities
+    .filter((q) => q.parameter && q.unit)
+    .map((q) => ({
+      label: `Only ${q.label} (${plural(q.count, 'effect')})`,
+      effects: q.count,
+      request: { ...request, filters: { ...request.filters, parameter: q.parameter as Parameter, unit: q.unit as Unit } },
+    }));
+  throw new MixedQuantitiesError(quantities, choices);
+}
+
 /**
  * The one metric the effects are pooled in and its label; refuses (MixedMetricsError with one-click choices) when
- * they are several metrics, unless they are all of the SMD family the request pools.
+ * they are several metrics, unless they are all of the SMD family the request pools, and then (MixedQuantitiesError)
+ * when they are not one parameter in one unit.
  */
 export function pooledMetric(effects: readonly SettledEffect[], request: SynthesisRequest): { metric: string; label: string } {
   const byMetric = new Map<string, number>();
   for (const e of effects) byMetric.set(e.metric, (byMetric.get(e.metric) ?? 0) + 1);
   const family = request.smdFamily;
-  if (family && [...byMetric.keys()].every((m) => SMD_FAMILY_METRICS[family].includes(m as Metric)))
+  if (family && [...byMetric.keys()].every((m) => SMD_FAMILY_METRICS[family].includes(m as Metric))) {
+    assertOneQuantity(effects, request);
     return { metric: FAMILY_METRIC[family], label: metricLabel(FAMILY_METRIC[family]) };
+  }
   if (byMetric.size <= 1) {
+    // one metric: the effects must also be one parameter in one unit
+    assertOneQuantity(effects, request);
     const metric = effects[0].metric;
     return { metric, label: metricLabel(metric) };
   }

@@ -11,6 +11,9 @@ export interface SettledEffect {
   referenceLabel: string;
   year: number | null;
   outcome: string;
+  /** what was measured and its unit (shared/vocabulary/parameters.ts); null only for effects coded before both were recorded */
+  parameter?: string | null;
+  unit?: string | null;
   manipulation: string;
   /** the vocabulary label of the manipulation, when the repository gives it */
   manipulationLabel?: string;

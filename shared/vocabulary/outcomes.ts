@@ -21,7 +21,8 @@ export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   duration_distortion: {
     label: 'Duration distortion',
     typicalReport: 'perceived/physical duration, % change, PSE shift (ms) in bisection',
-    metrics: ['log_ratio', 'g_s', 'g_av', 'g_rm', 'g_z'],
+    // a PSE shift in ms is a mean difference
+    metrics: ['log_ratio', 'mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z'],
   },
   simultaneity_window: {
     label: 'Simultaneity window',
@@ -31,7 +32,8 @@ export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   temporal_order: {
     label: 'Temporal order',
     typicalReport: 'PSS and JND (ms) from temporal order judgements',
-    metrics: ['mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z'],
+    // a ratio of JNDs is a log ratio of means
+    metrics: ['mean_diff', 'log_ratio', 'g_s', 'g_av', 'g_rm', 'g_z'],
   },
   recalibration_shift: {
     label: 'Recalibration shift',

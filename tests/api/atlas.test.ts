@@ -29,7 +29,8 @@ describe('atlas', () => {
     expect(page.body.manipulation.description).toMatch(/Brighter/);
     expect(page.body.cells).toHaveLength(1);
     const cell = page.body.cells[0];
-    expect(cell.filters).toEqual({ manipulation: 'luminance', outcome: 'duration_distortion', metric: 'g_s' });
+    expect(cell.filters).toEqual({ manipulation: 'luminance', outcome: 'duration_distortion', parameter: 'duration_ratio', unit: 'ratio', metric: 'g_s' });
+    expect(cell.quantityLabel).toBe('Perceived-duration ratio (ratio)');
     const live = await request(t.app).post('/api/syntheses').set('Origin', process.env.APP_ORIGIN!).send({ filters: cell.filters });
     expect(cell.pooled.estimate).toBe(live.body.result.estimate);
     expect(cell.pooled.I2).toBe(live.body.result.I2);

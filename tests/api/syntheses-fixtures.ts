@@ -15,6 +15,9 @@ export interface InventedStudy {
   form?: 'smd' | 'log_ratio' | 'smd_paired';
   /** what was reported, instead of the two groups' means and SDs (e.g. a paired t) */
   reported?: Record<string, number>;
+  /** what was measured and its unit (blank: the outcome kind's usual ones) */
+  parameter?: string;
+  unit?: string;
 }
 
 let counter = 0;
@@ -35,6 +38,8 @@ export async function settleInventedReference(db: Knex, manipulation: string, ye
     manipulation,
     form: s.form ?? 'smd',
     reported: s.reported ?? { mean1: m1, sd1: s.sd, n1: s.n, mean2: m2, sd2: s.sd, n2: s.n },
+    ...(s.parameter ? { parameter: s.parameter } : {}),
+    ...(s.unit ? { unit: s.unit } : {}),
   });
   const sheet = {
     studies: studies.map((s, i) => ({

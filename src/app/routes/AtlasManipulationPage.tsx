@@ -35,12 +35,12 @@ export function AtlasManipulationPage() {
       <Caution title="Not clinical guidance">{NOT_CLINICAL}</Caution>
       {data.cells.length === 0 && <EmptyState>No settled effects for this manipulation yet. Import and code a paper that manipulates it.</EmptyState>}
       {data.cells.map((c) => (
-        <section key={`${c.outcome}-${c.metric}`} aria-label={`${c.outcomeLabel}, ${c.metricLabel}`}>
+        <section key={`${c.outcome}-${c.parameter}-${c.unit}-${c.metric}`} aria-label={`${c.outcomeLabel}, ${c.metricLabel}`}>
           <h2>
-            {c.outcomeLabel} <span className="font-normal text-ink-soft">· {c.metricLabel}</span>
+            {c.outcomeLabel} <span className="font-normal text-ink-soft">· {c.quantityLabel ? `${c.quantityLabel} · ` : ''}{c.metricLabel}</span>
           </h2>
           <PooledCellSummary cell={c} heading="Current pooled estimate" openHref={filtersHref(c.filters)} />
-          {c.forest && <PlotFigure figure={c.forest} name={`chronometa-atlas-${term}-${c.outcome}-${c.metric}-forest`} label="Forest plot" />}
+          {c.forest && <PlotFigure figure={c.forest} name={`chronometa-atlas-${term}-${c.outcome}-${c.parameter ? `${c.parameter}-` : ''}${c.metric}-forest`} label="Forest plot" />}
         </section>
       ))}
       <h2>References</h2>

@@ -57,11 +57,14 @@ export function AtlasOutcomePage() {
             {data.cells.map((c) => {
               const d = digitsFor(c.metric);
               return (
-                <tr key={`${c.manipulation}-${c.metric}`}>
+                <tr key={`${c.manipulation}-${c.parameter}-${c.unit}-${c.metric}`}>
                   <td>
                     <Link to={`/atlas/manipulations/${c.manipulation}`}>{c.manipulationLabel}</Link>
                   </td>
-                  <td>{c.metricLabel}</td>
+                  <td>
+                    {c.quantityLabel ? `${c.quantityLabel} · ` : ''}
+                    {c.metricLabel}
+                  </td>
                   <td className="num">{c.counts.studies}</td>
                   <td className="num">{c.counts.effects}</td>
                   <td className="num">

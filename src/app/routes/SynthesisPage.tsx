@@ -22,6 +22,8 @@ import { PlotFigure } from '../../features/plots/components/PlotFigure';
 const FORM_FIELDS = [
   'filters.manipulation',
   'filters.outcome',
+  'filters.parameter',
+  'filters.unit',
   'filters.metric',
   'filters.population',
   'filters.modality',

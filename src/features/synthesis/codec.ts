@@ -8,7 +8,7 @@ import { numberOrNothing, numberText, numericText as numeric, yearText } from '.
  */
 export const DEFAULT_REQUEST: SynthesisRequest = synthesisRequestSchema.parse({});
 
-const TEXT_FILTERS = ['outcome', 'metric', 'population', 'modality', 'task', 'design'] as const;
+const TEXT_FILTERS = ['outcome', 'parameter', 'unit', 'metric', 'population', 'modality', 'task', 'design'] as const;
 const YEAR_FILTERS = ['yearFrom', 'yearTo'] as const;
 const MAX_MANIPULATIONS = 50;
 /** The address of a synthesis with every option at its default and no filter. */
@@ -37,6 +37,8 @@ export interface SynthesisFormValues {
   filters: {
     manipulation: string[];
     outcome: string;
+    parameter: string;
+    unit: string;
     metric: string;
     population: string;
     modality: string;
@@ -104,6 +106,8 @@ function valuesFromParams(p: URLSearchParams): SynthesisFormValues {
     filters: {
       manipulation: p.getAll('manipulation'),
       outcome: get('outcome', ''),
+      parameter: get('parameter', ''),
+      unit: get('unit', ''),
       metric: get('metric', ''),
       population: get('population', ''),
       modality: get('modality', ''),
@@ -174,6 +178,8 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
     filters: {
       manipulation: ([] as string[]).concat(f.manipulation ?? []),
       outcome: f.outcome ?? '',
+      parameter: f.parameter ?? '',
+      unit: f.unit ?? '',
       metric: f.metric ?? '',
       population: f.population ?? '',
       modality: f.modality ?? '',
@@ -246,6 +252,8 @@ const formValuesSchema = z.object({
   filters: z.object({
     manipulation: z.array(z.string()),
     outcome: z.string(),
+    parameter: z.string(),
+    unit: z.string(),
     metric: z.string(),
     population: z.string(),
     modality: z.string(),

@@ -6,6 +6,7 @@ import { effectDraftSchema, sheetDraftSchema, sheetSubmitSchema, studyDraftSchem
 import { DESIGNS, DESIGN_LABELS } from '../../../../shared/vocabulary/designs';
 import { MODALITIES, MODALITY_LABELS } from '../../../../shared/vocabulary/modalities';
 import { OUTCOMES, OUTCOME_KINDS, METRIC_LABELS } from '../../../../shared/vocabulary/outcomes';
+import { OUTCOME_PARAMETERS, PARAMETERS, PARAMETER_LABELS, PARAMETER_UNITS, SIGN_CONVENTIONS, UNITS, UNIT_LABELS, effectQuantity, type QuantityChoice } from '../../../../shared/vocabulary/parameters';
 import { POPULATIONS, POPULATION_LABELS } from '../../../../shared/vocabulary/populations';
 import { TASKS, TASK_LABELS } from '../../../../shared/vocabulary/tasks';
 import { Button } from '../../../components/ui/Button';
@@ -57,6 +58,9 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
   const fields = e?.form ? REPORT_FIELDS[e.form] : [];
   const needsR = e?.form === 'smd_paired' || e?.form === 'log_ratio_paired';
   const metricMismatch = e?.outcome && attempt?.ok && !OUTCOMES[e.outcome].metrics.includes(attempt.result!.metric);
+  // blank parameter or unit: the outcome kind's usual ones, said in the blank option
+  const usual = e?.outcome ? effectQuantity({ outcome: e.outcome, parameter: e.parameter }) : null;
+  const allowed: readonly string[] = e?.outcome ? OUTCOME_PARAMETERS[e.outcome] : [];
   return (
     <fieldset className="mt-3 rounded border border-paper-edge p-3" aria-label={`Study ${i + 1}, effect ${j + 1}`}>
       <legend className="px-1 text-sm font-semibold">Effect {j + 1}</legend>
@@ -64,12 +68,43 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
         <Field label="Label (what was contrasted)" error={messageAt(errors, `${p}.label`)}>
           <input className={inputCls} {...register(`${p}.label`)} placeholder="e.g. bright vs dim" />
         </Field>
-        <Field label="Outcome kind" error={messageAt(errors, `${p}.outcome`)}>
+        <Field label="Outcome kind" error={messageAt(errors, `${p}.outcome`)} hint={e?.outcome ? `Sign: ${SIGN_CONVENTIONS[e.outcome]}` : undefined}>
           <select className={inputCls} {...register(`${p}.outcome`, txt)} aria-invalid={!!messageAt(errors, `${p}.outcome`)}>
             <option value="">— choose —</option>
             {OUTCOME_KINDS.map((k) => (
               <option key={k} value={k}>
                 {OUTCOMES[k].label}
+              </option>
+            ))}
+          </select>
+        </Field>
+        <Field label="Parameter (what was measured)" error={messageAt(errors, `${p}.parameter`)}>
+          <select className={inputCls} {...register(`${p}.parameter`, txt)} aria-invalid={!!messageAt(errors, `${p}.parameter`)}>
+            <option value="">{usual && !e?.parameter ? `usual: ${PARAMETER_LABELS[usual.parameter]}` : '— usual for the outcome kind —'}</option>
+            {allowed.length > 0 && (
+              <optgroup label={`For ${OUTCOMES[e!.outcome!].label.toLowerCase()}`}>
+                {allowed.map((k) => (
+                  <option key={k} value={k}>
+                    {PARAMETER_LABELS[k as keyof typeof PARAMETER_LABELS]}
+                  </option>
+                ))}
+              </optgroup>
+            )}
+            <optgroup label={allowed.length ? 'Of other outcome kinds' : 'Parameters'}>
+              {PARAMETERS.filter((k) => !allowed.includes(k)).map((k) => (
+                <option key={k} value={k}>
+                  {PARAMETER_LABELS[k]}
+                </option>
+              ))}
+            </optgroup>
+          </select>
+        </Field>
+        <Field label="Unit" error={messageAt(errors, `${p}.unit`)} hint={usual ? `${PARAMETER_LABELS[usual.parameter]} is measured in ${PARAMETER_UNITS[usual.parameter].map((u) => UNIT_LABELS[u]).join(' or ')}` : undefined}>
+          <select className={inputCls} {...register(`${p}.unit`, txt)} aria-invalid={!!messageAt(errors, `${p}.unit`)}>
+            <option value="">{usual && !e?.unit ? `usual: ${UNIT_LABELS[usual.unit]}` : '— usual for the parameter —'}</option>
+            {UNITS.map((u) => (
+              <option key={u} value={u}>
+                {UNIT_LABELS[u]}
               </option>
             ))}
           </select>
@@ -234,7 +269,22 @@ export interface SheetExtrasTarget {
   addEffect: (studyIndex: number | null, effect: SheetEffect, newStudy: { label: string; n1: number; modality: NonNullable<Sheet['studies'][number]['modality']>; task: NonNullable<Sheet['studies'][number]['task']> }) => void;
 }
 
-type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved'; at: string } | { kind: 'invalid' } | { kind: 'conflict'; message: string } | { kind: 'error'; message: string };
+/** A 422 of the save: an effect whose parameter or unit its outcome kind does not allow, with the allowed ones. */
+interface QuantityRefusal {
+  effect: string;
+  path: string;
+  message: string;
+  choices: QuantityChoice[];
+}
+
+type SaveState =
+  | { kind: 'idle' }
+  | { kind: 'saving' }
+  | { kind: 'saved'; at: string }
+  | { kind: 'invalid' }
+  | { kind: 'conflict'; message: string }
+  | { kind: 'refused'; message: string; problems: QuantityRefusal[] }
+  | { kind: 'error'; message: string };
 
 /** The extraction sheet: studies, effects, live effect sizes, autosave every couple of seconds, submit. */
 export function SheetForm({
@@ -259,7 +309,7 @@ export function SheetForm({
     defaultValues: toFormSheet(detail.studies, x.notes),
     mode: 'onBlur',
   });
-  const { control, register, formState, setError, clearErrors, getValues, reset } = form;
+  const { control, register, formState, setError, clearErrors, getValues, reset, setValue } = form;
   const studies = useFieldArray({ control, name: 'studies' });
   const version = useRef(x.version);
   const lastSaved = useRef(JSON.stringify(getValues()));
@@ -286,7 +336,12 @@ export function SheetForm({
       setSave({ kind: 'saved', at: new Date(res.updatedAt).toLocaleTimeString() });
       return true;
     } catch (err) {
+      const problems = err instanceof ApiRequestError && err.status === 422 ? (err.details as { problems?: QuantityRefusal[] } | undefined)?.problems : undefined;
       if (err instanceof ApiRequestError && err.status === 409) setSave({ kind: 'conflict', message: err.message });
+      else if (problems?.length) {
+        for (const pr of problems) setError(pr.path.replace(/^body\.sheet\./, '') as any, { message: pr.message });
+        setSave({ kind: 'refused', message: (err as Error).message, problems });
+      }
       else if (err instanceof ApiRequestError && err.status === 400) {
         for (const [path, message] of Object.entries(err.fieldErrors())) setError(path.replace(/^sheet\./, '') as any, { message });
         setSave({ kind: 'invalid' });
@@ -373,6 +428,28 @@ export function SheetForm({
           </div>
         )}
         {save.kind === 'error' && <ErrorNote error={save.message} />}
+        {save.kind === 'refused' && (
+          <div role="alert" className="my-2 rounded border-l-4 border-refusal bg-refusal-light px-3 py-2 text-sm text-refusal">
+            <strong>✕ Not saved:</strong>
+            {save.problems.map((pr) => (
+              <div key={pr.path} className="mt-1 flex flex-wrap items-center gap-2 text-ink" role="group" aria-label={`Choices for ${pr.message.split(':')[0]}`}>
+                <span>{pr.message}. Choose:</span>
+                {pr.choices.map((c) => (
+                  <Button
+                    key={c.label}
+                    onClick={() => {
+                      for (const [k, v] of Object.entries(c.set)) setValue(`${pr.effect}.${k}` as any, v, { shouldDirty: true });
+                      clearErrors();
+                      void flush();
+                    }}
+                  >
+                    {c.label}
+                  </Button>
+                ))}
+              </div>
+            ))}
+          </div>
+        )}
         {messageAt(formState.errors, 'studies') && <p className="text-sm text-refusal">✕ {messageAt(formState.errors, 'studies')}</p>}
         {studies.fields.length === 0 && <p className="my-3 text-ink-soft">No studies yet. Add the first experiment of the paper, or paste rows from a spreadsheet below.</p>}
         {studies.fields.map((f, i) => (

@@ -1,6 +1,7 @@
 import { METRIC_LABELS } from '../../../../shared/vocabulary/outcomes';
 import type { Metric } from '../../../../shared/stats/metrics';
 import { formulas } from '../../../../shared/stats/formulas';
+import { quantityLabel } from '../../../../shared/vocabulary/parameters';
 import type { StoredStudy } from '../api/types';
 import { fixed } from '../../../lib/format';
 
@@ -27,6 +28,7 @@ export function SheetView({ studies, compact = false }: { studies: StoredStudy[]
                   <th>Label</th>
                   <th>Outcome</th>
                   <th>Manipulation</th>
+                  <th>Parameter (unit)</th>
                   <th>Metric</th>
                   <th className="num">Effect (3 dp)</th>
                   <th className="num">Variance (4 dp)</th>
@@ -44,6 +46,7 @@ export function SheetView({ studies, compact = false }: { studies: StoredStudy[]
                     </td>
                     <td>{e.outcome ?? '—'}</td>
                     <td>{e.manipulation ?? '—'}</td>
+                    <td>{e.parameter && e.unit ? quantityLabel(e.parameter, e.unit) : '—'}</td>
                     <td>{e.computed ? METRIC_LABELS[e.computed.metric as Metric] : '—'}</td>
                     <td className="num">{fixed(e.computed?.effect, 3)}</td>
                     <td className="num">{fixed(e.computed?.variance, 4)}</td>

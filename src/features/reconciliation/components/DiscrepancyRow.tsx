@@ -5,6 +5,7 @@ import { REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, ty
 import { DESIGNS } from '../../../../shared/vocabulary/designs';
 import { MODALITIES } from '../../../../shared/vocabulary/modalities';
 import { OUTCOME_KINDS } from '../../../../shared/vocabulary/outcomes';
+import { PARAMETERS, UNITS } from '../../../../shared/vocabulary/parameters';
 import { POPULATIONS } from '../../../../shared/vocabulary/populations';
 import { TASKS } from '../../../../shared/vocabulary/tasks';
 import { Button } from '../../../components/ui/Button';
@@ -19,7 +20,7 @@ import type { DiscrepancyRow as Row } from '../api/get-pair';
 import { useResolveDiscrepancy } from '../api/resolve-discrepancy';
 import { discrepancyFormSchema } from '../forms/discrepancy';
 
-const CHOICES: Record<string, readonly string[]> = { design: DESIGNS, population: POPULATIONS, modality: MODALITIES, task: TASKS, outcome: OUTCOME_KINDS };
+const CHOICES: Record<string, readonly string[]> = { design: DESIGNS, population: POPULATIONS, modality: MODALITIES, task: TASKS, outcome: OUTCOME_KINDS, parameter: PARAMETERS, unit: UNITS };
 const NUMERIC = new Set(['n1', 'n2', 'standardMs']);
 
 export function showValue(field: string, v: unknown): string {

@@ -8,7 +8,7 @@ import type { SynthesisFormValues } from '../codec';
 import { valueLabel } from '../labels';
 
 export type SynthesisForm = UseFormReturn<SynthesisFormValues, unknown, SynthesisRequest>;
-type FacetPath = 'filters.outcome' | 'filters.metric' | 'filters.population' | 'filters.modality' | 'filters.task' | 'filters.design';
+type FacetPath = 'filters.outcome' | 'filters.parameter' | 'filters.unit' | 'filters.metric' | 'filters.population' | 'filters.modality' | 'filters.task' | 'filters.design';
 
 const inputClass = 'rounded border bg-white/70 px-2 py-1 border-paper-edge aria-[invalid=true]:border-refusal';
 
@@ -85,6 +85,12 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
         </SynthesisField>
         <SynthesisField label="Outcome kind" error={err('filters.outcome')}>
           <FacetSelect control={control} name="filters.outcome" kind="outcome" facets={f?.outcomes ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Parameter" error={err('filters.parameter')} hint="What was measured (PSE, JND …)">
+          <FacetSelect control={control} name="filters.parameter" kind="parameter" facets={f?.parameters ?? []} />
+        </SynthesisField>
+        <SynthesisField label="Unit" error={err('filters.unit')} hint="Different parameters or units are never pooled together">
+          <FacetSelect control={control} name="filters.unit" kind="unit" facets={f?.units ?? []} />
         </SynthesisField>
         <SynthesisField label="Metric" error={err('filters.metric')} hint="Different metrics are never pooled together">
           <FacetSelect control={control} name="filters.metric" kind="metric" facets={f?.metrics ?? []} />
