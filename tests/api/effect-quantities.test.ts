@@ -79,9 +79,11 @@ describe('effect parameters and units', () => {
     expect(bad.body.error.details.map((d: { path: string }) => d.path)).toContain('body.sheet.studies.0.effects.0.unit');
   });
 
-  it('refusals by role come before the check: the other coder 403, signed out 401, a contributor editing a settled effect 403', async () => {
+  it('refusals by role come before the check: another contributor 404 (as a missing id), signed out 401, a contributor editing a settled effect 403', async () => {
     const refused = { version, sheet: sheetWith({ parameter: 'pss' }) };
-    expect((await coder2.put(`/api/extractions/${sheetId}`).send(refused)).status).toBe(403);
+    const hidden = await coder2.put(`/api/extractions/${sheetId}`).send(refused);
+    expect(hidden.status).toBe(404);
+    expect(hidden.body.error.details).toBeUndefined();
     expect((await anonymous(t.app).put(`/api/extractions/${sheetId}`).send(refused)).status).toBe(401);
     const { referenceId } = await settleInventedReference(t.ctx.db, 'luminance', 2015, [{ mean1: 650, mean2: 600, sd: 80, n: 20 }]);
     const [row] = await querySettledEffects(t.ctx.db, { referenceId });
