@@ -267,11 +267,12 @@ export async function readSheet(db: Db, extractionId: number): Promise<StoredStu
 /** The manipulation terms a sheet names (to resolve before writing it). */
 export const sheetTerms = (sheet: Sheet): string[] => sheet.studies.flatMap((s) => s.effects.map((e) => e.manipulation).filter((t): t is string => !!t));
 
-/** Live references with a coding sheet past draft (submitted, compared or settled): coded, for the flow counts. */
+/** Live included references with a coding sheet past draft (submitted, compared or settled): coded, for the flow counts. */
 export async function codedReferenceCount(db: Db): Promise<number> {
   const [row] = await db('extractions as x')
     .join('refs as r', 'r.id', 'x.reference_id')
     .whereNull('r.merged_into')
+    .where('r.screening_status', 'included')
     .whereNot('x.state', 'draft')
     .countDistinct<{ n: string }[]>({ n: 'x.reference_id' });
   return Number(row.n);

@@ -292,6 +292,7 @@ export interface SnapshotRow {
   methods: string;
   references: unknown;
   prisma: unknown;
+  flow: unknown;
   software: string;
 }
 

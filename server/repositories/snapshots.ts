@@ -1,12 +1,13 @@
 import { countRows, pageOf, type Db, type PageRequest } from './db.js';
 import type { SnapshotRow, UserRow } from './rows.js';
 
-export type NewSnapshot = Omit<SnapshotRow, 'created_at' | 'request' | 'effects' | 'output' | 'references' | 'prisma'> & {
+export type NewSnapshot = Omit<SnapshotRow, 'created_at' | 'request' | 'effects' | 'output' | 'references' | 'prisma' | 'flow'> & {
   request: unknown;
   effects: unknown;
   output: unknown;
   references: unknown;
   prisma: unknown;
+  flow: unknown;
 };
 
 /** Stores a snapshot (the table refuses any later change). */
@@ -18,6 +19,7 @@ export async function insertSnapshot(db: Db, s: NewSnapshot): Promise<void> {
     output: JSON.stringify(s.output),
     references: JSON.stringify(s.references),
     prisma: s.prisma == null ? null : JSON.stringify(s.prisma),
+    flow: s.flow == null ? null : JSON.stringify(s.flow),
   });
 }
 

@@ -8,7 +8,7 @@ import { snapshotCreateSchema, snapshotIdSchema, snapshotListQuerySchema } from 
 import { snapshotTrialsCsv } from '../services/trials.js';
 import { snapshotDiff, snapshotFeed } from '../services/snapshot-changes.js';
 import { synthesisSize } from '../services/synthesis.js';
-import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCitation, snapshotCsv, snapshotEffectsCsv, snapshotView } from '../services/snapshots.js';
+import { createSnapshot, listSnapshots, loadSnapshot, snapshotBibtex, snapshotCitation, snapshotCsv, snapshotEffectsCsv, snapshotFlowSvg, snapshotView } from '../services/snapshots.js';
 
 /** Frozen syntheses: reviewers save them; anyone (signed out too) reads and exports them. */
 export function snapshotsRouter(ctx: AppContext) {
@@ -79,6 +79,12 @@ export function snapshotsRouter(ctx: AppContext) {
   router.get('/snapshots/:id/references.bib', async (req, res) => {
     const s = await loadForExport(req);
     res.type('application/x-bibtex; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}.bib`)).send(snapshotBibtex(s));
+  });
+
+  router.get('/snapshots/:id/flow.svg', async (req, res) => {
+    const s = await load(req.params);
+    const svg = snapshotFlowSvg(s);
+    res.type('image/svg+xml; charset=utf-8').set('Content-Disposition', attachment(`chronometa-snapshot-${s.id}-flow.svg`)).send(svg);
   });
 
   router.get('/snapshots/:id/methods.txt', async (req, res) => {

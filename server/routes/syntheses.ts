@@ -5,6 +5,7 @@ import { parseInput } from '../lib/validate.js';
 import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
 import { liveSynthesisExport, registrySynthesis, synthesisFacets, synthesisSize } from '../services/synthesis.js';
 import { RegistryCache } from '../services/registry-cache.js';
+import { flowSvg, liveSynthesisFlow } from '../services/flow.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
 export function synthesesRouter(ctx: AppContext) {
@@ -34,8 +35,21 @@ export function synthesesRouter(ctx: AppContext) {
     const { request } = parseInput(synthesisExportQuerySchema, req.query, 'query');
     const k = await synthesisSize(ctx.db, request);
     chargeCaller(req, costs.synthesis(k), `An export of a synthesis of ${k} effects`);
+    if (file === 'flow.svg') {
+      const { registryVersion, flow } = await liveSynthesisFlow(ctx.db, request);
+      const name = `chronometa-synthesis-v${registryVersion}-flow.svg`;
+      res.type('image/svg+xml; charset=utf-8').set('Content-Disposition', `attachment; filename="${name}"`).send(flowSvg(flow, `Synthesis on registry version ${registryVersion} (not saved)`));
+      return;
+    }
     const out = await liveSynthesisExport(ctx.db, request, file);
     res.type(out.type).set('Content-Disposition', `attachment; filename="${out.name}"`).send(out.body);
+  });
+
+  router.post('/syntheses/flow', async (req, res) => {
+    const request = parseInput(synthesisRequestSchema, req.body);
+    const k = await synthesisSize(ctx.db, request);
+    chargeCaller(req, costs.synthesis(k), `The flow of a synthesis of ${k} effects`);
+    res.json(await liveSynthesisFlow(ctx.db, request));
   });
 
   router.get('/syntheses/facets', async (_req, res) => {

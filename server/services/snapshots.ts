@@ -12,6 +12,7 @@ import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows, lockSnapshotRequest, snapshotsOfRequest } from '../repositories/snapshots.js';
 import { requestFilters, synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
+import { flowIn, flowSvg } from './flow.js';
 import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
@@ -19,6 +20,7 @@ import { METHOD_LABELS, type CreatedSnapshot, type SnapshotCitation, type Snapsh
 import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
 import type { SynthesisOutput } from '../../shared/synthesis/types.js';
+import type { SynthesisFlow } from '../../shared/synthesis/flow.js';
 
 const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
 export const SOFTWARE = { name: 'Chronometa', version: pkg.version };
@@ -97,6 +99,7 @@ async function saveSnapshot(db: Knex, actorId: number, request: SynthesisRequest
       const refIds = [...new Set(output.rows.map((r) => r.referenceId))];
       const refs = await refsForCitation(trx, refIds);
       const prisma = await prismaForMethods(trx);
+      const flow = await flowIn(trx, request);
       const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma, notRun: output.unavailable.map((u) => u.analysis) });
       const id = newId();
       await insertSnapshot(trx, {
@@ -113,6 +116,7 @@ async function saveSnapshot(db: Knex, actorId: number, request: SynthesisRequest
         methods,
         references: refs.map((r) => ({ id: r.id, title: r.title, year: r.year, doi: r.doi, firstAuthor: r.first_author, csl: r.csl })),
         prisma,
+        flow,
         software: `${SOFTWARE.name} ${SOFTWARE.version}`,
       });
       await recordAudit(trx, {
@@ -137,6 +141,7 @@ export interface StoredSnapshot {
   software: string;
   methods: string;
   prisma: PrismaCounts | null;
+  flow: SynthesisFlow | null;
   request: SynthesisRequest;
   effects: SettledEffectRow[];
   output: SynthesisOutput;
@@ -155,6 +160,7 @@ export async function loadSnapshot(db: Knex, id: string): Promise<StoredSnapshot
     software: r.software,
     methods: r.methods,
     prisma: r.prisma as PrismaCounts | null,
+    flow: (r.flow as SynthesisFlow | null) ?? null,
     request: r.request as SynthesisRequest,
     effects: r.effects as SettledEffectRow[],
     output: r.output as SynthesisOutput,
@@ -199,6 +205,7 @@ export function snapshotView(s: StoredSnapshot, appOrigin: string): SnapshotView
     software: s.software,
     methods: s.methods,
     prisma: s.prisma,
+    flow: s.flow,
     citation: snapshotCitation(s, appOrigin),
     effects: s.effects,
     references: references.map(({ csl: _csl, ...r }) => r),
@@ -210,6 +217,12 @@ export const snapshotCsv = (s: StoredSnapshot) => studiesCsv(s.output, s.effects
 
 /** Every settled effect as it was coded. */
 export const snapshotEffectsCsv = (s: StoredSnapshot) => effectsCsv(s.effects);
+
+/** The PRISMA 2020 flow diagram of the snapshot's synthesis; snapshots saved before the flow was kept have none. */
+export function snapshotFlowSvg(s: StoredSnapshot): string {
+  if (!s.flow) throw new NotFoundError(`Snapshot ${s.id} was saved before the flow of records was kept, so it has no flow diagram; its methods paragraph gives the registry's counts.`);
+  return flowSvg(s.flow, s.title);
+}
 
 export function snapshotBibtex(s: StoredSnapshot): string {
   const records = s.references.map((r) => ({ ...r.csl, id: (r.csl.id as string | undefined) ?? `ref${r.id}` }));

@@ -56,7 +56,7 @@ export async function registrySynthesis(db: Knex, request: SynthesisRequest): Pr
  * A live synthesis as a download (no snapshot is saved): the rows, the effects and the registry version come
  * from one consistent view of the registry, and the file name carries that version.
  */
-export async function liveSynthesisExport(db: Knex, request: SynthesisRequest, file: (typeof SYNTHESIS_EXPORT_FILES)[number]) {
+export async function liveSynthesisExport(db: Knex, request: SynthesisRequest, file: Exclude<(typeof SYNTHESIS_EXPORT_FILES)[number], 'flow.svg'>) {
   const { registryVersion, effects, output } = await db.transaction(
     async (trx) => {
       const version = await currentRegistryVersion(trx);

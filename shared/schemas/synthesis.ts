@@ -5,6 +5,7 @@ import { PARAMETERS, UNITS } from '../vocabulary/parameters.js';
 import type { PoolResult } from '../stats/types.js';
 import type { PrismaCounts } from '../synthesis/methods.js';
 import type { Caution, PlotFigure, SynthesisOutput } from '../synthesis/types.js';
+import type { SynthesisFlow } from '../synthesis/flow.js';
 import { pageSchema, pagingSchema, timestamp } from './common.js';
 import { settledEffectRowSchema } from './registry.js';
 
@@ -99,8 +100,8 @@ export const snapshotListQuerySchema = pagingSchema(['created_at', 'k', 'estimat
 export const snapshotCreateSchema = synthesisRequestSchema.extend({ title: z.string().trim().min(1).max(200).optional() });
 
 /** GET /api/syntheses/export/:file?request=<the synthesis request as JSON>: a live synthesis as a download, without freezing it. */
-export const SYNTHESIS_EXPORT_FILES = ['studies.csv', 'effects.csv', 'synthesis.json'] as const;
-export const synthesisExportPathSchema = z.object({ file: z.enum(SYNTHESIS_EXPORT_FILES, { message: 'choose studies.csv, effects.csv or synthesis.json' }) });
+export const SYNTHESIS_EXPORT_FILES = ['studies.csv', 'effects.csv', 'synthesis.json', 'flow.svg'] as const;
+export const synthesisExportPathSchema = z.object({ file: z.enum(SYNTHESIS_EXPORT_FILES, { message: 'choose studies.csv, effects.csv, synthesis.json or flow.svg' }) });
 export const synthesisExportQuerySchema = z.object({
   request: z
     .string({ message: 'give the synthesis request as JSON in the request parameter' })
@@ -227,6 +228,31 @@ export type SnapshotSummary = z.infer<typeof snapshotSummarySchema>;
 export const snapshotPageSchema = pageSchema(snapshotSummarySchema);
 export type SnapshotPage = z.infer<typeof snapshotPageSchema>;
 
+const count = z.number().int().min(0);
+const flowReasonSchema = z.object({ reason: z.string(), label: z.string(), count });
+/** The flow of records into one synthesis (PRISMA 2020), stage by stage (shared/synthesis/flow.ts builds it). */
+export const synthesisFlowSchema: z.ZodType<SynthesisFlow> = z.object({
+  identified: z.object({ total: count, bySource: z.record(z.string(), count) }),
+  duplicatesRemoved: z.object({ total: count, importDuplicates: count, merged: count }),
+  afterDuplicates: count,
+  stages: z.array(
+    z.object({
+      stage: z.enum(['screening', 'coding', 'reconciliation', 'synthesis']),
+      label: z.string(),
+      entered: count,
+      passed: count,
+      excluded: count,
+      excludedByReason: z.array(flowReasonSchema),
+      pending: count,
+      pendingLabel: z.string().nullable(),
+    }),
+  ),
+  entering: z.object({ references: count, studies: count, effects: count }),
+});
+/** POST /api/syntheses/flow: the flow and the registry version it was counted on. */
+export const synthesisFlowAnswerSchema = z.object({ registryVersion: z.number().int(), flow: synthesisFlowSchema });
+export type SynthesisFlowAnswer = z.infer<typeof synthesisFlowAnswerSchema>;
+
 /** POST /api/snapshots */
 export const createdSnapshotSchema = z.object({
   id: z.string(),
@@ -268,6 +294,8 @@ export const snapshotViewSchema = z.custom<SynthesisOutput>().and(
     software: z.string(),
     methods: z.string(),
     prisma: z.custom<PrismaCounts>().nullable(),
+    /** the flow of records into this synthesis, stage by stage (null for snapshots saved before it was kept) */
+    flow: synthesisFlowSchema.nullable(),
     citation: snapshotCitationSchema,
     effects: z.array(settledEffectRowSchema),
     references: z.array(snapshotReferenceSchema),

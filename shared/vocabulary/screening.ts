@@ -23,3 +23,14 @@ export const EXCLUSION_REASON_LABELS: Record<ExclusionReason, string> = {
   duplicate_publication: 'Duplicate publication',
   other: 'Other (explained)',
 };
+
+/** Where a reference came from (refs.source), in words for the flow diagram and exports. */
+export const REFERENCE_SOURCE_LABELS: Record<string, string> = {
+  bibtex: 'BibTeX import',
+  ris: 'RIS import',
+  doi: 'DOI look-up',
+  manual: 'Entered by hand',
+  seed: 'Demo registry',
+  'csl-json': 'CSL-JSON import',
+};
+export const referenceSourceLabel = (source: string) => REFERENCE_SOURCE_LABELS[source] ?? source;

@@ -50,7 +50,7 @@ describe('exports: CSV injection, file names, live syntheses', () => {
   });
 
   it('every snapshot export is named by the snapshot id, methods.txt included', async () => {
-    const files = { 'export.csv': `${snapshot}.csv`, 'effects.csv': `${snapshot}-effects.csv`, 'export.json': `${snapshot}.json`, 'references.bib': `${snapshot}.bib`, 'methods.txt': `${snapshot}-methods.txt`, 'trials.csv': `${snapshot}-trials.csv` };
+    const files = { 'export.csv': `${snapshot}.csv`, 'effects.csv': `${snapshot}-effects.csv`, 'export.json': `${snapshot}.json`, 'references.bib': `${snapshot}.bib`, 'methods.txt': `${snapshot}-methods.txt`, 'trials.csv': `${snapshot}-trials.csv`, 'flow.svg': `${snapshot}-flow.svg` };
     for (const [path, name] of Object.entries(files)) {
       const res = await request(t.app).get(`/api/snapshots/${snapshot}/${path}`);
       expect(res.status, path).toBe(200);

@@ -18,7 +18,7 @@ import { followChangesSchema, followListSchema, followSchema, snapshotDiffSchema
 import { manipulationPageSchema, settledEffectDetailSchema, settledEffectPageSchema } from '../../shared/schemas/registry.js';
 import {
   atlasLandingSchema, atlasManipulationSchema, atlasOutcomeSchema, atlasPooledSchema, atlasReferencePageSchema, createdSnapshotSchema, snapshotCitationSchema, snapshotPageSchema,
-  snapshotViewSchema, synthesisAnswerSchema, synthesisFacetsSchema,
+  snapshotViewSchema, synthesisAnswerSchema, synthesisFacetsSchema, synthesisFlowAnswerSchema, synthesisFlowSchema,
 } from '../../shared/schemas/synthesis.js';
 import { adminUserPageSchema, apiTokenListSchema, createdTokenSchema, meSchema } from '../../shared/schemas/users.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
@@ -112,6 +112,8 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     expectShape(snapshotPageSchema, await anonymous(t.app).get('/api/snapshots'));
     expectShape(snapshotViewSchema, await anonymous(t.app).get(`/api/snapshots/${created.body.id}`));
     expectShape(snapshotCitationSchema, await anonymous(t.app).get(`/api/snapshots/${created.body.id}/citation`));
+    expectShape(synthesisFlowAnswerSchema, await anonymous(t.app).post('/api/syntheses/flow').send(request));
+    expect(synthesisFlowSchema.safeParse((await anonymous(t.app).get(`/api/snapshots/${created.body.id}`)).body.flow).success).toBe(true);
     const follow = await as.reviewer.post('/api/follows').send({ request });
     expectShape(followSchema, follow, 201);
     expectShape(followListSchema, await as.reviewer.get('/api/follows'));

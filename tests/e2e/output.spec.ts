@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import { readFile } from 'node:fs/promises';
 import type { Page } from 'playwright-core';
 import type { Spec } from './run.js';
-import { appUrl } from './browser.js';
+import { appUrl, signInThroughPage } from './browser.js';
 
 const forestSvg = 'figure[aria-label="Forest plot"] svg.main-svg';
 
@@ -36,6 +36,37 @@ export const specs: Spec[] = [
       assert.match(json.name, /^chronometa-synthesis-v\d+\.json$/);
       assert.equal(typeof JSON.parse(json.text).result.estimate, 'number');
       await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
+    },
+  },
+  {
+    name: 'a reviewer downloads the live PRISMA 2020 flow diagram, saves the synthesis, and the snapshot shows its flow stage by stage with the diagram',
+    async run(page) {
+      await signInThroughPage(page, 'reviewer');
+      await runLuminance(page);
+      const flow = await download(page, /PRISMA 2020 flow diagram/);
+      assert.match(flow.name, /^chronometa-synthesis-v\d+-flow\.svg$/);
+      assert.match(flow.text, /<svg [^>]*role="img"/);
+      const entering = flow.text.match(/Entering this synthesis \(n = (\d+) references?\)/);
+      assert.ok(entering, 'the diagram names what enters the synthesis');
+
+      await page.getByLabel('Snapshot title (optional)').fill('Luminance flow, browser check');
+      await page.getByRole('button', { name: 'Save snapshot' }).click();
+      const saved = page.getByRole('status').filter({ hasText: 'Saved' });
+      await saved.waitFor({ timeout: 40_000 });
+      const href = new URL((await saved.getByRole('link').getAttribute('href'))!, appUrl('/')).pathname;
+      await page.goto(appUrl(href));
+      const table = page.getByRole('table', { name: 'Flow of records into this synthesis' });
+      await table.waitFor({ timeout: 40_000 });
+      for (const step of ['Records identified in the registry', 'Titles and abstracts screened', 'Not yet screened', 'Reports coded', 'Codings settled', 'Entering this synthesis'])
+        await table.getByText(step, { exact: false }).first().waitFor();
+      const lastRow = table.locator('tbody tr').last();
+      assert.equal((await lastRow.locator('td.num').textContent())!.trim(), entering![1]);
+      await page.waitForFunction(() => {
+        const img = document.querySelector<HTMLImageElement>('img[alt^="PRISMA 2020 flow diagram"]');
+        return !!img && img.complete && img.naturalWidth > 0;
+      });
+      const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Flow diagram (SVG)' }).click()]);
+      assert.equal(file.suggestedFilename(), `chronometa-snapshot-${href.split('/').pop()}-flow.svg`);
     },
   },
 ];

@@ -8,6 +8,7 @@ import { SynthesisResults } from '../../features/synthesis/components/SynthesisR
 import { synthesisHref } from '../../features/synthesis/codec';
 import { modelLabel, valueLabel } from '../../features/synthesis/labels';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
+import { FlowTable } from '../../features/synthesis/components/FlowTable';
 
 function filterText(filters: Record<string, unknown>): string {
   const parts = Object.entries(filters).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
@@ -101,7 +102,20 @@ export function SnapshotPage() {
       <p className="reading max-w-4xl text-sm leading-relaxed">{s.methods}</p>
       <Button onClick={() => void copy()}>{copied ? '✓ Copied' : 'Copy the methods paragraph'}</Button>
 
-      {s.prisma && (
+      {s.flow ? (
+        <section aria-label="Study flow">
+          <h2>Study flow (PRISMA 2020)</h2>
+          <FlowTable flow={s.flow} />
+          <figure className="mt-3 max-w-3xl overflow-x-auto">
+            <img src={`${api}/flow.svg`} alt="PRISMA 2020 flow diagram of the counts in the table above" className="max-w-full" />
+          </figure>
+          <p className="text-sm">
+            <a href={`${api}/flow.svg`} download>
+              ↓ Flow diagram (SVG)
+            </a>
+          </p>
+        </section>
+      ) : s.prisma && (
         <>
           <h2>Study flow (PRISMA 2020)</h2>
           <table className="max-w-xl">

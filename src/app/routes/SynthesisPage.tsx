@@ -130,6 +130,11 @@ export function SynthesisPage() {
                   ↓ JSON
                 </a>
               </li>
+              <li>
+                <a href={synthesisExportHref(submitted, 'flow.svg')} download>
+                  ↓ PRISMA 2020 flow diagram (SVG)
+                </a>
+              </li>
             </ul>
             <p className="mt-1 text-xs text-ink-faint">
               Computed on today’s registry (the file names carry its version); figures download as SVG or PNG beside each plot. Save a snapshot for a
