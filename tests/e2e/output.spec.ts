@@ -16,7 +16,7 @@ async function runLuminance(page: Page) {
 }
 
 async function download(page: Page, link: RegExp) {
-  const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('region', { name: 'Export this synthesis' }).getByRole('link', { name: link }).click()]);
+  const [file] = await Promise.all([page.waitForEvent('download', { timeout: 40_000 }), page.getByRole('region', { name: 'Export this synthesis' }).getByRole('link', { name: link }).click()]);
   return { name: file.suggestedFilename(), text: await readFile((await file.path())!, 'utf8') };
 }
 
@@ -65,7 +65,7 @@ export const specs: Spec[] = [
         const img = document.querySelector<HTMLImageElement>('img[alt^="PRISMA 2020 flow diagram"]');
         return !!img && img.complete && img.naturalWidth > 0;
       });
-      const [file] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Flow diagram (SVG)' }).click()]);
+      const [file] = await Promise.all([page.waitForEvent('download', { timeout: 40_000 }), page.getByRole('link', { name: 'Flow diagram (SVG)' }).click()]);
       assert.equal(file.suggestedFilename(), `chronometa-snapshot-${href.split('/').pop()}-flow.svg`);
     },
   },
