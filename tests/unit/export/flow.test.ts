@@ -72,6 +72,9 @@ describe('synthesis flow (PRISMA 2020, per stage)', () => {
     // a filter the synthesis does not set is not a step
     expect(filterAttribution(all, { outcome: 'duration_distortion' }, filterSettledEffects)).toEqual({ outcome: 1 });
     expect(filterAttribution(all, {}, filterSettledEffects)).toEqual({});
+    // parameter and unit are steps of their own
+    const measured = [effect(7, 71, { parameter: 'pse', unit: 'ms' }), effect(8, 81, { parameter: 'duration_ratio', unit: 'ratio' })];
+    expect(filterAttribution(measured, { parameter: 'pse', unit: 'ms' }, filterSettledEffects)).toEqual({ parameter: 1, unit: 0 });
   });
 });
 
