@@ -1,9 +1,10 @@
 import type { Page } from 'playwright-core';
 
 /** Decides the record (or the marked ones) from the keyboard: Enter, the first letters of a choice, Enter, a note, Enter. */
-export async function decideByKeys(page: Page, letters: string, note?: string) {
+export async function decideByKeys(page: Page, letters: string, note?: string, heading = 'Decide this record') {
   await page.keyboard.press('Enter');
   const chooser = page.getByRole('region', { name: 'Decision' });
+  await chooser.getByRole('heading', { name: heading }).waitFor();
   await chooser.getByRole('combobox').waitFor();
   await page.keyboard.type(letters);
   await page.keyboard.press('Enter');

@@ -33,7 +33,7 @@ async function batchByKeys(page: Page, n: number, letters: string, note?: string
     if (i < n - 1) await page.keyboard.press('ArrowDown');
   }
   await page.getByText(`· ${n} marked`).waitFor();
-  await decideByKeys(page, letters, note);
+  await decideByKeys(page, letters, note, `Decide the ${n} marked records`);
 }
 
 export const specs: Spec[] = [

@@ -11,12 +11,15 @@ const line = (c: Choice) => (c.decision === 'included' ? `✓ ${choiceLabel(c)}`
  */
 export function DecisionChooser({
   count,
+  marked,
   pending,
   error,
   onSave,
   onClose,
 }: {
   count: number;
+  /** The decision is for the marked records (else for the one being read). */
+  marked: boolean;
   pending: boolean;
   error: unknown;
   onSave: (choice: Choice, note: string) => void;
@@ -52,7 +55,7 @@ export function DecisionChooser({
 
   return (
     <section aria-label="Decision" className="rounded border border-action bg-white p-3 text-sm shadow-sm">
-      <h3 className="mt-0 text-base">{count === 1 ? 'Decide this record' : `Decide ${count} marked records`}</h3>
+      <h3 className="mt-0 text-base">{marked ? `Decide the ${count} marked ${count === 1 ? 'record' : 'records'}` : 'Decide this record'}</h3>
       {!picked ? (
         <>
           <label htmlFor={`${id}-typed`} className="block">
@@ -126,7 +129,7 @@ export function DecisionChooser({
           )}
           <div className="mt-2">
             <Button type="submit" variant="primary" disabled={pending}>
-              {pending ? 'Saving…' : count === 1 ? 'Save decision' : `Save for ${count} records`}
+              {pending ? 'Saving…' : marked ? `Save for ${count} marked` : 'Save decision'}
             </Button>
             <span className="ml-2 text-xs text-ink-faint">Enter saves · Esc changes the choice</span>
           </div>

@@ -30,7 +30,7 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
   const undo = useUndoMany();
   const [cursorId, setCursorId] = useState<number | null>(null);
   const [marked, setMarked] = useState<ReadonlySet<number>>(new Set());
-  const [chooserFor, setChooserFor] = useState<number[] | null>(null);
+  const [chooserFor, setChooserFor] = useState<{ ids: number[]; marked: boolean } | null>(null);
   const [last, setLast] = useState<Last | null>(null);
   const [told, setTold] = useState<string | null>(null);
   const listRef = useRef<HTMLUListElement>(null);
@@ -45,7 +45,7 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
   const openChooser = () => {
     if (!current) return;
     decide.reset();
-    setChooserFor(markedItems.length ? markedItems.map((i) => i.id) : [current.id]);
+    setChooserFor(markedItems.length ? { ids: markedItems.map((i) => i.id), marked: true } : { ids: [current.id], marked: false });
   };
   const closeChooser = () => {
     setChooserFor(null);
@@ -53,7 +53,7 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
   };
 
   const save = (choice: Choice, note: string) => {
-    const targets = items.filter((i) => chooserFor?.includes(i.id));
+    const targets = items.filter((i) => chooserFor?.ids.includes(i.id));
     if (!targets.length) return;
     const inBatch = new Set(targets.map((t) => t.id));
     const lastAt = Math.max(...targets.map((t) => items.indexOf(t)));
@@ -205,14 +205,14 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
           </ul>
           <RecordReader item={current} terms={terms}>
             {chooserFor ? (
-              <DecisionChooser count={chooserFor.length} pending={decide.isPending} error={decide.error} onSave={save} onClose={closeChooser} />
+              <DecisionChooser count={chooserFor.ids.length} marked={chooserFor.marked} pending={decide.isPending} error={decide.error} onSave={save} onClose={closeChooser} />
             ) : (
               <div className="rounded border border-dashed border-paper-edge p-3 text-sm">
                 <Button variant="primary" onClick={openChooser}>
                   {markedItems.length ? `Decide ${markedItems.length} marked…` : 'Decide…'}
                 </Button>
                 <p className="mt-2 text-xs text-ink-faint">
-                  Enter opens this chooser{markedItems.length ? ` for the ${markedItems.length} marked records` : ''}.
+                  Enter opens this chooser{markedItems.length ? ` for the marked ${markedItems.length === 1 ? 'record' : 'records'}, not the one being read` : ''}.
                 </p>
               </div>
             )}
