@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { EXCLUSION_REASON_LABELS } from '../../../../shared/vocabulary/screening';
+import { EXCLUSION_REASON_LABELS, referenceSourceLabel } from '../../../../shared/vocabulary/screening';
 import { Button } from '../../../components/ui/Button';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import type { Choice } from '../choices';
@@ -10,8 +10,7 @@ import { useUndoMany } from '../api/undo-many';
 import { DecisionChooser } from './DecisionChooser';
 import { RecordReader } from './RecordReader';
 
-const FROM: Record<string, string> = { seed: 'from the registry seed', manual: 'entered by hand', doi: 'from a DOI look-up' };
-const whyHere = (it: QueueItem) => (it.why.batch ? `new in batch ${it.why.batch}` : `new, ${FROM[it.source] ?? `from ${it.source}`}`);
+const whyHere = (it: QueueItem) => (it.why.batch ? `new in batch ${it.why.batch}` : `new (${referenceSourceLabel(it.source).toLowerCase()})`);
 
 /** Keys the list answers when nothing that takes typing has the focus. */
 const typingIn = (el: EventTarget | null) => el instanceof HTMLElement && (el.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(el.tagName));
