@@ -69,4 +69,34 @@ export const specs: Spec[] = [
       assert.equal(file.suggestedFilename(), `chronometa-snapshot-${href.split('/').pop()}-flow.svg`);
     },
   },
+  {
+    name: 'signed out, a snapshot page cites the snapshot itself: identifier, address, registry version, date, and BibTeX, RIS and CSL-JSON to copy',
+    async run(page) {
+      await page.context().grantPermissions(['clipboard-read', 'clipboard-write'], { origin: appUrl('/').replace(/\/$/, '') });
+      const list = await (await page.request.get(appUrl('/api/snapshots?pageSize=1'))).json();
+      const id: string = list.items[0].id;
+      const citation = await (await page.request.get(appUrl(`/api/snapshots/${id}/citation`))).json();
+      await page.goto(appUrl(`/snapshots/${id}`));
+      const cite = page.getByRole('region', { name: 'Cite this snapshot' });
+      await cite.getByText(`chronometa:snapshot:${id}`, { exact: true }).waitFor({ timeout: 40_000 });
+      await cite.getByText(citation.url, { exact: true }).waitFor();
+      await cite.getByText(citation.date, { exact: true }).waitFor();
+      await cite.getByText(String(citation.registryVersion), { exact: true }).waitFor();
+      const clipboard = () => page.evaluate(() => navigator.clipboard.readText());
+      await cite.getByRole('button', { name: 'Copy BibTeX' }).click();
+      await cite.getByRole('status').filter({ hasText: '✓ BibTeX copied' }).waitFor();
+      assert.equal(await clipboard(), citation.bibtex.trim());
+      assert.match(await clipboard(), /^@\w+\{chronometa_/);
+      await cite.getByRole('button', { name: 'Copy RIS' }).click();
+      await cite.getByRole('status').filter({ hasText: '✓ RIS copied' }).waitFor();
+      assert.match(await clipboard(), /^TY {2}- /);
+      await cite.getByRole('button', { name: 'Copy CSL-JSON' }).click();
+      await cite.getByRole('status').filter({ hasText: '✓ CSL-JSON copied' }).waitFor();
+      assert.equal(JSON.parse(await clipboard()).URL, citation.url);
+      assert.equal(await cite.locator('button[aria-pressed="true"]').textContent(), 'Copy CSL-JSON');
+      await cite.getByLabel('CSL-JSON of this snapshot').waitFor();
+      // copy buttons, not links: the page keeps its one BibTeX download (the included references)
+      assert.equal(await page.getByRole('link', { name: /BibTeX/ }).count(), 1);
+    },
+  },
 ];

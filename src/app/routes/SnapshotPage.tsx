@@ -9,6 +9,7 @@ import { synthesisHref } from '../../features/synthesis/codec';
 import { modelLabel, valueLabel } from '../../features/synthesis/labels';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 import { FlowTable } from '../../features/synthesis/components/FlowTable';
+import { CiteSnapshot } from '../../features/snapshots/components/CiteSnapshot';
 
 function filterText(filters: Record<string, unknown>): string {
   const parts = Object.entries(filters).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
@@ -61,6 +62,8 @@ export function SnapshotPage() {
         <dt className="text-ink-soft">Software</dt>
         <dd>{s.software}</dd>
       </dl>
+
+      <CiteSnapshot citation={s.citation} />
 
       <h2>Exports</h2>
       <ul className="flex flex-wrap gap-x-5 gap-y-1 text-sm" aria-label="Exports">
