@@ -2,8 +2,8 @@ import { Router } from 'express';
 import type { AppContext } from '../context.js';
 import { chargeCaller, costs } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
-import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema } from '../../shared/schemas/synthesis.js';
-import { liveSynthesisExport, registrySynthesis, synthesisFacets, synthesisSize } from '../services/synthesis.js';
+import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, type SynthesisAnswer } from '../../shared/schemas/synthesis.js';
+import { liveSynthesisExport, registrySynthesis, synthesisFacets, synthesisRowsView, synthesisSize } from '../services/synthesis.js';
 import { RegistryCache } from '../services/registry-cache.js';
 import { flowSvg, liveSynthesisFlow } from '../services/flow.js';
 
@@ -14,10 +14,22 @@ export function synthesesRouter(ctx: AppContext) {
   // A synthesis is a pure function of the request and the settled registry, so answers are kept per
   // registry version (any settled change retires them all); the header says whether this one was computed.
   const answers = new RegistryCache(64);
+  // the last few answers asked for by page, parsed once (a page of a kept 5 MB answer is then a slice)
+  const parsed = new Map<string, { text: string; answer: SynthesisAnswer }>();
+  const parsedAnswer = (key: string, text: string): SynthesisAnswer => {
+    const hit = parsed.get(key);
+    if (hit?.text === text) return hit.answer;
+    const answer = JSON.parse(text) as SynthesisAnswer;
+    parsed.delete(key);
+    parsed.set(key, { text, answer });
+    if (parsed.size > 4) parsed.delete(parsed.keys().next().value!);
+    return answer;
+  };
 
   // Each synthesis is paid from the caller's budget by the number of effects it covers (a kept answer costs less).
   router.post('/syntheses', async (req, res) => {
     const request = parseInput(synthesisRequestSchema, req.body);
+    const view = parseInput(synthesisRowsQuerySchema, req.query, 'query');
     const key = JSON.stringify(request);
     const [k, kept] = await Promise.all([synthesisSize(ctx.db, request), answers.has(ctx.db, key)]);
     chargeCaller(req, costs.synthesis(k, kept), `A synthesis of ${k} effects`);
@@ -26,7 +38,10 @@ export function synthesesRouter(ctx: AppContext) {
       computed = true;
       return registrySynthesis(ctx.db, request);
     });
-    res.set('X-Synthesis-Cache', computed ? 'miss' : 'hit').type('application/json').send(body);
+    res
+      .set('X-Synthesis-Cache', computed ? 'miss' : 'hit')
+      .type('application/json')
+      .send(view.rows === 'all' ? body : JSON.stringify(synthesisRowsView(parsedAnswer(key, body), view)));
   });
 
   // A link (GET) so a browser downloads it as it is and a script can fetch it; the name carries the registry version.

@@ -119,10 +119,38 @@ export const synthesisExportQuerySchema = z.object({
 
 export const atlasSlugSchema = z.object({ slug: z.string().trim().min(1).max(120) });
 
+/**
+ * POST /api/syntheses?rows=…: the per-study rows (`rows`, and `result.weights` beside them) in full (`all`, the
+ * default), one page of them sorted on the server (`page`, with page, pageSize, sort, order), or left out (`none`).
+ */
+export const SYNTHESIS_ROW_SORTS = ['position', 'label', 'year', 'effect', 'variance', 'weight', 'n'] as const;
+export const synthesisRowsQuerySchema = pagingSchema(SYNTHESIS_ROW_SORTS, 'position', { pageSize: 50 })
+  .extend({ rows: z.enum(['all', 'page', 'none'], { message: 'rows must be all, page or none' }).default('all') })
+  .superRefine((q, ctx) => {
+    if (q.rows !== 'page' && (q.page !== 1 || q.pageSize !== 50 || q.sort !== 'position' || q.order !== 'asc')) {
+      ctx.addIssue({ code: 'custom', path: ['rows'], message: 'page, pageSize, sort and order apply only with rows=page' });
+    }
+  });
+export type SynthesisRowsQuery = z.infer<typeof synthesisRowsQuerySchema>;
+
+/** What the answer says about its rows when they were paged or left out (absent when they are all there). */
+export const synthesisRowsPageSchema = z.object({
+  rows: z.enum(['page', 'none']),
+  /** per-study rows of the whole synthesis */
+  total: z.number().int().min(0),
+  page: z.number().int().min(1).optional(),
+  pageSize: z.number().int().min(1).optional(),
+  sort: z.enum(SYNTHESIS_ROW_SORTS).optional(),
+  order: z.enum(['asc', 'desc']).optional(),
+});
+export type SynthesisRowsPage = z.infer<typeof synthesisRowsPageSchema>;
+
 // ---- answers (the engine's own output types come from shared/synthesis and shared/stats, wrapped here)
 
 /** POST /api/syntheses: the engine's output and the registry version it was computed on. */
-export const synthesisAnswerSchema = z.custom<SynthesisOutput>().and(z.object({ registryVersion: z.number().int() }));
+export const synthesisAnswerSchema = z
+  .custom<SynthesisOutput>()
+  .and(z.object({ registryVersion: z.number().int(), rowsPage: synthesisRowsPageSchema.optional() }));
 export type SynthesisAnswer = z.infer<typeof synthesisAnswerSchema>;
 
 const facetSchema = z.object({ value: z.string(), count: z.number().int(), label: z.string().optional() });

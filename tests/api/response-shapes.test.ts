@@ -107,6 +107,8 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     expectShape(synthesisFacetsSchema, await anonymous(t.app).get('/api/syntheses/facets'));
     const request = { filters: { manipulation: 'luminance' }, smdFamily: 'raw_score' };
     expectShape(synthesisAnswerSchema, await anonymous(t.app).post('/api/syntheses').send(request));
+    expectShape(synthesisAnswerSchema, await anonymous(t.app).post('/api/syntheses?rows=page&pageSize=3&sort=weight').send(request));
+    expectShape(synthesisAnswerSchema, await anonymous(t.app).post('/api/syntheses?rows=none').send(request));
     const created = await as.reviewer.post('/api/snapshots').send(request);
     expectShape(createdSnapshotSchema, created, 201);
     expectShape(snapshotPageSchema, await anonymous(t.app).get('/api/snapshots'));
