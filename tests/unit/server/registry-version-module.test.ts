@@ -27,8 +27,10 @@ describe('the registry version has one writer and one reader', () => {
       .filter(({ s }) => s.includes('useMutation') && settledWrites.some((re) => re.test(s)));
     expect(writers.length).toBeGreaterThanOrEqual(9);
     const offenders = writers
-      .filter(({ s }) => !/registryChanged\(|settledWorkChanged\(/.test(s))
+      .filter(({ s }) => !/registryChanged\(|settledWorkChanged\(|screeningChanged\(/.test(s))
       .map(({ p }) => p);
     expect(offenders).toEqual([]);
+    // screening writes go through screeningChanged, which must reach registryChanged
+    expect(readFileSync(join(root, 'src/features/screening/api/screening-changed.ts'), 'utf8')).toMatch(/registryChanged\(qc\)/);
   });
 });
