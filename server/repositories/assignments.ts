@@ -26,6 +26,11 @@ export async function setAssignmentState(trx: Knex.Transaction, a: Pick<Assignme
   await trx('assignments').where({ id: a.id }).update({ state, version: a.version + 1, updated_at: trx.fn.now() });
 }
 
+/** A change inside a pair (a discrepancy decided): the version moves so a form read before it is stale. */
+export async function touchAssignment(trx: Knex.Transaction, a: Pick<AssignmentRow, 'id' | 'version'>): Promise<void> {
+  await trx('assignments').where({ id: a.id }).update({ version: a.version + 1, updated_at: trx.fn.now() });
+}
+
 type PairListRow = AssignmentRow & Pick<RefRow, 'title' | 'first_author' | 'year'> & { coder1: string; coder2: string; open_discrepancies: number; submitted: number };
 
 export async function listAssignments(db: Db, q: PageRequest & { state?: AssignmentState; sort: 'id' | 'updated' | 'reference'; order: 'asc' | 'desc' }) {

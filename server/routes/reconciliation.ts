@@ -2,11 +2,11 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { idParam, idParamsSchema } from '../../shared/schemas/common.js';
 import { reasonSchema, resolveDiscrepancySchema, settleSchema } from '../../shared/schemas/extraction.js';
-import { reconciliationQuerySchema, recordListQuerySchema } from '../../shared/schemas/reconciliation.js';
+import { reconcilePairSchema, reconciliationQuerySchema, recordListQuerySchema } from '../../shared/schemas/reconciliation.js';
 import { requireRole } from '../auth/require-role.js';
 import type { AppContext } from '../context.js';
 import { parseInput } from '../lib/validate.js';
-import { getPair, listQueue, resolveDiscrepancy, settlePair } from '../services/reconciliation.js';
+import { getPair, listQueue, reconcilePair, resolveDiscrepancy, settlePair } from '../services/reconciliation.js';
 import { getRecord, listRecords, reopenRecord, settleRecordDraft, withdrawRecord } from '../services/records.js';
 
 const discParams = idParamsSchema.extend({ discrepancyId: idParam });
@@ -35,6 +35,12 @@ export function reconciliationRouter(ctx: AppContext) {
     const { id } = parseInput(idParamsSchema, req.params, 'path');
     const body = parseInput(settleSchema, req.body ?? {});
     res.json(await settlePair(ctx, req.user!.id, id, body));
+  });
+
+  router.post('/reconciliation/:id/reconcile', async (req, res) => {
+    const { id } = parseInput(idParamsSchema, req.params, 'path');
+    const body = parseInput(reconcilePairSchema, req.body);
+    res.json(await reconcilePair(ctx, req.user!.id, id, body));
   });
 
   router.get('/records', async (req, res) => {

@@ -1,4 +1,5 @@
-import { numbersAgree, type Sheet } from '../../shared/schemas/extraction.js';
+import { numbersAgree, type Sheet, type StoredStudy } from '../../shared/schemas/extraction.js';
+import type { ImpliedEffect } from '../../shared/schemas/reconciliation.js';
 import { computeReported, type Reported } from '../../shared/extraction/compute.js';
 
 /** The categorical and numeric fields compared between two coders, per study and per effect. */
@@ -84,6 +85,24 @@ export function compareSheets(a: Sheet, b: Sheet): Discrepancy[] {
       }
     }
   }
+  return out;
+}
+
+/**
+ * The effects one coder's stored sheet computes where a discrepancy sits: the effect itself for an effect's field,
+ * every effect of the study for a study's field or effect count, every effect for the study count.
+ */
+export function impliedEffects(path: string, studies: StoredStudy[]): ImpliedEffect[] {
+  const [, i, sub, j] = path.split('.');
+  const out: ImpliedEffect[] = [];
+  studies.forEach((s, si) => {
+    if (i !== undefined && si !== Number(i)) return;
+    s.effects.forEach((e, ej) => {
+      if (sub === 'effects' && j !== undefined && ej !== Number(j)) return;
+      const c = e.computed;
+      out.push({ label: `Study ${si + 1}, effect ${ej + 1}${e.label ? ` (${e.label})` : ''}`, metric: c?.metric ?? null, effect: c?.effect ?? null, variance: c?.variance ?? null });
+    });
+  });
   return out;
 }
 

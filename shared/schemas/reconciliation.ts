@@ -111,6 +111,15 @@ export type ReopenedRecord = z.infer<typeof reopenedRecordSchema>;
 export const reconciliationQueueSchema = pageSchema(disputedPairSchema).extend({ reopened: z.array(reopenedRecordSchema) });
 export type ReconciliationQueue = z.infer<typeof reconciliationQueueSchema>;
 
+/** One effect a coder's sheet gives at a discrepancy's place (the effect itself, or each effect of its study). */
+export const impliedEffectSchema = z.object({
+  label: z.string(),
+  metric: z.string().nullable(),
+  effect: z.number().nullable(),
+  variance: z.number().nullable(),
+});
+export type ImpliedEffect = z.infer<typeof impliedEffectSchema>;
+
 export const discrepancySchema = z.object({
   id: z.number().int(),
   path: z.string(),
@@ -118,6 +127,9 @@ export const discrepancySchema = z.object({
   label: z.string(),
   valueA: z.unknown(),
   valueB: z.unknown(),
+  /** the effects coder A's and coder B's sheets compute where this field sits */
+  impliedA: z.array(impliedEffectSchema),
+  impliedB: z.array(impliedEffectSchema),
   status: z.enum(['open', 'resolved']),
   resolution: z.enum(['a', 'b', 'value']).nullable(),
   resolvedValue: z.unknown(),
@@ -163,6 +175,39 @@ export const settledRecordSchema = z.object({
   effectIds: z.array(z.number().int()),
 });
 export type SettledRecord = z.infer<typeof settledRecordSchema>;
+
+/** POST /api/reconciliation/:id/reconcile: every field's decision and the settlement, in one transaction. */
+export const reconcilePairSchema = z
+  .object({
+    /** the pair's version the curator read */
+    version: z.number().int().min(1),
+    decisions: z
+      .array(
+        z.object({
+          discrepancyId: z.number().int().min(1).max(2147483647),
+          resolution: z.enum(['a', 'b', 'value'], { error: 'choose coder A, coder B or your own value' }),
+          value: z.unknown().optional(),
+          /** this field's own reason; the settlement's rationale stands for fields without one */
+          note: z.string().trim().max(2000).default(''),
+        })
+        .refine((d) => d.resolution !== 'value' || d.value !== undefined, { path: ['value'], message: 'enter the value to keep' }),
+      )
+      .min(1, 'decide at least one field')
+      .max(500),
+    rationale: z.string().trim().min(3, 'say why (at least 3 characters)').max(2000),
+  })
+  .superRefine((v, ctx) => {
+    const seen = new Set<number>();
+    v.decisions.forEach((d, i) => {
+      if (seen.has(d.discrepancyId)) ctx.addIssue({ code: 'custom', path: ['decisions', i, 'discrepancyId'], message: 'this field is decided twice' });
+      seen.add(d.discrepancyId);
+    });
+  });
+export type ReconcilePairInput = z.infer<typeof reconcilePairSchema>;
+
+/** POST /api/reconciliation/:id/reconcile */
+export const reconciledPairSchema = settledRecordSchema.extend({ assignmentId: z.number().int(), decided: z.number().int() });
+export type ReconciledPair = z.infer<typeof reconciledPairSchema>;
 
 // ---- settled records
 

@@ -26,6 +26,10 @@ describeAccess(
     { method: 'get', path: '/api/reconciliation/999999', who: ['curator'], bad: { path: '/api/reconciliation/x' } },
     { method: 'put', path: '/api/reconciliation/999999/discrepancies/1', body: { resolution: 'a', rationale: 'matches table' }, who: ['curator'], bad: { body: { resolution: 'c' } } },
     { method: 'post', path: '/api/reconciliation/999999/settle', body: {}, who: ['curator'], bad: { path: '/api/reconciliation/-5/settle' } },
+    {
+      method: 'post', path: '/api/reconciliation/999999/reconcile', body: { version: 1, rationale: 'matches table', decisions: [{ discrepancyId: 1, resolution: 'a' }] }, who: ['curator'],
+      bad: { body: { version: 1, rationale: '', decisions: [{ discrepancyId: 1, resolution: 'c' }] } },
+    },
     { method: 'get', path: (ids) => `/api/records?referenceId=${ids.ref}`, who: 'anyone', bad: { path: '/api/records?referenceId=abc' } },
     { method: 'get', path: (ids) => `/api/records/${ids.record}`, who: 'anyone', bad: { path: '/api/records/0' } },
     { method: 'post', path: '/api/records/999999/reopen', body: { reason: 'misread table' }, who: ['curator'], bad: { body: { reason: '' } } },

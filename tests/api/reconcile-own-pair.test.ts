@@ -64,6 +64,8 @@ describe('a coder of a pair never reconciles it', () => {
     const body = { resolution: 'b', rationale: 'Table 2 gives 720 ms.' };
     expect((await curator.put(`/api/reconciliation/${id}/discrepancies/${d.id}`).send(body)).status).toBe(403);
     expect((await curator.post(`/api/reconciliation/${id}/settle`).send({ rationale: 'mine' })).status).toBe(403);
+    const oneStep = { version: pair.body.assignment.version, rationale: 'mine', decisions: pair.body.discrepancies.map((x: { id: number }) => ({ discrepancyId: x.id, resolution: 'a' })) };
+    expect((await curator.post(`/api/reconciliation/${id}/reconcile`).send(oneStep)).status).toBe(403);
     // the contributor coder is refused too (by role before the pair rule)
     expect((await coder1.get(`/api/reconciliation/${id}`)).status).toBe(403);
     expect((await coder1.post(`/api/reconciliation/${id}/settle`).send({})).status).toBe(403);

@@ -7,7 +7,7 @@ import { apiErrorSchema } from '../../shared/schemas/common.js';
 import { claimablePageSchema, extractionDetailSchema, myExtractionPageSchema } from '../../shared/schemas/extraction.js';
 import {
   agreementForReferenceSchema, assignmentPageSchema, candidatePageSchema, coderListSchema, overallAgreementSchema, pairDetailSchema,
-  reconciliationQueueSchema, recordHistorySchema, referenceAgreementPageSchema,
+  reconciledPairSchema, reconciliationQueueSchema, recordHistorySchema, referenceAgreementPageSchema,
 } from '../../shared/schemas/reconciliation.js';
 import {
   duplicatePageSchema, importPageSchema, importResultSchema, prismaCountsSchema, referenceDetailSchema, referencePageSchema, screeningBatchResultSchema, screeningBatchUndoResultSchema,
@@ -93,7 +93,11 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     const queue = await as.curator.get('/api/reconciliation');
     expectShape(reconciliationQueueSchema, queue);
     expect(queue.body.items.length).toBeGreaterThan(0);
-    expectShape(pairDetailSchema, await as.curator.get(`/api/reconciliation/${queue.body.items[0].assignmentId}`));
+    const pair = await as.curator.get(`/api/reconciliation/${queue.body.items[0].assignmentId}`);
+    expectShape(pairDetailSchema, pair);
+    const decisions = pair.body.discrepancies.map((d: { id: number }) => ({ discrepancyId: d.id, resolution: 'a' }));
+    const reconciled = await as.curator.post(`/api/reconciliation/${pair.body.assignment.id}/reconcile`).send({ version: pair.body.assignment.version, rationale: 'Coder A matches Table 1.', decisions });
+    expectShape(reconciledPairSchema, reconciled);
     const effect = (await anonymous(t.app).get('/api/effects?pageSize=1')).body.items[0];
     expectShape(recordHistorySchema, await anonymous(t.app).get(`/api/records?referenceId=${effect.referenceId}`));
     expectShape(extractionDetailSchema, await anonymous(t.app).get(`/api/records/${effect.recordId}`));

@@ -74,14 +74,9 @@ export const specs: Spec[] = [
       await rows.first().waitFor();
       const n = await rows.count();
       assert.ok(n >= 1);
-      for (let i = 0; i < n; i++) {
-        const r = rows.nth(i);
-        await r.getByRole('radio', { name: /Take @coder2/ }).check();
-        await r.getByLabel('Rationale').fill('The value in the paper’s table agrees with coder B.');
-        await r.getByRole('button', { name: 'Save decision' }).click();
-        await r.getByText('resolved by @curator').waitFor();
-      }
-      await page.getByRole('button', { name: 'Settle the record' }).click();
+      for (let i = 0; i < n; i++) await rows.nth(i).getByRole('radio', { name: /Take @coder2/ }).check();
+      await page.getByLabel('Rationale for the reconciled entry').fill('The value in the paper’s table agrees with coder B.');
+      await page.getByRole('button', { name: 'Save the reconciled entry' }).click();
       await page.getByRole('status').filter({ hasText: 'Settled.' }).waitFor();
       await page.getByRole('link', { name: 'Open the settled record' }).click();
       await page.getByRole('heading', { name: /Settled record of/ }).waitFor();

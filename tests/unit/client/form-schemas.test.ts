@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { importFormSchema } from '../../../src/features/imports/forms/import-form';
-import { discrepancyFormSchema } from '../../../src/features/reconciliation/forms/discrepancy';
+import { reconcileFormSchema } from '../../../src/features/reconciliation/forms/reconcile';
 import { editReferenceSchema, parseAuthors, type EditReferenceValues } from '../../../src/features/references/forms/edit-reference';
 import { referenceFiltersSchema } from '../../../src/features/references/forms/reference-filters';
 import { decisionFormSchema } from '../../../src/features/screening/forms/decision';
@@ -93,15 +93,26 @@ describe('the screening decision form', () => {
   });
 });
 
-describe('the discrepancy decision form', () => {
-  it('sends an own value only with that choice', () => {
-    expect(discrepancyFormSchema.parse({ resolution: 'b', value: 12, rationale: 'Table 2 says so' })).toEqual({ resolution: 'b', rationale: 'Table 2 says so' });
-    expect(discrepancyFormSchema.parse({ resolution: 'value', value: 12, rationale: 'Table 2 says so' })).toEqual({ resolution: 'value', value: 12, rationale: 'Table 2 says so' });
+describe('the reconciliation form', () => {
+  const field = (discrepancyId: number, resolution: string, value?: unknown, note = '') => ({ discrepancyId, resolution, value, note });
+
+  it('sends an own value only with that choice, and every field’s note', () => {
+    expect(reconcileFormSchema.parse({ version: 3, rationale: ' Table 2 says so ', decisions: [field(1, 'b', 12), field(2, 'value', 12, 'from the text')] })).toEqual({
+      version: 3,
+      rationale: 'Table 2 says so',
+      decisions: [
+        { discrepancyId: 1, resolution: 'b', note: '' },
+        { discrepancyId: 2, resolution: 'value', value: 12, note: 'from the text' },
+      ],
+    });
   });
 
-  it('asks for a rationale and for the value', () => {
-    expect(messages(discrepancyFormSchema, { resolution: 'a', value: undefined, rationale: 'ok' })).toEqual({ rationale: 'say why (at least 3 characters)' });
-    expect(messages(discrepancyFormSchema, { resolution: 'value', value: undefined, rationale: 'the paper' })).toEqual({ value: 'enter the value to keep' });
+  it('names each field left without a choice, a missing own value and a missing rationale', () => {
+    expect(messages(reconcileFormSchema, { version: 3, rationale: 'ok', decisions: [field(1, ''), field(2, 'a'), field(3, 'value')] })).toEqual({
+      'decisions.0.resolution': 'choose coder A, coder B or your own value',
+      'decisions.2.value': 'enter the value to keep',
+      rationale: 'say why (at least 3 characters)',
+    });
   });
 });
 

@@ -1,6 +1,5 @@
-import { Controller, useForm, useWatch } from 'react-hook-form';
-import { z } from 'zod';
-import { resolveDiscrepancySchema } from '../../../../shared/schemas/extraction';
+import { Controller, useFormContext, useWatch } from 'react-hook-form';
+import type { ImpliedEffect } from '../../../../shared/schemas/reconciliation';
 import { REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type ReportForm, type Reported } from '../../../../shared/extraction/compute';
 import { DESIGNS } from '../../../../shared/vocabulary/designs';
 import { MODALITIES } from '../../../../shared/vocabulary/modalities';
@@ -8,17 +7,12 @@ import { OUTCOME_KINDS } from '../../../../shared/vocabulary/outcomes';
 import { PARAMETERS, UNITS } from '../../../../shared/vocabulary/parameters';
 import { POPULATIONS } from '../../../../shared/vocabulary/populations';
 import { TASKS } from '../../../../shared/vocabulary/tasks';
-import { Button } from '../../../components/ui/Button';
 import { FieldError } from '../../../components/ui/Field';
-import { ErrorNote } from '../../../components/ui/Notice';
-import { formResolver } from '../../../lib/forms/resolver';
-import { showServerErrors } from '../../../lib/forms/server-errors';
 import { fixed } from '../../../lib/format';
 import { REPORTED_LABELS } from '../../../lib/reported-labels';
 import { StateBadge } from '../../../components/ui/StateBadge';
 import type { DiscrepancyRow as Row } from '../api/get-pair';
-import { useResolveDiscrepancy } from '../api/resolve-discrepancy';
-import { discrepancyFormSchema } from '../forms/discrepancy';
+import type { ReconcileValues } from '../forms/reconcile';
 
 const CHOICES: Record<string, readonly string[]> = { design: DESIGNS, population: POPULATIONS, modality: MODALITIES, task: TASKS, outcome: OUTCOME_KINDS, parameter: PARAMETERS, unit: UNITS };
 const NUMERIC = new Set(['n1', 'n2', 'standardMs']);
@@ -93,81 +87,77 @@ function OwnValue({ row, value, onChange, terms }: { row: Row; value: unknown; o
   return <input aria-label="Own value" className={cls} value={String(value ?? '')} onChange={(e) => onChange(e.target.value || undefined)} />;
 }
 
-type DecisionValues = { resolution: 'a' | 'b' | 'value'; value: unknown; rationale: string };
+const EMPTY_EFFECT: ImpliedEffect[] = [];
 
-/** One discrepancy: both coders' values and the curator's decision with a rationale. */
-export function DiscrepancyRow({ row, assignmentId, coders, editable, terms }: { row: Row; assignmentId: number; coders: [string, string]; editable: boolean; terms: VocabularyTerm[] }) {
-  const resolve = useResolveDiscrepancy(assignmentId);
-  const form = useForm<DecisionValues, unknown, z.output<typeof resolveDiscrepancySchema>>({
-    resolver: formResolver(discrepancyFormSchema),
-    defaultValues: { resolution: row.resolution ?? 'a', value: row.field === 'effect' ? row.valueA : (row.valueA ?? undefined), rationale: row.rationale ?? '' },
-  });
-  const { errors } = form.formState;
-  const choice = useWatch({ control: form.control, name: 'resolution' });
-  const structural = row.field === 'studies' || row.field === 'effects';
-  const rationaleId = `d${row.id}-rationale`;
+/** The effects one coding gives where the field sits. */
+function Implied({ effects, who }: { effects: ImpliedEffect[]; who: string }) {
+  if (!effects.length) return <p className="mt-1 text-xs text-ink-soft">No effect coded here by {who}.</p>;
   return (
-    <tr className="align-top" data-testid={`discrepancy-${row.id}`}>
-      <td>
-        <strong>{row.label}</strong>
+    <ul className="mt-1 text-xs tabular-nums" aria-label={`Effect this coding by ${who} gives`}>
+      {effects.map((e) => (
+        <li key={e.label}>
+          {e.label}: {e.effect == null ? 'not computable' : `${e.metric ?? '?'} ${fixed(e.effect, 3)}, variance ${fixed(e.variance, 4)}`}
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+/**
+ * One differing field inside the reconciliation form: both coders' values side by side with the effect each coding
+ * gives, nothing chosen until the curator takes a side or enters a value; an optional note of its own.
+ */
+export function DiscrepancyChoice({ row, index, coders, editable, terms }: { row: Row; index: number; coders: [string, string]; editable: boolean; terms: VocabularyTerm[] }) {
+  const form = useFormContext<ReconcileValues>();
+  const choice = useWatch({ control: form.control, name: `decisions.${index}.resolution` });
+  const errors = form.formState.errors.decisions?.[index];
+  const structural = row.field === 'studies' || row.field === 'effects';
+  const errorId = `d${row.id}-choice`;
+  const side = (key: 'a' | 'b', coder: string, value: unknown, implied: ImpliedEffect[]) => (
+    <label className={`block rounded border px-2 py-1.5 ${choice === key ? 'border-action bg-action-light' : 'border-paper-edge bg-white'}`}>
+      <span className="text-sm font-semibold">
+        <input type="radio" value={key} disabled={!editable} {...form.register(`decisions.${index}.resolution`)} aria-describedby={errorId} /> Take @{coder} ({key.toUpperCase()})
+      </span>
+      <span className="mt-1 block text-sm" data-testid={`value-${key}`}>
+        {showValue(row.field, value)}
+      </span>
+      <Implied effects={implied ?? EMPTY_EFFECT} who={`@${coder}`} />
+    </label>
+  );
+  return (
+    <fieldset className="mb-3 min-w-0 rounded border-l-4 border-caution bg-caution-light/40 px-3 py-2" data-testid={`discrepancy-${row.id}`} aria-invalid={!!errors?.resolution}>
+      <legend className="sr-only">Decision for {row.label}</legend>
+      <p className="text-sm">
+        <strong>
+          <span aria-hidden>≠ </span>
+          {row.label}
+        </strong>{' '}
+        <StateBadge state={row.status === 'resolved' ? 'settled' : 'disputed'} /> {row.status === 'resolved' ? `decided by @${row.resolvedBy}` : 'the coders differ'}
+      </p>
+      <div className="mt-1 grid grid-cols-1 gap-2 sm:grid-cols-2">
+        {side('a', coders[0], row.valueA, row.impliedA)}
+        {side('b', coders[1], row.valueB, row.impliedB)}
+      </div>
+      {!structural && (
+        <label className="mt-1 inline-block text-sm">
+          <input type="radio" value="value" disabled={!editable} {...form.register(`decisions.${index}.resolution`)} aria-describedby={errorId} /> Enter a value
+        </label>
+      )}
+      <FieldError id={errorId} message={errors?.resolution?.message} />
+      {choice === 'value' && (
         <div className="mt-1">
-          <StateBadge state={row.status === 'resolved' ? 'settled' : 'disputed'} /> {row.status === 'resolved' ? `resolved by @${row.resolvedBy}` : 'open'}
+          <Controller control={form.control} name={`decisions.${index}.value`} render={({ field }) => <OwnValue row={row} value={field.value} onChange={field.onChange} terms={terms} />} />
+          <FieldError message={errors?.value?.message} />
         </div>
-      </td>
-      <td className="text-sm">{showValue(row.field, row.valueA)}</td>
-      <td className="text-sm">{showValue(row.field, row.valueB)}</td>
-      <td className="min-w-80">
-        {editable ? (
-          <form
-            noValidate
-            onSubmit={form.handleSubmit((decision) =>
-              resolve.mutate({ assignmentId, id: row.id, ...decision }, { onError: (err) => showServerErrors(err, form.setError, ['resolution', 'value', 'rationale']) }),
-            )}
-          >
-            <fieldset>
-              <legend className="sr-only">Decision for {row.label}</legend>
-              <label className="mr-3 text-sm">
-                <input type="radio" value="a" {...form.register('resolution')} /> Take @{coders[0]}
-              </label>
-              <label className="mr-3 text-sm">
-                <input type="radio" value="b" {...form.register('resolution')} /> Take @{coders[1]}
-              </label>
-              {!structural && (
-                <label className="text-sm">
-                  <input type="radio" value="value" {...form.register('resolution')} /> Enter a value
-                </label>
-              )}
-            </fieldset>
-            {choice === 'value' && (
-              <>
-                <Controller control={form.control} name="value" render={({ field }) => <OwnValue row={row} value={field.value} onChange={field.onChange} terms={terms} />} />
-                <FieldError message={errors.value?.message} />
-              </>
-            )}
-            <label className="mt-1 block text-xs font-semibold text-ink-soft">
-              Rationale
-              <textarea
-                className="block w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm font-normal"
-                rows={2}
-                {...form.register('rationale')}
-                aria-invalid={!!errors.rationale}
-                aria-describedby={rationaleId}
-              />
-            </label>
-            <FieldError id={rationaleId} message={errors.rationale?.message} />
-            <Button type="submit" className="mt-1" disabled={resolve.isPending}>
-              {row.status === 'resolved' ? 'Change decision' : 'Save decision'}
-            </Button>
-            {resolve.isSuccess && <span className="ml-2 text-xs">✓ Saved</span>}
-            {errors.root?.server && <ErrorNote error={errors.root.server.message} />}
-            {resolve.error && !Object.keys(errors).length && <ErrorNote error={resolve.error} />}
-          </form>
-        ) : (
-          <p className="text-sm">
-            {row.resolution ? `${row.resolution === 'value' ? 'own value' : `took @${coders[row.resolution === 'a' ? 0 : 1]}`}: ${row.rationale}` : '—'}
-          </p>
-        )}
-      </td>
-    </tr>
+      )}
+      {editable ? (
+        <label className="mt-1 block text-xs font-semibold text-ink-soft">
+          Note on this field (optional; the rationale below stands for it otherwise)
+          <input className="block w-full rounded border border-paper-edge bg-white px-2 py-1 text-sm font-normal" {...form.register(`decisions.${index}.note`)} />
+        </label>
+      ) : (
+        row.rationale && <p className="mt-1 text-sm">{row.resolution === 'value' ? 'own value' : `took @${coders[row.resolution === 'b' ? 1 : 0]}`}: {row.rationale}</p>
+      )}
+    </fieldset>
   );
 }
