@@ -24,6 +24,7 @@ import { SearchPage } from './routes/SearchPage';
 import { SnapshotsPage } from './routes/SnapshotsPage';
 import { TokensPage } from './routes/TokensPage';
 import { FollowsPage } from './routes/FollowsPage';
+import { FollowChangesPage } from './routes/FollowChangesPage';
 
 // Heavy screens load their code on first visit, each in its own chunk (plotly is fetched only when a plot draws).
 const lazyScreen = <M,>(load: () => Promise<M>, pick: (m: M) => ComponentType) => async () => ({ Component: pick(await load()) });
@@ -45,6 +46,7 @@ export function screens(qc: QueryClient): RouteObject[] {
     { index: true, element: <HomePage /> },
     { path: 'settings/tokens', element: <TokensPage /> },
     { path: 'follows', element: <FollowsPage /> },
+    { path: 'follows/:id/changes', element: <FollowChangesPage /> },
     { path: 'synthesis', lazy: SynthesisPage, loader: load.synthesis },
     { path: 'snapshots', element: <SnapshotsPage /> },
     { path: 'snapshots/:id', lazy: SnapshotPage, loader: load.snapshot },

@@ -10,6 +10,36 @@ import { modelLabel, valueLabel } from '../../features/synthesis/labels';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 import { FlowTable } from '../../features/synthesis/components/FlowTable';
 import { CiteSnapshot } from '../../features/snapshots/components/CiteSnapshot';
+import { useMe } from '../../features/auth/api/get-me';
+import { FollowForm } from '../../features/following/components/FollowForm';
+import { signInHref } from '../../lib/sign-in';
+import { useSnapshotDiff } from '../../features/snapshots/api/get-snapshot-diff';
+import { EffectChanges, ResultsThenNow } from '../../features/following/components/Comparison';
+
+/** How today's registry differs from the snapshot, with one click to run it again on today's. */
+function RegistryToday({ id, rerun }: { id: string; rerun: string }) {
+  const { data: d, error, isLoading } = useSnapshotDiff(id);
+  return (
+    <section id="registry-today" aria-label="Today’s registry against this snapshot">
+      <h2>Today’s registry against this snapshot</h2>
+      {isLoading && <Loading what="Comparing with today’s registry" />}
+      <ErrorNote error={error} title="Not compared" />
+      {d && (
+        <>
+          <ResultsThenNow then={d.then} now={d.now} thenLabel="In this snapshot" />
+          <div className="mt-2">
+            <EffectChanges changes={d} />
+          </div>
+        </>
+      )}
+      <p className="mt-2">
+        <Link to={rerun} className="inline-block rounded bg-action px-3 py-1.5 text-sm font-medium text-white no-underline">
+          Re-run on today’s registry
+        </Link>
+      </p>
+    </section>
+  );
+}
 
 function filterText(filters: Record<string, unknown>): string {
   const parts = Object.entries(filters).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
@@ -19,6 +49,7 @@ function filterText(filters: Record<string, unknown>): string {
 export function SnapshotPage() {
   const { id = '' } = useParams();
   const { data: s, isLoading, error } = useSnapshot(id);
+  const { data: me } = useMe();
   const [copied, setCopied] = useState(false);
   if (isLoading) return <Loading what="Opening the snapshot" />;
   if (error)
@@ -92,14 +123,27 @@ export function SnapshotPage() {
             ↓ Methods paragraph
           </a>
         </li>
-        <li>
-          <Link to={synthesisHref(q)}>Re-run on today’s registry →</Link>
-        </li>
       </ul>
       <p className="mt-1 text-xs text-ink-faint">
         The first CSV has the effect and variance of each pooled unit (a study's effects already combined): pooling its two columns with the same estimator gives
         these numbers. The second keeps every settled effect with its study id, for your own dependence handling.
       </p>
+
+      <RegistryToday id={s.id} rerun={synthesisHref(q)} />
+
+      <h2>Follow</h2>
+      <section aria-label="Follow this snapshot" className="flex flex-wrap items-end gap-3 rounded border border-paper-edge p-3">
+        {me ? (
+          <FollowForm key={s.id} target={{ snapshotId: s.id }} what="snapshot" />
+        ) : (
+          <p className="text-sm text-ink-soft">
+            <a href={signInHref()}>Sign in</a> to follow this snapshot: you hear when today’s registry moves away from it.
+          </p>
+        )}
+        <p className="basis-full text-xs text-ink-faint">
+          Anyone can read how the registry moved from this snapshot: <a href={`${api}/feed.atom`}>Atom feed</a>.
+        </p>
+      </section>
 
       <h2>Methods</h2>
       <p className="reading max-w-4xl text-sm leading-relaxed">{s.methods}</p>

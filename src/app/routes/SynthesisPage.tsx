@@ -17,6 +17,7 @@ import { DEFAULT_REQUEST, decodeRequest, encodeRequest, requestToFormValues, syn
 import { SynthesisFormPanel } from '../../features/synthesis/components/SynthesisFormPanel';
 import { SynthesisResults } from '../../features/synthesis/components/SynthesisResults';
 import { SaveSnapshotForm } from '../../features/snapshots/components/SaveSnapshotForm';
+import { FollowForm } from '../../features/following/components/FollowForm';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
 
 const FORM_FIELDS = [
@@ -111,6 +112,15 @@ export function SynthesisPage() {
               </p>
             )}
             <p className="ml-auto text-xs text-ink-faint">Computed on registry version {synthesis.data?.registryVersion}</p>
+          </section>
+          <section aria-label="Follow this synthesis" className="mt-3 flex flex-wrap items-end gap-3 rounded border border-paper-edge p-3">
+            {me ? (
+              <FollowForm key={encodeRequest(submitted).toString()} target={{ request: submitted }} what="synthesis" />
+            ) : (
+              <p className="text-sm text-ink-soft">
+                <a href={signInHref()}>Sign in</a> to follow this synthesis: it is run again whenever the registry grows, and you hear when it moves.
+              </p>
+            )}
           </section>
           <section aria-label="Export this synthesis" className="mt-3 text-sm">
             <h2 className="text-base">Export without saving</h2>

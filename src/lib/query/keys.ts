@@ -43,7 +43,12 @@ export const queryKeys = {
   users,
   audit,
   tokens,
-  follows,
+  follows: {
+    ...follows,
+    /** "what changed since": a follow's results then and now, which move with the registry */
+    changesAll: () => [...follows.all, 'changes'] as const,
+    changes: (id: number, since: number | undefined) => [...follows.all, 'changes', id, { since }] as const,
+  },
   mail: {
     ...mail,
     /** The delivery log is the domain's list; the mailbox (what the mail catcher received) sits beside it. */

@@ -7,6 +7,7 @@ export const SETTLED_DATA_KEYS = [
   queryKeys.atlas.all,
   queryKeys.effects.all,
   queryKeys.snapshots.diffs(),
+  queryKeys.follows.changesAll(),
   queryKeys.search.all,
   // the vocabulary lists count settled effects per term
   queryKeys.manipulations.lists(),

@@ -42,6 +42,7 @@ describe('registryChanged', () => {
     queryKeys.atlas.references('outcomes', 'temporal_order', { page: 1 }),
     queryKeys.effects.list({ page: 1 }),
     queryKeys.snapshots.diff('abcdefghij'),
+    queryKeys.follows.changes(1, undefined),
     queryKeys.search.list({ q: 'looming' }),
     queryKeys.manipulations.list({ includeRetired: true }),
   ];
@@ -49,6 +50,7 @@ describe('registryChanged', () => {
     // a snapshot is frozen: only its comparison with today's registry moves
     queryKeys.snapshots.detail('abcdefghij'),
     queryKeys.snapshots.list({ page: 1 }),
+    queryKeys.follows.lists(),
     queryKeys.references.detail(1),
     queryKeys.tokens.lists(),
     queryKeys.users.list({ page: 1 }),
@@ -56,7 +58,7 @@ describe('registryChanged', () => {
     queryKeys.audit.list({ page: 1 }),
   ];
 
-  it('invalidates synthesis, atlas, effects, snapshot comparisons, search and the vocabulary counts together', async () => {
+  it('invalidates synthesis, atlas, effects, snapshot and follow comparisons, search and the vocabulary counts together', async () => {
     const qc = cacheWith([...touched, ...untouched]);
     await registryChanged(qc);
     for (const key of touched) expect(qc.getQueryState(key)?.isInvalidated, JSON.stringify(key)).toBe(true);
@@ -69,6 +71,6 @@ describe('registryChanged', () => {
   });
 
   it('names each of those domains once', () => {
-    expect(SETTLED_DATA_KEYS.map((k) => k[0])).toEqual(['syntheses', 'atlas', 'effects', 'snapshots', 'search', 'manipulations']);
+    expect(SETTLED_DATA_KEYS.map((k) => k[0])).toEqual(['syntheses', 'atlas', 'effects', 'snapshots', 'follows', 'search', 'manipulations']);
   });
 });

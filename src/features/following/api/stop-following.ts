@@ -6,5 +6,5 @@ export const stopFollowing = (id: number) => api<void>(`/api/follows/${id}`, { m
 
 export function useStopFollowing() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: stopFollowing, onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.follows.all }) });
+  return useMutation({ mutationFn: stopFollowing, onSuccess: () => qc.invalidateQueries({ queryKey: queryKeys.follows.lists() }) });
 }

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { Button } from '../../../components/ui/Button';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { useFollows } from '../api/get-follows';
@@ -20,6 +21,7 @@ export function FollowsList() {
               <th className="num">Estimate move (× SE)</th>
               <th className="num">New study weight</th>
               <th className="num">Since</th>
+              <th>Changes</th>
               <th>Feed</th>
               <th />
             </tr>
@@ -27,10 +29,15 @@ export function FollowsList() {
           <tbody>
             {data.items.map((f) => (
               <tr key={f.id}>
-                <td>{f.summary}</td>
+                <td>{f.snapshotId ? <>Snapshot <Link to={`/snapshots/${f.snapshotId}`}>{f.snapshotId}</Link>: </> : null}{f.summary}</td>
                 <td className="num">{f.seShare.toFixed(2)}</td>
                 <td className="num">{(f.weightShare * 100).toFixed(0)}%</td>
                 <td className="num">{f.createdAt.slice(0, 10)}</td>
+                <td>
+                  <Link to={`/follows/${f.id}/changes`} aria-label={`What changed: ${f.summary}`}>
+                    What changed
+                  </Link>
+                </td>
                 <td>
                   <a href={f.feedUrl}>Atom feed</a>
                 </td>
