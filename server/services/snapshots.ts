@@ -19,6 +19,7 @@ import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import { METHOD_LABELS, type CreatedSnapshot, type SnapshotCitation, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
+import { labelOf } from '../../shared/vocabulary/labels.js';
 import type { SynthesisOutput } from '../../shared/synthesis/types.js';
 import type { SynthesisFlow } from '../../shared/synthesis/flow.js';
 
@@ -44,12 +45,13 @@ export async function prismaForMethods(db: Db): Promise<PrismaCounts | null> {
 
 export function defaultTitle(request: SynthesisRequest, metric: string): string {
   const f = request.filters;
+  const term = (t: string) => labelOf('manipulation', t);
   const parts = [
-    Array.isArray(f.manipulation) ? f.manipulation.join(' + ') : f.manipulation,
-    f.outcome?.replace(/_/g, ' '),
-    f.population?.replace(/_/g, ' '),
-    f.modality,
-    f.task?.replace(/_/g, ' '),
+    f.manipulation === undefined ? undefined : (Array.isArray(f.manipulation) ? f.manipulation : [f.manipulation]).map(term).join(' + '),
+    f.outcome && labelOf('outcome', f.outcome),
+    f.population && labelOf('population', f.population),
+    f.modality && labelOf('modality', f.modality),
+    f.task && labelOf('task', f.task),
   ].filter(Boolean);
   return `${parts.length ? parts.join(', ') : 'All settled effects'} — ${metricLabel(metric)}, ${METHOD_LABELS[request.method]}${request.hksj ? ' + HKSJ' : ''}`;
 }

@@ -1,3 +1,4 @@
+import { metricDigits as digitsOf } from '../vocabulary/labels.js';
 import theme from '../../tailwind.config.js';
 
 const c = theme.theme.extend.colors;
@@ -45,5 +46,5 @@ export function noEffectValue(metric: string): number | null {
   return metric === 'raw_mean' ? null : 0;
 }
 
-/** Digits shown for a metric's values (ms metrics need fewer). */
-export const metricDigits = (metric: string) => (metric === 'raw_mean' || metric === 'mean_diff' ? 1 : 2);
+/** Digits shown for a metric's values on a plot (the one rule, shared/vocabulary/labels.ts). */
+export const metricDigits = (metric: string) => digitsOf(metric, 'plot');

@@ -1,3 +1,4 @@
+import { metricDigits } from '../../shared/vocabulary/labels.js';
 /** Numbers as the tables show them: a fixed, stated precision, and a dash for a missing value. */
 export const MISSING = '—';
 
@@ -26,5 +27,5 @@ export const percent = (fraction: number | null | undefined, digits = 1) => (isN
 export const interval = (lower: number | null | undefined, upper: number | null | undefined, digits: number) =>
   isNumber(lower) && isNumber(upper) ? `[${fixed(lower, digits)}, ${fixed(upper, digits)}]` : MISSING;
 
-/** Precision by metric: milliseconds (raw means, mean differences) to 1 decimal, standardized metrics to 3. */
-export const digitsFor = (metric: string) => (metric === 'raw_mean' || metric === 'mean_diff' ? 1 : 3);
+/** Precision by metric in tables (the one digits rule, shared/vocabulary/labels.ts). */
+export const digitsFor = (metric: string) => metricDigits(metric, 'table');

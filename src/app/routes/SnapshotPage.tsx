@@ -8,6 +8,7 @@ import { SynthesisResults } from '../../features/synthesis/components/SynthesisR
 import { synthesisHref } from '../../features/synthesis/codec';
 import { modelLabel, valueLabel } from '../../features/synthesis/labels';
 import { PlotFigure } from '../../features/plots/components/PlotFigure';
+import { labelOf } from '../../../shared/vocabulary/labels';
 import { FlowTable } from '../../features/synthesis/components/FlowTable';
 import { CiteSnapshot } from '../../features/snapshots/components/CiteSnapshot';
 import { useMe } from '../../features/auth/api/get-me';
@@ -42,7 +43,7 @@ function RegistryToday({ id, rerun }: { id: string; rerun: string }) {
 }
 
 function filterText(filters: Record<string, unknown>): string {
-  const parts = Object.entries(filters).map(([k, v]) => `${k}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
+  const parts = Object.entries(filters).map(([k, v]) => `${labelOf('filter', k)}: ${Array.isArray(v) ? v.map((x) => valueLabel(k, String(x))).join(' + ') : valueLabel(k, String(v))}`);
   return parts.length ? parts.join('; ') : 'all settled effects';
 }
 
@@ -87,8 +88,8 @@ export function SnapshotPage() {
         <dt className="text-ink-soft">Options</dt>
         <dd>
           {modelLabel(q)}, {Math.round(q.level * 1000) / 10}% intervals
-          {q.subgroup ? `; subgroups by ${q.subgroup}` : ''}
-          {q.moderator ? `; meta-regression on ${q.moderator}` : ''}
+          {q.subgroup ? `; subgroups by ${labelOf('subgroup', q.subgroup).toLowerCase()}` : ''}
+          {q.moderator ? `; meta-regression on ${labelOf('moderator', q.moderator).toLowerCase()}` : ''}
         </dd>
         <dt className="text-ink-soft">Software</dt>
         <dd>{s.software}</dd>

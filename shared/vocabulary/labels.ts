@@ -1,0 +1,69 @@
+import { OUTCOMES, type OutcomeKind } from './outcomes.js';
+import { POPULATION_LABELS } from './populations.js';
+import { MODALITY_LABELS } from './modalities.js';
+import { TASK_LABELS } from './tasks.js';
+import { DESIGN_LABELS } from './designs.js';
+import { PARAMETER_LABELS, UNIT_LABELS } from './parameters.js';
+import { EXCLUSION_REASON_LABELS, REFERENCE_SOURCE_LABELS } from './screening.js';
+import { DEFAULT_MANIPULATIONS } from './manipulations.js';
+import { metricLabel } from '../synthesis/metric-choice.js';
+
+/**
+ * The one label table: every stored code a screen or an export may show, in words. Screens and exports
+ * call `labelOf(kind, value)`; a code missing from the table is shown with its underscores as spaces,
+ * never as the raw key.
+ */
+export const LABELS = {
+  /** the shipped vocabulary's labels (curators may add terms: those show their words without underscores) */
+  manipulation: Object.fromEntries(DEFAULT_MANIPULATIONS.map((m) => [m.term, m.label])) as Record<string, string>,
+  outcome: Object.fromEntries(Object.entries(OUTCOMES).map(([k, v]) => [k, v.label])) as Record<OutcomeKind, string>,
+  population: POPULATION_LABELS,
+  modality: MODALITY_LABELS,
+  task: TASK_LABELS,
+  design: DESIGN_LABELS,
+  parameter: PARAMETER_LABELS,
+  unit: UNIT_LABELS,
+  exclusionReason: EXCLUSION_REASON_LABELS,
+  source: REFERENCE_SOURCE_LABELS,
+  state: {
+    draft: 'Draft',
+    submitted: 'Submitted',
+    matched: 'Matched',
+    disputed: 'Disputed',
+    settled: 'Settled',
+    withdrawn: 'Withdrawn',
+    coding: 'Coding',
+    queued: 'Queued',
+    sent: 'Sent',
+    retrying: 'Retrying',
+    failed: 'Failed',
+  },
+  screening: { unscreened: 'Not yet screened', included: 'Included', excluded: 'Excluded' },
+  filter: {
+    manipulation: 'Manipulation', outcome: 'Outcome kind', parameter: 'Parameter', unit: 'Unit', metric: 'Metric', population: 'Population',
+    modality: 'Modality', task: 'Task', design: 'Design', yearFrom: 'From year', yearTo: 'To year',
+  },
+  moderator: { standardMs: 'Standard duration (ms)', year: 'Publication year' },
+  subgroup: { population: 'Population', modality: 'Modality', task: 'Task', design: 'Design', outcome: 'Outcome kind', manipulation: 'Manipulation' },
+} as const satisfies Record<string, Record<string, string>>;
+
+export type LabelKind = keyof typeof LABELS | 'metric';
+
+/** A stored code in words (metrics through metricLabel, which knows SMD families and older keys). */
+export function labelOf(kind: LabelKind | string, value: string): string {
+  if (kind === 'metric') return metricLabel(value);
+  const table = (LABELS as Record<string, Record<string, string>>)[kind];
+  return table?.[value] ?? value.replace(/_/g, ' ');
+}
+
+/** Metrics reported in milliseconds (or degrees): their values to 1 decimal; every other metric to 3. */
+const RAW_UNIT_METRICS = new Set(['raw_mean', 'mean_diff']);
+
+/**
+ * The one digits rule: decimals for a metric's values in tables, text and exports' display; plot labels,
+ * where space is short, use one decimal fewer for standardized metrics.
+ */
+export function metricDigits(metric: string, where: 'table' | 'plot' = 'table'): number {
+  if (RAW_UNIT_METRICS.has(metric)) return 1;
+  return where === 'plot' ? 2 : 3;
+}
