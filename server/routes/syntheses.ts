@@ -2,9 +2,10 @@ import { Router } from 'express';
 import type { AppContext } from '../context.js';
 import { chargeCaller, costs } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
-import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, type SynthesisAnswer } from '../../shared/schemas/synthesis.js';
+import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, synthesisTableRequestSchema, type SynthesisAnswer, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { answerRows, rowsPage } from '../../shared/synthesis/answer-rows.js';
 import { liveSynthesisExport, registrySynthesis, synthesisFacets, synthesisRowsView, synthesisSize } from '../services/synthesis.js';
-import { RegistryCache } from '../services/registry-cache.js';
+import { RegistryCache, RegistryMemo } from '../services/registry-cache.js';
 import { flowSvg, liveSynthesisFlow } from '../services/flow.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
@@ -14,17 +15,9 @@ export function synthesesRouter(ctx: AppContext) {
   // A synthesis is a pure function of the request and the settled registry, so answers are kept per
   // registry version (any settled change retires them all); the header says whether this one was computed.
   const answers = new RegistryCache(64);
-  // the last few answers asked for by page, parsed once (a page of a kept 5 MB answer is then a slice)
-  const parsed = new Map<string, { text: string; answer: SynthesisAnswer }>();
-  const parsedAnswer = (key: string, text: string): SynthesisAnswer => {
-    const hit = parsed.get(key);
-    if (hit?.text === text) return hit.answer;
-    const answer = JSON.parse(text) as SynthesisAnswer;
-    parsed.delete(key);
-    parsed.set(key, { text, answer });
-    if (parsed.size > 4) parsed.delete(parsed.keys().next().value!);
-    return answer;
-  };
+  // The whole outputs (every row) of recent syntheses, which ?rows=page and the rows route page: at most 200,000 rows in all.
+  const outputs = new RegistryMemo<SynthesisAnswer>(16, 200_000, (o) => o.rows.length);
+  const fullOutput = (request: SynthesisRequest) => outputs.get(ctx.db, JSON.stringify(request), () => registrySynthesis(ctx.db, request));
 
   // Each synthesis is paid from the caller's budget by the number of effects it covers (a kept answer costs less).
   router.post('/syntheses', async (req, res) => {
@@ -36,12 +29,20 @@ export function synthesesRouter(ctx: AppContext) {
     let computed = false;
     const body = await answers.get(ctx.db, key, () => {
       computed = true;
-      return registrySynthesis(ctx.db, request);
+      return fullOutput(request).then(answerRows);
     });
     res
       .set('X-Synthesis-Cache', computed ? 'miss' : 'hit')
       .type('application/json')
-      .send(view.rows === 'all' ? body : JSON.stringify(synthesisRowsView(parsedAnswer(key, body), view)));
+      .send(view.rows === 'all' ? body : JSON.stringify(synthesisRowsView(await fullOutput(request), view)));
+  });
+
+  // The pooled rows of a synthesis, a page at a time, sorted on the server (an answer carries only the first page of a long list).
+  router.post('/syntheses/rows', async (req, res) => {
+    const q = parseInput(synthesisTableRequestSchema, req.body);
+    const [k, kept] = await Promise.all([synthesisSize(ctx.db, q.request), outputs.has(ctx.db, JSON.stringify(q.request))]);
+    chargeCaller(req, costs.synthesis(k, kept), `The rows of a synthesis of ${k} effects`);
+    res.json(rowsPage((await fullOutput(q.request)).rows, q));
   });
 
   // A link (GET) so a browser downloads it as it is and a script can fetch it; the name carries the registry version.

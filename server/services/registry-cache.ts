@@ -2,17 +2,18 @@ import type { Knex } from 'knex';
 import { readRegistryVersion } from '../repositories/registry-version.js';
 
 /**
- * Serialized answers keyed by registry version: every settled change bumps the version and so retires
- * the whole cache. The key is the version's stamp (its id and time).
+ * Values keyed by registry version: every settled change bumps the version and so retires the whole cache.
+ * The key is the version's stamp (its id and time). At most `maxEntries` values, and at most `maxSize` in
+ * all as `sizeOf` measures them; past either the cache starts again.
  */
-export class RegistryCache {
+export class RegistryMemo<T> {
   private key = '';
-  private entries = new Map<string, Promise<string>>();
-  private bytes = 0;
+  private entries = new Map<string, Promise<T>>();
+  private size = 0;
   constructor(
-    private readonly maxEntries = 500,
-    /** answers are UTF-16 strings: about 2 bytes a character */
-    private readonly maxChars = 32 * 1024 * 1024,
+    private readonly maxEntries: number,
+    private readonly maxSize = Infinity,
+    private readonly sizeOf: (value: T) => number = () => 0,
   ) {}
 
   private inflight: Promise<string> | null = null;
@@ -30,34 +31,44 @@ export class RegistryCache {
     return this.inflight;
   }
 
-  /** Whether an answer for `name` is kept (or being computed) for the current registry version. */
+  /** Whether a value for `name` is kept (or being computed) for the current registry version. */
   async has(db: Knex, name: string): Promise<boolean> {
     const key = await this.versionKey(db);
     return key === this.key && this.entries.has(name);
   }
 
-  async get(db: Knex, name: string, compute: () => Promise<unknown>): Promise<string> {
+  async get(db: Knex, name: string, compute: () => Promise<T>): Promise<T> {
     const key = await this.versionKey(db);
     if (key !== this.key) {
       this.key = key;
       this.entries = new Map();
-      this.bytes = 0;
+      this.size = 0;
     }
     let hit = this.entries.get(name);
     if (!hit) {
-      if (this.entries.size >= this.maxEntries || this.bytes >= this.maxChars) {
+      if (this.entries.size >= this.maxEntries || this.size >= this.maxSize) {
         this.entries = new Map();
-        this.bytes = 0;
+        this.size = 0;
       }
       const entries = this.entries;
       hit = compute().then((v) => {
-        const text = JSON.stringify(v);
-        if (entries === this.entries) this.bytes += text.length;
-        return text;
+        if (entries === this.entries) this.size += this.sizeOf(v);
+        return v;
       });
       hit.catch(() => entries.delete(name));
       entries.set(name, hit);
     }
     return hit;
+  }
+}
+
+/** Serialized answers keyed by registry version (answers are UTF-16 strings: about 2 bytes a character). */
+export class RegistryCache extends RegistryMemo<string> {
+  constructor(maxEntries = 500, maxChars = 32 * 1024 * 1024) {
+    super(maxEntries, maxChars, (text) => text.length);
+  }
+
+  override get(db: Knex, name: string, compute: () => Promise<unknown>): Promise<string> {
+    return super.get(db, name, () => compute().then((v) => JSON.stringify(v)));
   }
 }

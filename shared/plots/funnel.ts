@@ -16,12 +16,14 @@ export interface FunnelInput {
 export const FUNNEL_MAX_POINTS = 2000;
 const Z95 = 1.959963984540054;
 
-/** Evenly spaced subset by SE order, so a huge funnel keeps its shape. */
+/** Evenly spaced subset by SE order (ties in input order), so a huge funnel keeps its shape. */
 function thin<T>(items: T[], max: number, key: (t: T) => number): T[] {
   if (items.length <= max) return items;
-  const sorted = [...items].sort((a, b) => key(a) - key(b));
-  const step = sorted.length / max;
-  return Array.from({ length: max }, (_, i) => sorted[Math.floor(i * step)]);
+  const keys = Float64Array.from(items, key);
+  // indices, not the items, are sorted: a numeric comparator over typed arrays
+  const order = new Uint32Array(items.length).map((_, i) => i).sort((a, b) => keys[a] - keys[b] || a - b);
+  const step = order.length / max;
+  return Array.from({ length: max }, (_, i) => items[order[Math.floor(i * step)]]);
 }
 
 /**

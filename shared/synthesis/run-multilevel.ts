@@ -52,17 +52,7 @@ export function runMultilevelSynthesis(effects: readonly SettledEffect[], reques
     }
   };
   const sg = request.subgroup;
-  const items = effects
-    .map((e) => ({ e, group: sg ? String(e[sg] ?? 'not reported') : undefined }))
-    .sort(
-      (a, b) =>
-        cmp(a.group ?? '', b.group ?? '') ||
-        (a.e.year ?? 9999) - (b.e.year ?? 9999) ||
-        cmp(a.e.referenceLabel, b.e.referenceLabel) ||
-        a.e.referenceId - b.e.referenceId ||
-        a.e.studyId - b.e.studyId ||
-        a.e.id - b.e.id,
-    );
+  const items = inRowOrder(effects, sg);
   const k = items.length;
   const y = new Float64Array(k);
   const v = new Float64Array(k);
@@ -203,6 +193,29 @@ export function runMultilevelSynthesis(effects: readonly SettledEffect[], reques
     papersWithSeveralEffects: [...byPaper.values()].filter((x) => x.length > 1).length,
     unavailable,
   };
+}
+
+/**
+ * Effects in row order: subgroup, paper year, paper label, paper, study, effect. The strings are ranked once
+ * (code-point order) so the sort compares numbers only.
+ */
+function inRowOrder(effects: readonly SettledEffect[], sg: MultilevelRequest['subgroup']) {
+  const n = effects.length;
+  const groups = sg ? effects.map((e) => String(e[sg] ?? 'not reported')) : null;
+  const rankOf = (values: string[]) => {
+    const distinct = [...new Set(values)].sort(cmp);
+    const rank = new Map(distinct.map((x, i) => [x, i]));
+    return Float64Array.from(values, (x) => rank.get(x)!);
+  };
+  const g = groups ? rankOf(groups) : new Float64Array(n);
+  const label = rankOf(effects.map((e) => e.referenceLabel));
+  const year = Float64Array.from(effects, (e) => e.year ?? 9999);
+  const order = new Uint32Array(n).map((_, i) => i).sort((a, b) => {
+    const x = effects[a];
+    const y = effects[b];
+    return g[a] - g[b] || year[a] - year[b] || label[a] - label[b] || x.referenceId - y.referenceId || x.studyId - y.studyId || x.id - y.id;
+  });
+  return Array.from(order, (i) => ({ e: effects[i], group: groups ? groups[i] : undefined }));
 }
 
 /** Indices (in row order) of the `max` rows with the largest weights. */

@@ -186,6 +186,8 @@ export interface SynthesisOutput {
   papersWithSeveralEffects?: number;
   /** analyses the engine could not run here, with the reason */
   unavailable: Array<{ analysis: string; reason: string }>;
+  /** set when an answer carries only the first page of `rows` (and of `result.weights`): how many there are */
+  rowsTotal?: number;
 }
 
 export type { SynthesisFilters, SynthesisRequest };

@@ -98,4 +98,20 @@ describe('POST /api/syntheses with dependence { mode: "multilevel" }', () => {
     expect(methods.text).toMatch(/CR2 variance estimator.*Satterthwaite/);
     expect(methods.text).not.toMatch(/DerSimonian/);
   });
+  it('POST /api/syntheses/rows pages and sorts the pooled rows on the server (missing values last, ties in row order); bad paging is a 400', async () => {
+    const all = (await anonymous(t.app).post('/api/syntheses').send(multilevel)).body.rows as any[];
+    const first = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, page: 2, pageSize: 5 });
+    expect(first.status).toBe(200);
+    expect(first.body).toMatchObject({ total: 17, page: 2, pageSize: 5 });
+    expect(first.body.items).toEqual(all.slice(5, 10));
+    const byWeight = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, pageSize: 200, sort: 'weight', order: 'desc' });
+    const expected = all.map((r, i) => ({ r, i })).sort((a, b) => b.r.weight - a.r.weight || a.i - b.i).map((x) => x.r);
+    expect(byWeight.body.items).toEqual(expected);
+    const byLabel = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, pageSize: 200, sort: 'label' });
+    const labels = byLabel.body.items.map((r: any) => r.label);
+    expect(labels).toEqual([...labels].sort((a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0)));
+    const bad = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, page: 0, sort: 'colour' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.details.map((d: any) => d.path).sort()).toEqual(['body.page', 'body.sort']);
+  });
 });

@@ -8,6 +8,7 @@
 //      time: p95 < 500 ms.
 //   2. GET /api/atlas/manipulations/:term/pooled: 2,000 req/s for 30 s with no errors (cached by registry version).
 //   3. POST /api/syntheses over ~200 effects, uncached: 300 req/s.
+// BENCH_PARTS=1c (a comma list of 1, 1c, 2, 3) runs only those parts.
 import { spawn } from 'node:child_process';
 import autocannon from 'autocannon';
 import { createDb } from '../../server/db/knex.js';
@@ -18,6 +19,7 @@ const url = process.env.DATABASE_URL!;
 if (!/chronometa_bench/.test(url)) throw new Error('run with npm run bench (it brings up chronometa_bench)');
 const origin = process.env.APP_ORIGIN!;
 const db = createDb(url);
+const parts = new Set((process.env.BENCH_PARTS ?? '1,1c,2,3').split(',').map((x) => x.trim()));
 
 /** SYNTHETIC settled records: `refs` references, `studiesPer` studies each, effects per study cycling through `effectsPer`. */
 async function bulkSynthetic(term: string, refs: number, studiesPer: number, effectsPer: number[], seed: number) {
@@ -126,51 +128,59 @@ try {
     }
     return { p50: percentile(times, 50), p95: percentile(times, 95), n: times.length, studies, hits };
   };
-  const computed = await timed((i) => 0.9 + i / 1000);
-  const repeated = await timed(() => 0.95);
-  console.log(
-    `1a. synthesis over ${large} effects (${computed.studies} studies after aggregation), computed each time: p50 ${computed.p50.toFixed(0)} ms, p95 ${computed.p95.toFixed(0)} ms over ${computed.n} requests (${computed.hits} cache hits)`,
-  );
-  console.log(
-    `1b. the same synthesis repeated (answered from the registry-version cache after the first): p50 ${repeated.p50.toFixed(0)} ms, p95 ${repeated.p95.toFixed(0)} ms over ${repeated.n} requests (${repeated.hits} cache hits)`,
-  );
-  console.log(`    target p95 < 300 ms: computed ${computed.p95 < 300 ? 'met' : 'MISSED'}, repeated ${repeated.p95 < 300 ? 'met' : 'MISSED'}`);
-  if (repeated.p95 >= 300) failed = true;
-  const multilevel = await timed((i) => 0.9 + i / 1000, { mode: 'multilevel', robust: true });
-  console.log(
-    `1c. three-level synthesis (CR2 robust) over ${large} effects (${multilevel.studies} effects in the model), computed each time: p50 ${multilevel.p50.toFixed(0)} ms, p95 ${multilevel.p95.toFixed(0)} ms over ${multilevel.n} requests (${multilevel.hits} cache hits); target p95 < 500 ms: ${multilevel.p95 < 500 ? 'met' : 'MISSED'}`,
-  );
-  if (multilevel.p95 >= 500) failed = true;
+  if (parts.has('1')) {
+    const computed = await timed((i) => 0.9 + i / 1000);
+    const repeated = await timed(() => 0.95);
+    console.log(
+      `1a. synthesis over ${large} effects (${computed.studies} studies after aggregation), computed each time: p50 ${computed.p50.toFixed(0)} ms, p95 ${computed.p95.toFixed(0)} ms over ${computed.n} requests (${computed.hits} cache hits)`,
+    );
+    console.log(
+      `1b. the same synthesis repeated (answered from the registry-version cache after the first): p50 ${repeated.p50.toFixed(0)} ms, p95 ${repeated.p95.toFixed(0)} ms over ${repeated.n} requests (${repeated.hits} cache hits)`,
+    );
+    console.log(`    target p95 < 300 ms: computed ${computed.p95 < 300 ? 'met' : 'MISSED'}, repeated ${repeated.p95 < 300 ? 'met' : 'MISSED'}`);
+    if (repeated.p95 >= 300) failed = true;
+  }
+  if (parts.has('1c')) {
+    const multilevel = await timed((i) => 0.9 + i / 1000, { mode: 'multilevel', robust: true });
+    console.log(
+      `1c. three-level synthesis (CR2 robust) over ${large} effects (${multilevel.studies} effects in the model), computed each time: p50 ${multilevel.p50.toFixed(0)} ms, p95 ${multilevel.p95.toFixed(0)} ms over ${multilevel.n} requests (${multilevel.hits} cache hits); target p95 < 500 ms: ${multilevel.p95 < 500 ? 'met' : 'MISSED'}`,
+    );
+    if (multilevel.p95 >= 500) failed = true;
+  }
 
   // 2. atlas pooled estimate, cached by registry version
-  const atlas = await cannon({ url: `${origin}/api/atlas/manipulations/synthetic_bench_small/pooled`, connections: 32, pipelining: 1, duration: 30 });
-  const atlasErrors = atlas.errors + atlas.timeouts + atlas.non2xx;
-  console.log(
-    `2. atlas pooled estimate: ${atlas.requests.average.toFixed(0)} req/s average (min ${atlas.requests.min}/s), ${atlas.requests.total} requests in 30 s, latency p99 ${atlas.latency.p99} ms, errors ${atlasErrors} (target 2,000/s, no errors: ${atlas.requests.average >= 2000 && atlasErrors === 0 ? 'met' : 'MISSED'})`,
-  );
-  if (atlas.requests.average < 2000 || atlasErrors) failed = true;
+  if (parts.has('2')) {
+    const atlas = await cannon({ url: `${origin}/api/atlas/manipulations/synthetic_bench_small/pooled`, connections: 32, pipelining: 1, duration: 30 });
+    const atlasErrors = atlas.errors + atlas.timeouts + atlas.non2xx;
+    console.log(
+      `2. atlas pooled estimate: ${atlas.requests.average.toFixed(0)} req/s average (min ${atlas.requests.min}/s), ${atlas.requests.total} requests in 30 s, latency p99 ${atlas.latency.p99} ms, errors ${atlasErrors} (target 2,000/s, no errors: ${atlas.requests.average >= 2000 && atlasErrors === 0 ? 'met' : 'MISSED'})`,
+    );
+    if (atlas.requests.average < 2000 || atlasErrors) failed = true;
+  }
 
   // 3. uncached synthesis over ~200 effects
-  // every request a different confidence level, so none is answered from the cache
-  let seq = 0;
-  const smallBody = JSON.parse(body('synthetic_bench_small'));
-  const synth = await cannon({
-    url: `${origin}/api/syntheses`,
-    connections: 16,
-    duration: 20,
-    requests: [
-      {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        setupRequest: (r) => ({ ...r, body: JSON.stringify({ ...smallBody, level: 0.9 + ((seq++ % 90000) + 1) / 1e6 }) }),
-      },
-    ],
-  });
-  const synthErrors = synth.errors + synth.timeouts + synth.non2xx;
-  console.log(
-    `3. uncached synthesis over ${small} effects: ${synth.requests.average.toFixed(0)} req/s average (min ${synth.requests.min}/s), latency p50 ${synth.latency.p50} ms, p99 ${synth.latency.p99} ms, errors ${synthErrors} (target 300/s: ${synth.requests.average >= 300 && synthErrors === 0 ? 'met' : 'MISSED'})`,
-  );
-  if (synth.requests.average < 300 || synthErrors) failed = true;
+  if (parts.has('3')) {
+    // every request a different confidence level, so none is answered from the cache
+    let seq = 0;
+    const smallBody = JSON.parse(body('synthetic_bench_small'));
+    const synth = await cannon({
+      url: `${origin}/api/syntheses`,
+      connections: 16,
+      duration: 20,
+      requests: [
+        {
+          method: 'POST',
+          headers: { 'content-type': 'application/json' },
+          setupRequest: (r) => ({ ...r, body: JSON.stringify({ ...smallBody, level: 0.9 + ((seq++ % 90000) + 1) / 1e6 }) }),
+        },
+      ],
+    });
+    const synthErrors = synth.errors + synth.timeouts + synth.non2xx;
+    console.log(
+      `3. uncached synthesis over ${small} effects: ${synth.requests.average.toFixed(0)} req/s average (min ${synth.requests.min}/s), latency p50 ${synth.latency.p50} ms, p99 ${synth.latency.p99} ms, errors ${synthErrors} (target 300/s: ${synth.requests.average >= 300 && synthErrors === 0 ? 'met' : 'MISSED'})`,
+    );
+    if (synth.requests.average < 300 || synthErrors) failed = true;
+  }
 } finally {
   stopping = true;
   server?.kill('SIGTERM');

@@ -91,6 +91,7 @@ export const queryKeys = {
     facets: () => [...synthesis.all, 'facets'] as const,
     runs: () => [...synthesis.all, 'run'] as const,
     run: (request: object) => [...synthesis.all, 'run', request] as const,
+    rows: (request: object, paging: object) => [...synthesis.all, 'rows', request, paging] as const,
   },
   /** Trial data sets: a sheet's list, one set with its fits, and the effect two of its conditions give. */
   trials: {

@@ -9,15 +9,32 @@ export interface Column<T> {
   render?: (row: T) => ReactNode;
 }
 
+export type TableSort = { key: string; dir: 1 | -1 } | null;
+
+/** Paging and sorting done by the server: `rows` is the current page, the parent holds page and sort. */
+export interface ServerPaging {
+  total: number;
+  page: number;
+  sort: TableSort;
+  onPage: (page: number) => void;
+  onSort: (sort: TableSort) => void;
+}
+
 /**
  * A table over rows the synthesis already computed (they live in the answer, not in a database table),
- * so it pages and sorts in the page; 25 rows at a time keeps a 1,000-study answer readable.
+ * so it pages and sorts in the page; 25 rows at a time keeps a 1,000-study answer readable. With `server`,
+ * the rows are one page the server sorted (a long synthesis answers only its first page).
  */
-export function ResultTable<T>({ caption, columns, rows, pageSize = 25, rowKey }: { caption: string; columns: Column<T>[]; rows: T[]; pageSize?: number; rowKey: (row: T, i: number) => string | number }) {
-  const [sort, setSort] = useState<{ key: string; dir: 1 | -1 } | null>(null);
-  const [page, setPage] = useState(1);
+export function ResultTable<T>({ caption, columns, rows, pageSize = 25, rowKey, server }: { caption: string; columns: Column<T>[]; rows: T[]; pageSize?: number; rowKey: (row: T, i: number) => string | number; server?: ServerPaging }) {
+  const [localSort, setLocalSort] = useState<TableSort>(null);
+  const [localPage, setLocalPage] = useState(1);
+  const sort = server ? server.sort : localSort;
+  const page = server ? server.page : localPage;
+  const setSort = server ? server.onSort : setLocalSort;
+  const setPage = server ? server.onPage : setLocalPage;
+  const total = server ? server.total : rows.length;
   const sorted = useMemo(() => {
-    if (!sort) return rows;
+    if (!sort || server) return rows;
     const col = columns.find((c) => c.key === sort.key)!;
     return [...rows].sort((a, b) => {
       const x = col.value(a);
@@ -26,8 +43,8 @@ export function ResultTable<T>({ caption, columns, rows, pageSize = 25, rowKey }
       if (y == null) return -1;
       return (typeof x === 'number' && typeof y === 'number' ? x - y : String(x).localeCompare(String(y))) * sort.dir;
     });
-  }, [rows, sort, columns]);
-  const shown = sorted.slice((page - 1) * pageSize, page * pageSize);
+  }, [rows, sort, columns, server]);
+  const shown = server ? rows : sorted.slice((page - 1) * pageSize, page * pageSize);
   return (
     <div className="overflow-x-auto">
       <table>
@@ -65,7 +82,7 @@ export function ResultTable<T>({ caption, columns, rows, pageSize = 25, rowKey }
           ))}
         </tbody>
       </table>
-      {rows.length > pageSize && <Pager page={page} pageSize={pageSize} total={rows.length} onPage={setPage} />}
+      {total > pageSize && <Pager page={page} pageSize={pageSize} total={total} onPage={setPage} />}
     </div>
   );
 }

@@ -1,12 +1,13 @@
 import { useState, type ComponentType } from 'react';
-import { METHOD_LABELS, MODERATOR_LABELS } from '../../../../shared/schemas/synthesis';
+import { METHOD_LABELS, MODERATOR_LABELS, SYNTHESIS_ROWS_PAGE, type SynthesisTableSort } from '../../../../shared/schemas/synthesis';
 import { dependenceSentence } from '../../../../shared/synthesis/methods';
 import type { CorrelationSensitivityRow, PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
 import { Caution } from '../../../components/ui/Notice';
 import { Button } from '../../../components/ui/Button';
 import { digitsFor, fixed, interval as span, pEquals, pValue } from '../../../lib/format';
 import { valueLabel } from '../labels';
-import { ResultTable, type Column } from './ResultTable';
+import { ResultTable, type Column, type TableSort } from './ResultTable';
+import { useSynthesisRows } from '../api/synthesis-rows';
 
 export type FigureComponent = ComponentType<{ figure: PlotFigure; name: string; label: string; show?: Record<string, boolean> }>;
 
@@ -18,6 +19,47 @@ function Stat({ label, children }: { label: string; children: React.ReactNode })
       </th>
       <td className="num">{children}</td>
     </tr>
+  );
+}
+
+/**
+ * The pooled rows: all in the answer (sorted and paged here), or, for a long synthesis whose answer holds only
+ * the first page, paged and sorted by POST /api/syntheses/rows.
+ */
+function PooledRowsTable({ data, caption, columns, rowKey }: { data: SynthesisOutput; caption: string; columns: Column<PooledRow>[]; rowKey: (row: PooledRow) => string | number }) {
+  const [page, setPage] = useState(1);
+  const [sort, setSort] = useState<TableSort>(null);
+  const fromAnswer = page === 1 && sort === null;
+  const paged = data.rowsTotal !== undefined;
+  const rows = useSynthesisRows(
+    data.request,
+    { page, pageSize: SYNTHESIS_ROWS_PAGE, sort: (sort?.key ?? 'position') as SynthesisTableSort, order: sort?.dir === -1 ? 'desc' : 'asc' },
+    paged && !fromAnswer,
+  );
+  if (!paged) return <ResultTable caption={caption} columns={columns} rows={data.rows} rowKey={rowKey} />;
+  const shown = fromAnswer ? data.rows : (rows.data?.items ?? []);
+  return (
+    <>
+      <ResultTable
+        caption={caption}
+        columns={columns}
+        rows={shown}
+        pageSize={SYNTHESIS_ROWS_PAGE}
+        rowKey={rowKey}
+        server={{
+          total: data.rowsTotal!,
+          page,
+          sort,
+          onPage: setPage,
+          onSort: (s) => {
+            setSort(s);
+            setPage(1);
+          },
+        }}
+      />
+      {!fromAnswer && rows.isFetching && <p className="text-sm text-ink-soft" role="status">Loading rows…</p>}
+      {rows.isError && <p className="text-sm text-refusal" role="alert">✕ These rows could not be loaded: {rows.error.message}</p>}
+    </>
   );
 }
 
@@ -238,10 +280,10 @@ export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { 
       )}
 
       <h2>{ml ? 'Effects pooled' : 'Studies pooled'}</h2>
-      <ResultTable
-        caption={ml ? `One row per effect, weights from the three-level model; ${data.rows.length} effects in ${data.counts.references} papers` : `One row per study after combining its effects; ${data.rows.length} in all`}
+      <PooledRowsTable
+        data={data}
+        caption={ml ? `One row per effect, weights from the three-level model; ${data.rowsTotal ?? data.rows.length} effects in ${data.counts.references} papers` : `One row per study after combining its effects; ${data.rowsTotal ?? data.rows.length} in all`}
         columns={studyCols}
-        rows={data.rows}
         rowKey={(x) => (ml ? x.effectIds[0] : x.studyId)}
       />
 
