@@ -1,10 +1,8 @@
-import { MODERATOR_LABELS, type SynthesisRequest } from '../schemas/synthesis.js';
+import type { SynthesisRequest } from '../schemas/synthesis.js';
 import { FOREST_MAX_ROWS, forestFigure } from '../plots/forest.js';
-import { funnelFigure } from '../plots/funnel.js';
-import { bubbleFigure } from '../plots/bubble.js';
 import { StatsInputError } from './engine.js';
 import { cautionsFor } from './cautions.js';
-import { valueLabel } from './labels.js';
+import type { AnalysisLog, ModelPart } from './run.js';
 import {
   asPoolResult,
   cumulativeByPaper,
@@ -37,20 +35,11 @@ const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
 const NOT_UNDER_MULTILEVEL = 'assumes independent effects; not run under the three-level model (aggregate or keep one effect per study to run it)';
 
 /**
- * The synthesis under the three-level model: every effect kept, clustered by paper (reference); the pooled
+ * The three-level model's part of the synthesis: every effect kept, clustered by paper (reference); the pooled
  * estimate, subgroups, meta-regression, leave-one-paper-out and cumulative by paper year from the model,
  * with the CR2 robust variance when asked for.
  */
-export function runMultilevelSynthesis(effects: readonly SettledEffect[], request: MultilevelRequest, metric: string, mLabel: string): SynthesisOutput {
-  const unavailable: SynthesisOutput['unavailable'] = [];
-  const attempt = <T>(analysis: string, f: () => T): T | null => {
-    try {
-      return f();
-    } catch (err) {
-      unavailable.push({ analysis, reason: (err as Error).message });
-      return null;
-    }
-  };
+export function multilevelPart(effects: readonly SettledEffect[], request: MultilevelRequest, metric: string, mLabel: string, { unavailable, attempt }: AnalysisLog): ModelPart {
   const sg = request.subgroup;
   const items = inRowOrder(effects, sg);
   const k = items.length;
@@ -89,109 +78,87 @@ export function runMultilevelSynthesis(effects: readonly SettledEffect[], reques
   });
   const paperList = [...papers.values()];
 
-  let subgroups: SubgroupComparison | null = null;
-  if (sg) {
-    const manipulationLabels = new Map(effects.map((e) => [e.manipulation, e.manipulationLabel ?? e.manipulation]));
-    const labelOf = (value: string) => (sg === 'manipulation' ? (manipulationLabels.get(value) ?? value) : valueLabel(sg, value));
-    const sub = attempt('subgroups', () => multilevelSubgroups(sg, rows.map((r) => r.subgroup!), labelOf, y, v, cluster, request));
-    if (sub) {
-      subgroups = sub.comparison;
-      for (const s of sub.skipped) unavailable.push({ analysis: `subgroup ${labelOf(s.value)}`, reason: s.reason });
+  const subgroups = (labelOf: (value: string) => string) => {
+    const sub = multilevelSubgroups(sg!, rows.map((r) => r.subgroup!), labelOf, y, v, cluster, request);
+    for (const s of sub.skipped) unavailable.push({ analysis: `subgroup ${labelOf(s.value)}`, reason: s.reason });
+    return sub.comparison;
+  };
+
+  const regress = (withX: number[]) => {
+    const reg = fitThreeLevel({ y: withX.map((i) => y[i]), v: withX.map((i) => v[i]), cluster: withX.map((i) => cluster[i]), moderators: [withX.map((i) => rows[i].moderator as number)] }, request);
+    const [intercept, slope] = (reg.robust?.coefficients ?? reg.model.coefficients)!;
+    return {
+      k: reg.model.k,
+      intercept: intercept.estimate,
+      slope: slope.estimate,
+      slope_se: slope.se,
+      slope_ci_lower: slope.ci_lower,
+      slope_ci_upper: slope.ci_upper,
+      slope_p: slope.p,
+      tau2: reg.model.sigma2_between + reg.model.sigma2_within,
+      R2: null,
+    };
+  };
+
+  const refits = () => {
+    const refusal = refitRefusal(paperList.length, k);
+    let leaveOut: SynthesisOutput['leaveOneOut'] = null;
+    let cumulativeRows: SynthesisOutput['cumulative'] = null;
+    if (refusal) {
+      unavailable.push({ analysis: 'leave-one-out', reason: refusal }, { analysis: 'cumulative', reason: refusal });
+    } else {
+      if (paperList.length >= 3) leaveOut = attempt('leave-one-out', () => leaveOnePaperOut(paperList, byPaper, y, v, cluster, request));
+      else unavailable.push({ analysis: 'leave-one-out', reason: 'leaving a paper out needs at least 3 papers under the three-level model' });
+      cumulativeRows = attempt('cumulative', () => cumulativeByPaper(paperList, byPaper, y, v, cluster, request));
     }
-  }
+    unavailable.push({ analysis: "Egger's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: "Begg's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: 'trim-and-fill', reason: NOT_UNDER_MULTILEVEL });
+    return { leaveOneOut: leaveOut, cumulative: cumulativeRows, begg: null, trimFill: null };
+  };
 
-  let metaReg: SynthesisOutput['metaRegression'] = null;
-  const mod = request.moderator;
-  if (mod) {
-    const withX = rows.flatMap((r, i) => (r.moderator != null ? [i] : []));
-    const reg = attempt('meta-regression', () =>
-      fitThreeLevel({ y: withX.map((i) => y[i]), v: withX.map((i) => v[i]), cluster: withX.map((i) => cluster[i]), moderators: [withX.map((i) => rows[i].moderator as number)] }, request),
-    );
-    if (reg) {
-      const slope = (reg.robust?.coefficients ?? reg.model.coefficients)![1];
-      const intercept = (reg.robust?.coefficients ?? reg.model.coefficients)![0];
-      metaReg = {
-        moderator: mod,
-        k: reg.model.k,
-        intercept: intercept.estimate,
-        slope: slope.estimate,
-        slope_se: slope.se,
-        slope_ci_lower: slope.ci_lower,
-        slope_ci_upper: slope.ci_upper,
-        slope_p: slope.p,
-        tau2: reg.model.sigma2_between + reg.model.sigma2_within,
-        R2: null,
-        missing: k - withX.length,
-      };
-    }
-  }
+  const forest = (groups: SubgroupComparison | null) => {
+    const shown = largestWeights(weights, FOREST_MAX_ROWS);
+    const shownPapers = new Set(shown.map((i) => rows[i].referenceId));
+    return forestFigure({
+      metric,
+      metricLabel: mLabel,
+      level: request.level,
+      studies: shown.map((i) => {
+        const r = rows[i];
+        return { label: sg ? r.label : r.label.slice(r.paper!.length + 3), year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: sg ? r.subgroup : String(r.referenceId) };
+      }),
+      omitted: k - shown.length,
+      rowNoun: 'effects',
+      pooled: { label: `Three-level estimate (REML${fit.robust ? ', CR2 robust' : ''})`, estimate: result.estimate, ci_lower: result.ci_lower, ci_upper: result.ci_upper, pi_lower: result.pi_lower, pi_upper: result.pi_upper },
+      subgroups: sg
+        ? groups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper }))
+        : paperList.filter((p) => shownPapers.has(p.id)).map((p) => {
+            const idx = byPaper.get(p.id)!;
+            return { key: String(p.id), label: p.label, ...paperLine(idx.map((i) => v[i]), idx.map((i) => y[i]), m.sigma2_within, request.level) };
+          }),
+      grouping: sg ? 'subgroup' : 'paper',
+    });
+  };
 
-  const refusal = refitRefusal(paperList.length, k);
-  let leaveOut: SynthesisOutput['leaveOneOut'] = null;
-  let cumulativeRows: SynthesisOutput['cumulative'] = null;
-  if (refusal) {
-    unavailable.push({ analysis: 'leave-one-out', reason: refusal }, { analysis: 'cumulative', reason: refusal });
-  } else {
-    if (paperList.length >= 3) leaveOut = attempt('leave-one-out', () => leaveOnePaperOut(paperList, byPaper, y, v, cluster, request));
-    else unavailable.push({ analysis: 'leave-one-out', reason: 'leaving a paper out needs at least 3 papers under the three-level model' });
-    cumulativeRows = attempt('cumulative', () => cumulativeByPaper(paperList, byPaper, y, v, cluster, request));
-  }
-  unavailable.push({ analysis: "Egger's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: "Begg's test", reason: NOT_UNDER_MULTILEVEL }, { analysis: 'trim-and-fill', reason: NOT_UNDER_MULTILEVEL });
+  const finish = () => {
+    const summary = multilevelSummary(fit, request.dependence.robust);
+    if (summary.robustUnavailable) unavailable.push({ analysis: 'robust variance', reason: `${summary.robustUnavailable}; the model-based test is shown` });
+    return {
+      cautions: multilevelCautions(fit, paperList.length, result),
+      multilevel: summary,
+      papersWithSeveralEffects: [...byPaper.values()].filter((x) => x.length > 1).length,
+    };
+  };
 
-  const shown = largestWeights(weights, FOREST_MAX_ROWS);
-  const shownPapers = new Set(shown.map((i) => rows[i].referenceId));
-  const pooledLabel = `Three-level estimate (REML${fit.robust ? ', CR2 robust' : ''})`;
-  const forest = forestFigure({
-    metric,
-    metricLabel: mLabel,
-    level: request.level,
-    studies: shown.map((i) => {
-      const r = rows[i];
-      return { label: sg ? r.label : r.label.slice(r.paper!.length + 3), year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: sg ? r.subgroup : String(r.referenceId) };
-    }),
-    omitted: k - shown.length,
-    rowNoun: 'effects',
-    pooled: { label: pooledLabel, estimate: result.estimate, ci_lower: result.ci_lower, ci_upper: result.ci_upper, pi_lower: result.pi_lower, pi_upper: result.pi_upper },
-    subgroups: sg
-      ? subgroups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper }))
-      : paperList.filter((p) => shownPapers.has(p.id)).map((p) => {
-          const idx = byPaper.get(p.id)!;
-          return { key: String(p.id), label: p.label, ...paperLine(idx.map((i) => v[i]), idx.map((i) => y[i]), m.sigma2_within, request.level) };
-        }),
-    grouping: sg ? 'subgroup' : 'paper',
-  });
-  const funnel = funnelFigure({ metric, metricLabel: mLabel, studies: rows.map((r) => ({ label: r.label, effect: r.effect, variance: r.variance })), pooled: result.estimate, trimFill: null });
-  const bubble =
-    mod && metaReg
-      ? bubbleFigure({
-          metric,
-          metricLabel: mLabel,
-          moderatorLabel: MODERATOR_LABELS[mod],
-          points: rows.flatMap((r) => (r.moderator != null ? [{ label: r.label, x: r.moderator, effect: r.effect, weight: r.weight }] : [])),
-          fit: { intercept: metaReg.intercept, slope: metaReg.slope, slope_p: metaReg.slope_p },
-        })
-      : null;
-
-  const summary = multilevelSummary(fit, request.dependence.robust);
-  if (summary.robustUnavailable) unavailable.push({ analysis: 'robust variance', reason: `${summary.robustUnavailable}; the model-based test is shown` });
   return {
-    request,
-    metric,
-    counts: { effects: k, studies: new Set(effects.map((e) => e.studyId)).size, references: paperList.length },
-    dependence: request.dependence,
     rows,
     result,
+    counts: { effects: k, studies: new Set(effects.map((e) => e.studyId)).size, references: paperList.length },
     subgroups,
-    leaveOneOut: leaveOut,
-    cumulative: cumulativeRows,
-    begg: null,
-    trimFill: null,
-    metaRegression: metaReg,
-    cautions: multilevelCautions(fit, paperList.length, result),
-    figures: { forest, funnel, bubble },
-    multilevel: summary,
-    papersWithSeveralEffects: [...byPaper.values()].filter((x) => x.length > 1).length,
-    unavailable,
+    regress,
+    refits,
+    forest,
+    funnelTrimFill: () => null,
+    finish,
   };
 }
 

@@ -7,8 +7,8 @@ import { begg, cumulative, leaveOneOut, metaRegression, normalTwoTailed, pool, s
 import { applyDependence, type StudyUnit } from './dependence.js';
 import { cautionsFor } from './cautions.js';
 import { valueLabel } from './labels.js';
-import { runMultilevelSynthesis } from './run-multilevel.js';
-import type { CorrelationSensitivityRow, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
+import { multilevelPart } from './run-multilevel.js';
+import type { CorrelationSensitivityRow, MetaRegressionResult, PlotFigure, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
 
 export class NoEffectsError extends Error {
   constructor() {
@@ -49,27 +49,122 @@ const summary = (label: string, r: PoolResult): ForestSummary => ({
   pi_upper: r.pi_upper,
 });
 
+/** What a dependence mode contributes to the one pipeline of runSynthesis: its rows and model, and its own analyses. */
+export interface ModelPart {
+  /** in row order, with subgroup and moderator set */
+  rows: PooledRow[];
+  result: PoolResult;
+  counts: SynthesisOutput['counts'];
+  /** the subgroup comparison (values as in rows[].subgroup); may throw, or name skipped groups in `unavailable` */
+  subgroups: (labelOf: (value: string) => string) => SubgroupComparison;
+  /** the one-moderator fit over the rows at these indices */
+  regress: (rowsWithX: number[]) => Omit<MetaRegressionResult, 'moderator' | 'missing'>;
+  /** leave-one-out, cumulative and the small-study tests, each null when not run (the reason in `unavailable`) */
+  refits: () => Pick<SynthesisOutput, 'leaveOneOut' | 'cumulative' | 'begg' | 'trimFill'>;
+  forest: (subgroups: SubgroupComparison | null) => PlotFigure;
+  funnelTrimFill: (trimFill: SynthesisOutput['trimFill']) => { estimate: number; filled: Array<{ effect: number; variance: number }> } | null;
+  /** the cautions and the mode's own fields (multilevel, correlationSensitivity, papersWithSeveralEffects) */
+  finish: (result: PoolResult) => Pick<SynthesisOutput, 'cautions' | 'multilevel' | 'correlationSensitivity' | 'papersWithSeveralEffects'>;
+}
+
+/** Where analyses that could not run are named: `attempt` runs one and records its refusal. */
+export interface AnalysisLog {
+  unavailable: SynthesisOutput['unavailable'];
+  attempt: <T>(analysis: string, f: () => T) => T | null;
+}
+
 /**
- * The whole synthesis as a pure function of the settled effects that matched the filters: one unit per
- * study by the dependence rule, the engine's pool over exactly those units, sensitivity and bias
- * analyses, subgroups, meta-regression, cautions and the figures.
+ * The whole synthesis as a pure function of the settled effects that matched the filters: the dependence
+ * mode's model (one unit per study by aggregation or one kept, or every effect under the three-level model),
+ * then the same subgroups, meta-regression, refits, cautions and figures for every mode.
  */
 export function runSynthesis(effects: readonly SettledEffect[], request: SynthesisRequest): SynthesisOutput {
   if (!effects.length) throw new NoEffectsError();
   const { metric, label: mLabel } = pooledMetric(effects, request);
-  const dependence = request.dependence;
-  if (dependence.mode === 'multilevel') return runMultilevelSynthesis(effects, { ...request, dependence }, metric, mLabel);
-  const opts = { method: request.method, hksj: request.hksj, level: request.level };
   const unavailable: SynthesisOutput['unavailable'] = [];
-  const attempt = <T>(analysis: string, f: () => T): T | null => {
-    try {
-      return f();
-    } catch (err) {
-      unavailable.push({ analysis, reason: (err as Error).message });
-      return null;
-    }
+  const log: AnalysisLog = {
+    unavailable,
+    attempt: (analysis, f) => {
+      try {
+        return f();
+      } catch (err) {
+        unavailable.push({ analysis, reason: (err as Error).message });
+        return null;
+      }
+    },
   };
+  const dependence = request.dependence;
+  const part = dependence.mode === 'multilevel' ? multilevelPart(effects, { ...request, dependence }, metric, mLabel, log) : studyPart(effects, { ...request, dependence }, metric, mLabel, log);
+  const { rows, result } = part;
 
+  // Subgroups: a separate heterogeneity within each, compared with Q between the subgroup estimates (Borenstein et al. 2009, ch. 19).
+  const sg = request.subgroup;
+  let subgroups: SubgroupComparison | null = null;
+  if (sg) {
+    const manipulationLabels = new Map(effects.map((e) => [e.manipulation, e.manipulationLabel ?? e.manipulation]));
+    const labelOf = (value: string) => (sg === 'manipulation' ? (manipulationLabels.get(value) ?? value) : valueLabel(sg, value));
+    subgroups = log.attempt('subgroups', () => part.subgroups(labelOf));
+  }
+
+  const refits = part.refits();
+
+  let metaReg: SynthesisOutput['metaRegression'] = null;
+  const mod = request.moderator;
+  if (mod) {
+    const withX = rows.flatMap((r, i) => (r.moderator != null ? [i] : []));
+    const fit = log.attempt('meta-regression', () => part.regress(withX));
+    if (fit) metaReg = { moderator: mod, ...fit, missing: rows.length - withX.length };
+  }
+
+  const funnel =
+    rows.length >= 2
+      ? funnelFigure({
+          metric,
+          metricLabel: mLabel,
+          studies: rows,
+          pooled: result.estimate,
+          trimFill: part.funnelTrimFill(refits.trimFill),
+        })
+      : null;
+  const bubble =
+    mod && metaReg
+      ? bubbleFigure({
+          metric,
+          metricLabel: mLabel,
+          moderatorLabel: MODERATOR_LABELS[mod],
+          points: rows.flatMap((r) => (r.moderator != null ? [{ label: r.label, x: r.moderator, effect: r.effect, weight: r.weight }] : [])),
+          fit: { intercept: metaReg.intercept, slope: metaReg.slope, slope_p: metaReg.slope_p },
+        })
+      : null;
+  const forest = part.forest(subgroups);
+  const finished = part.finish(result);
+
+  return {
+    request,
+    metric,
+    counts: part.counts,
+    dependence: request.dependence,
+    rows,
+    result,
+    subgroups,
+    ...refits,
+    metaRegression: metaReg,
+    figures: { forest, funnel, bubble },
+    ...finished,
+    unavailable,
+  };
+}
+
+/** Aggregation or one effect per study: one unit per study, pooled by the chosen estimator. */
+function studyPart(
+  effects: readonly SettledEffect[],
+  request: SynthesisRequest & { dependence: Exclude<Dependence, { mode: 'multilevel' }> },
+  metric: string,
+  mLabel: string,
+  { unavailable, attempt }: AnalysisLog,
+): ModelPart {
+  const dependence = request.dependence;
+  const opts = { method: request.method, hksj: request.hksj, level: request.level };
   const sg = request.subgroup;
   const units = applyDependence(effects, dependence)
     .map((u) => ({ u, group: sg ? subgroupValue(u, sg) : undefined }))
@@ -90,135 +185,91 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     return row;
   });
 
-  // Subgroups: a separate τ² within each, compared with Q between the subgroup estimates (Borenstein et al. 2009, ch. 19).
-  let subgroups: SubgroupComparison | null = null;
-  if (sg) {
-    const sub = attempt('subgroups', () => subgroupAnalysis({ effects: y, variances: v, groups: rows.map((r) => r.subgroup!), ...opts }));
-    const manipulationLabels = new Map(effects.map((e) => [e.manipulation, e.manipulationLabel ?? e.manipulation]));
-    const groupLabel = (value: string) => (sg === 'manipulation' ? (manipulationLabels.get(value) ?? value) : valueLabel(sg, value));
-    if (sub)
-      subgroups = {
-        variable: sg,
-        groups: sub.groups.map((r) => ({ value: r.group, label: groupLabel(r.group), k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
-        Q_between: sub.Q_between,
-        df: sub.Q_between_df,
-        p: sub.Q_between_p,
-      };
-  }
-
-  const sensitivityRows = (entries: SensitivityEntry[], order: number[]): SensitivityRow[] =>
-    entries.map((e, j) => {
-      const u = units[order[j]].u;
-      return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.estimate / e.se) : tTwoTailed(e.estimate / e.se, e.statistic_df), tau2: e.tau2, I2: e.I2 };
-    });
-  const refitsAllowed = (what: string) => {
-    if (k > SENSITIVITY_MAX_STUDIES) {
-      unavailable.push({ analysis: what, reason: `not tabulated for more than ${SENSITIVITY_MAX_STUDIES} studies (${k} here)` });
-      return false;
-    }
-    if ((request.method === 'REML' || request.method === 'PM') && k > ITERATIVE_REFIT_MAX) {
-      unavailable.push({ analysis: what, reason: `${request.method} refits every subset; not run for more than ${ITERATIVE_REFIT_MAX} studies (use DL or FE)` });
-      return false;
-    }
-    return true;
+  const subgroups = (labelOf: (value: string) => string): SubgroupComparison => {
+    const sub = subgroupAnalysis({ effects: y, variances: v, groups: rows.map((r) => r.subgroup!), ...opts });
+    return {
+      variable: sg!,
+      groups: sub.groups.map((r) => ({ value: r.group, label: labelOf(r.group), k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
+      Q_between: sub.Q_between,
+      df: sub.Q_between_df,
+      p: sub.Q_between_p,
+    };
   };
-  const identity = units.map((_, i) => i);
-  const leaveOut = k >= 2 && refitsAllowed('leave-one-out') ? attempt('leave-one-out', () => sensitivityRows(leaveOneOut({ effects: y, variances: v, ...opts }), identity)) : null;
-  let cumulativeRows: SensitivityRow[] | null = null;
-  if (refitsAllowed('cumulative')) {
-    // by year, then label; studies without a year last
-    const order = [...identity].sort((a, b) => (units[a].u.year ?? 9999) - (units[b].u.year ?? 9999) || cmp(units[a].u.label, units[b].u.label));
-    cumulativeRows = attempt('cumulative', () =>
-      sensitivityRows(cumulative({ effects: order.map((i) => y[i]), variances: order.map((i) => v[i]), ...opts }), order),
-    );
-  }
 
-  const tf = k >= 3 && k <= TRIMFILL_MAX_STUDIES ? attempt('trim-and-fill', () => trimFill({ effects: y, variances: v, ...opts })) : null;
-  if (k < 3) unavailable.push({ analysis: 'trim-and-fill', reason: 'needs at least 3 studies' });
-  if (k > TRIMFILL_MAX_STUDIES) unavailable.push({ analysis: 'trim-and-fill', reason: `re-ranks every study in each round; not run for more than ${TRIMFILL_MAX_STUDIES} studies (${k} here)` });
-  let beggResult: SynthesisOutput['begg'] = null;
-  if (k < 3) unavailable.push({ analysis: "Begg's test", reason: 'needs at least 3 studies' });
-  else if (k > BEGG_MAX_STUDIES) unavailable.push({ analysis: "Begg's test", reason: `compares every pair of studies; not run for more than ${BEGG_MAX_STUDIES} studies (${k} here)` });
-  else {
-    const b = attempt("Begg's test", () => begg({ effects: y, variances: v }));
-    if (b) beggResult = { tau: b.tau, z: b.z, p: b.p };
-  }
+  const regress = (withX: number[]) => {
+    const fit = metaRegression({ effects: withX.map((i) => y[i]), variances: withX.map((i) => v[i]), moderator: withX.map((i) => rows[i].moderator as number), method: request.method, level: request.level });
+    const slope = fit.coefficients[1];
+    return { k: fit.k, intercept: fit.coefficients[0].estimate, slope: slope.estimate, slope_se: slope.se, slope_ci_lower: slope.ci_lower, slope_ci_upper: slope.ci_upper, slope_p: slope.p, tau2: fit.tau2, R2: fit.R2 };
+  };
 
-  let metaReg: SynthesisOutput['metaRegression'] = null;
-  const mod = request.moderator;
-  if (mod) {
-    const withX = rows.flatMap((r, i) => (r.moderator != null ? [i] : []));
-    const fit = attempt('meta-regression', () =>
-      metaRegression({ effects: withX.map((i) => y[i]), variances: withX.map((i) => v[i]), moderator: withX.map((i) => rows[i].moderator as number), method: request.method, level: request.level }),
-    );
-    if (fit) {
-      const slope = fit.coefficients[1];
-      metaReg = {
-        moderator: mod,
-        k: fit.k,
-        intercept: fit.coefficients[0].estimate,
-        slope: slope.estimate,
-        slope_se: slope.se,
-        slope_ci_lower: slope.ci_lower,
-        slope_ci_upper: slope.ci_upper,
-        slope_p: slope.p,
-        tau2: fit.tau2,
-        R2: fit.R2,
-        missing: k - withX.length,
-      };
+  const refits = (): ReturnType<ModelPart['refits']> => {
+    const sensitivityRows = (entries: SensitivityEntry[], order: number[]): SensitivityRow[] =>
+      entries.map((e, j) => {
+        const u = units[order[j]].u;
+        return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.estimate / e.se) : tTwoTailed(e.estimate / e.se, e.statistic_df), tau2: e.tau2, I2: e.I2 };
+      });
+    const refitsAllowed = (what: string) => {
+      if (k > SENSITIVITY_MAX_STUDIES) {
+        unavailable.push({ analysis: what, reason: `not tabulated for more than ${SENSITIVITY_MAX_STUDIES} studies (${k} here)` });
+        return false;
+      }
+      if ((request.method === 'REML' || request.method === 'PM') && k > ITERATIVE_REFIT_MAX) {
+        unavailable.push({ analysis: what, reason: `${request.method} refits every subset; not run for more than ${ITERATIVE_REFIT_MAX} studies (use DL or FE)` });
+        return false;
+      }
+      return true;
+    };
+    const identity = units.map((_, i) => i);
+    const leaveOut = k >= 2 && refitsAllowed('leave-one-out') ? attempt('leave-one-out', () => sensitivityRows(leaveOneOut({ effects: y, variances: v, ...opts }), identity)) : null;
+    let cumulativeRows: SensitivityRow[] | null = null;
+    if (refitsAllowed('cumulative')) {
+      // by year, then label; studies without a year last
+      const order = [...identity].sort((a, b) => (units[a].u.year ?? 9999) - (units[b].u.year ?? 9999) || cmp(units[a].u.label, units[b].u.label));
+      cumulativeRows = attempt('cumulative', () => sensitivityRows(cumulative({ effects: order.map((i) => y[i]), variances: order.map((i) => v[i]), ...opts }), order));
     }
-  }
 
-  const correlationSensitivity = dependence.mode === 'aggregate' && units.length < effects.length ? attempt('correlation sensitivity', () => overCorrelations(effects, dependence, opts)) : null;
-  const references = new Set(rows.map((r) => r.referenceId)).size;
+    const tf = k >= 3 && k <= TRIMFILL_MAX_STUDIES ? attempt('trim-and-fill', () => trimFill({ effects: y, variances: v, ...opts })) : null;
+    if (k < 3) unavailable.push({ analysis: 'trim-and-fill', reason: 'needs at least 3 studies' });
+    if (k > TRIMFILL_MAX_STUDIES) unavailable.push({ analysis: 'trim-and-fill', reason: `re-ranks every study in each round; not run for more than ${TRIMFILL_MAX_STUDIES} studies (${k} here)` });
+    let beggResult: SynthesisOutput['begg'] = null;
+    if (k < 3) unavailable.push({ analysis: "Begg's test", reason: 'needs at least 3 studies' });
+    else if (k > BEGG_MAX_STUDIES) unavailable.push({ analysis: "Begg's test", reason: `compares every pair of studies; not run for more than ${BEGG_MAX_STUDIES} studies (${k} here)` });
+    else {
+      const b = attempt("Begg's test", () => begg({ effects: y, variances: v }));
+      if (b) beggResult = { tau: b.tau, z: b.z, p: b.p };
+    }
+    return {
+      leaveOneOut: leaveOut,
+      cumulative: cumulativeRows,
+      begg: beggResult,
+      trimFill: tf ? { side: tf.side, k0: tf.k0, estimate: tf.estimate, ci_lower: tf.ci_lower, ci_upper: tf.ci_upper, imputed: tf.filled } : null,
+    };
+  };
+
   const pooledLabel = request.method === 'FE' ? 'Fixed-effect estimate' : `Random-effects estimate (${request.method}${request.hksj ? ', HKSJ' : ''})`;
-  const forest = forestFigure({
-    metric,
-    metricLabel: mLabel,
-    level: request.level,
-    studies: rows.map((r) => ({ label: r.label, year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: r.subgroup })),
-    pooled: summary(pooledLabel, result),
-    subgroups: subgroups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper })),
-  });
-  const funnel =
-    k >= 2
-      ? funnelFigure({
-          metric,
-          metricLabel: mLabel,
-          studies: rows.map((r) => ({ label: r.label, effect: r.effect, variance: r.variance })),
-          pooled: result.estimate,
-          trimFill: tf ? { estimate: tf.estimate, filled: tf.filled } : null,
-        })
-      : null;
-  const bubble =
-    mod && metaReg
-      ? bubbleFigure({
-          metric,
-          metricLabel: mLabel,
-          moderatorLabel: MODERATOR_LABELS[mod],
-          points: rows.flatMap((r) => (r.moderator != null ? [{ label: r.label, x: r.moderator, effect: r.effect, weight: r.weight }] : [])),
-          fit: { intercept: metaReg.intercept, slope: metaReg.slope, slope_p: metaReg.slope_p },
-        })
-      : null;
-
   return {
-    request,
-    metric,
-    counts: { effects: effects.length, studies: k, references },
-    dependence: request.dependence,
     rows,
     result,
+    counts: { effects: effects.length, studies: k, references: new Set(rows.map((r) => r.referenceId)).size },
     subgroups,
-    leaveOneOut: leaveOut,
-    cumulative: cumulativeRows,
-    begg: beggResult,
-    trimFill: tf ? { side: tf.side, k0: tf.k0, estimate: tf.estimate, ci_lower: tf.ci_lower, ci_upper: tf.ci_upper, imputed: tf.filled } : null,
-    metaRegression: metaReg,
-    cautions: cautionsFor(result, k),
-    figures: { forest, funnel, bubble },
-    correlationSensitivity,
-    papersWithSeveralEffects: papersWithSeveralEffects(effects),
-    unavailable,
+    regress,
+    refits,
+    forest: (groups) =>
+      forestFigure({
+        metric,
+        metricLabel: mLabel,
+        level: request.level,
+        studies: rows.map((r) => ({ label: r.label, year: r.year, n: r.n, effect: r.effect, variance: r.variance, weight: r.weight, group: r.subgroup })),
+        pooled: summary(pooledLabel, result),
+        subgroups: groups?.groups.map((g) => ({ key: g.value, label: g.label, estimate: g.estimate, ci_lower: g.ci_lower, ci_upper: g.ci_upper })),
+      }),
+    funnelTrimFill: (tf) => (tf ? { estimate: tf.estimate, filled: tf.imputed } : null),
+    finish: (res) => ({
+      cautions: cautionsFor(res, k),
+      correlationSensitivity:
+        dependence.mode === 'aggregate' && units.length < effects.length ? attempt('correlation sensitivity', () => overCorrelations(effects, dependence, opts)) : null,
+      papersWithSeveralEffects: papersWithSeveralEffects(effects),
+    }),
   };
 }
 
