@@ -18,7 +18,7 @@ import { followChangesSchema, followListSchema, followSchema, snapshotDiffSchema
 import { manipulationPageSchema, settledEffectDetailSchema, settledEffectPageSchema } from '../../shared/schemas/registry.js';
 import {
   atlasLandingSchema, atlasManipulationSchema, atlasOutcomeSchema, atlasPooledSchema, atlasReferencePageSchema, createdSnapshotSchema, snapshotCitationSchema, snapshotPageSchema,
-  snapshotViewSchema, synthesisAnswerSchema, synthesisFacetsSchema, synthesisFlowAnswerSchema, synthesisFlowSchema, synthesisRowsPageSchema,
+  snapshotViewSchema, synthesisAnswerSchema, synthesisFacetsSchema, synthesisFlowAnswerSchema, synthesisFlowSchema, synthesisTablePageSchema,
 } from '../../shared/schemas/synthesis.js';
 import { adminUserPageSchema, apiTokenListSchema, createdTokenSchema, meSchema } from '../../shared/schemas/users.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
