@@ -46,6 +46,8 @@ interface JoinedRow {
   outcome: string;
   parameter: string | null;
   unit: string | null;
+  from_bound: boolean;
+  approximate: boolean;
   metric: Metric;
   effect: number;
   variance: number;
@@ -92,6 +94,8 @@ function toRow(r: JoinedRow): SettledEffectRow {
     formula: r.formula,
     assumedR: r.assumed_r == null ? null : Number(r.assumed_r),
     n: r.n_total ?? null,
+    fromBound: r.from_bound,
+    approximate: r.approximate,
     design: r.design ?? null,
     population: r.population ?? null,
     diagnosis: r.diagnosis ?? null,
@@ -107,7 +111,7 @@ function toRow(r: JoinedRow): SettledEffectRow {
 }
 
 const COLUMNS = [
-  'f.id', 'f.outcome', 'f.parameter', 'f.unit', 'f.metric', 'f.effect', 'f.variance', 'f.formula', 'f.assumed_r', 'f.n_total', 'f.label', 'f.extraction_id',
+  'f.id', 'f.outcome', 'f.parameter', 'f.unit', 'f.from_bound', 'f.approximate', 'f.metric', 'f.effect', 'f.variance', 'f.formula', 'f.assumed_r', 'f.n_total', 'f.label', 'f.extraction_id',
   'x.reference_id', 'x.record_version', 's.study_id', 's.label as study_label', 's.position as study_position', 's.design', 's.population',
   's.diagnosis', 's.modality', 's.task', 's.standard_ms', 'r.first_author', 'r.year', 'r.doi', 'r.title', 'm.term', 'm.label as manipulation_label',
 ];
@@ -137,9 +141,9 @@ export async function getSettledEffect(db: Db, id: number): Promise<SettledEffec
 
 // ---- the synthesis read: the same rows as querySettledEffects, only the columns a synthesis pools or groups by
 
-const SYNTHESIS_COLS = ['id', 'outcome', 'parameter', 'unit', 'metric', 'effect', 'variance', 'n_total', 'manipulation_id', 'reference_id', 'study_id', 'study_label', 'study_position', 'design', 'population', 'modality', 'task', 'standard_ms', 'first_author', 'year'];
+const SYNTHESIS_COLS = ['id', 'outcome', 'parameter', 'unit', 'from_bound', 'approximate', 'metric', 'effect', 'variance', 'n_total', 'manipulation_id', 'reference_id', 'study_id', 'study_label', 'study_position', 'design', 'population', 'modality', 'task', 'standard_ms', 'first_author', 'year'];
 
-type SynthesisTuple = [number, string, string | null, string | null, string, number, number, number | null, number, number, number, string, number, string | null, string | null, string | null, string | null, number | null, string | null, number | null];
+type SynthesisTuple = [number, string, string | null, string | null, boolean, boolean, string, number, number, number | null, number, number, number, string, number, string | null, string | null, string | null, string | null, number | null, string | null, number | null];
 
 /**
  * The settled effects a synthesis needs: the same rows, in the same order (by id), as querySettledEffects, from
@@ -159,7 +163,7 @@ export async function querySynthesisRows(db: Db, f: SettledEffectFilters): Promi
       applyStudyFilters(q, f);
     })
     .select(
-      'f.id', 'f.outcome', 'f.parameter', 'f.unit', 'f.metric', 'f.effect', 'f.variance', 'f.n_total', 'f.manipulation_id', 'x.reference_id', 's.study_id',
+      'f.id', 'f.outcome', 'f.parameter', 'f.unit', 'f.from_bound', 'f.approximate', 'f.metric', 'f.effect', 'f.variance', 'f.n_total', 'f.manipulation_id', 'x.reference_id', 's.study_id',
       's.label as study_label', 's.position as study_position', 's.design', 's.population', 's.modality', 's.task', 's.standard_ms', 'r.first_author', 'r.year',
     )
     .orderBy('f.id', 'asc');
@@ -179,7 +183,7 @@ export async function querySynthesisRows(db: Db, f: SettledEffectFilters): Promi
   }
   const out: SettledEffect[] = new Array(rows.length);
   for (let i = 0; i < rows.length; i++) {
-    const [id, outcome, parameter, unit, metric, effect, variance, nTotal, manipulationId, referenceId, studyId, studyLabel, studyPosition, design, population, modality, task, standardMs, firstAuthor, year] = rows[i] as SynthesisTuple;
+    const [id, outcome, parameter, unit, fromBound, approximate, metric, effect, variance, nTotal, manipulationId, referenceId, studyId, studyLabel, studyPosition, design, population, modality, task, standardMs, firstAuthor, year] = rows[i] as SynthesisTuple;
     const m = byId.get(manipulationId);
     out[i] = {
       id,
@@ -191,6 +195,8 @@ export async function querySynthesisRows(db: Db, f: SettledEffectFilters): Promi
       outcome,
       parameter: parameter ?? null,
       unit: unit ?? null,
+      fromBound,
+      approximate,
       manipulation: m?.term ?? '',
       manipulationLabel: m?.label ?? '',
       metric,

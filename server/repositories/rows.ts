@@ -217,6 +217,8 @@ export interface EffectRow {
   formula: string | null;
   assumed_r: number | null;
   n_total: number | null;
+  from_bound: boolean;
+  approximate: boolean;
   page: string | null;
   locator: string | null;
   quote: string | null;

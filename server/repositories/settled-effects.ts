@@ -7,6 +7,9 @@ export interface SettledEffectFilters {
   outcome?: string;
   parameter?: string;
   unit?: string;
+  /** leave out effects computed from a reported bound (p < …) / from a median (approximate) */
+  excludeBound?: boolean;
+  excludeApproximate?: boolean;
   /** one metric, or several (a synthesis pooling an SMD family) */
   metric?: string | string[];
   population?: string;
@@ -40,6 +43,8 @@ export function applyStudyFilters(q: Knex.QueryBuilder, f: SettledEffectFilters)
   if (f.outcome) q.where('f.outcome', f.outcome);
   if (f.parameter) q.where('f.parameter', f.parameter);
   if (f.unit) q.where('f.unit', f.unit);
+  if (f.excludeBound) q.where('f.from_bound', false);
+  if (f.excludeApproximate) q.where('f.approximate', false);
   if (Array.isArray(f.metric)) q.whereIn('f.metric', f.metric);
   else if (f.metric) q.where('f.metric', f.metric);
   if (f.population) q.where('s.population', f.population);

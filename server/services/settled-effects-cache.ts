@@ -63,6 +63,8 @@ export function filterSettledEffects(effects: readonly SettledEffect[], f: Settl
     if (f.outcome && e.outcome !== f.outcome) continue;
     if (f.parameter && e.parameter !== f.parameter) continue;
     if (f.unit && e.unit !== f.unit) continue;
+    if (f.excludeBound && e.fromBound) continue;
+    if (f.excludeApproximate && e.approximate) continue;
     if (metrics ? !metrics.has(e.metric) : f.metric && e.metric !== f.metric) continue;
     if (f.population && e.population !== f.population) continue;
     if (f.modality && e.modality !== f.modality) continue;

@@ -4,7 +4,6 @@ import { formulas, type FormulaInfo } from '../stats/formulas.js';
 import type { EffectSize } from '../stats/effect-checks.js';
 import type { Metric } from '../stats/metrics.js';
 import { percentChange } from '../stats/percent-change.js';
-import { rawMean } from '../stats/raw-mean.js';
 
 /** How the paper reported a result: the engine's measures plus a single raw mean and a percent change. */
 export const REPORT_FORMS = [
@@ -53,19 +52,26 @@ export const GZ_ADVICE = 'g_z is standardized by the SD of the differences and i
 export const REPORTED_KEYS = [
   'mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 't', 'F', 'p', 'direction',
   'mean_diff', 'sd_diff', 'n', 'r', 'ci_lower', 'ci_upper', 'level', 'df', 'mean', 'sd', 'percent', 'se',
+  // a bound (p < .001 kept as 0.001: the effect is flagged as computed from a bound)
+  'p_less_than',
+  // SEs instead of SDs; medians with quartiles and/or range (Wan et al. 2014: the effect is flagged approximate)
+  'se1', 'se2', 'median1', 'lower_quartile1', 'upper_quartile1', 'min1', 'max1', 'median2', 'lower_quartile2', 'upper_quartile2', 'min2', 'max2',
+  'median', 'lower_quartile', 'upper_quartile', 'min', 'max',
 ] as const;
 export type ReportedKey = (typeof REPORTED_KEYS)[number];
 export type Reported = Partial<Record<ReportedKey, number>>;
 
 /** The fields each form offers, in entry order (alternatives are chosen by which are filled). */
+const MEDIANS = ['median1', 'lower_quartile1', 'upper_quartile1', 'min1', 'max1', 'median2', 'lower_quartile2', 'upper_quartile2', 'min2', 'max2'] as const;
+
 export const REPORT_FIELDS: Record<ReportForm, readonly ReportedKey[]> = {
-  smd: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 't', 'F', 'p', 'direction'],
-  smd_paired: ['mean_diff', 'sd_diff', 'mean1', 'sd1', 'mean2', 'sd2', 't', 'n', 'r'],
-  log_ratio: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2'],
+  smd: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 't', 'F', 'p', 'p_less_than', 'direction', 'se1', 'se2', ...MEDIANS],
+  smd_paired: ['mean_diff', 'sd_diff', 'mean1', 'sd1', 'mean2', 'sd2', 't', 'n', 'r', 'p', 'p_less_than', 'direction'],
+  log_ratio: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 'se1', 'se2', ...MEDIANS],
   log_ratio_paired: ['mean1', 'sd1', 'mean2', 'sd2', 'n', 'r'],
   percent_change: ['percent', 'se', 'n'],
-  mean_diff: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 'mean_diff', 'sd_diff', 'n', 't', 'ci_lower', 'ci_upper', 'level', 'df'],
-  raw_mean: ['mean', 'sd', 'n'],
+  mean_diff: ['mean1', 'sd1', 'n1', 'mean2', 'sd2', 'n2', 'mean_diff', 'sd_diff', 'n', 't', 'ci_lower', 'ci_upper', 'level', 'df', 'se1', 'se2', ...MEDIANS],
+  raw_mean: ['mean', 'sd', 'n', 'se', 'median', 'lower_quartile', 'upper_quartile', 'min', 'max'],
   fisher_z: ['r', 'n'],
 };
 
@@ -88,6 +94,10 @@ export interface ComputedEffect {
   assumedR: number | null;
   /** total participants the effect rests on, when the reported values say */
   n: number | null;
+  /** computed from a reported bound (p < …): its size is a lower limit */
+  fromBound: boolean;
+  /** rests on a mean and SD estimated from a median with quartiles or range (Wan et al. 2014) */
+  approximate: boolean;
 }
 
 /**
@@ -104,9 +114,8 @@ export function computeReported(form: ReportForm, reported: Reported, assumedR?:
     values.r = r;
     usedAssumed = r;
   }
-  let out: Pick<EffectSize, 'effect' | 'variance' | 'formula' | 'metric'>;
-  if (form === 'raw_mean') out = rawMean(values.mean as number, values.sd as number, values.n as number);
-  else if (form === 'percent_change') out = percentChange(values.percent as number, values.se as number);
+  let out: Pick<EffectSize, 'effect' | 'variance' | 'formula' | 'metric' | 'from_bound' | 'approximate'>;
+  if (form === 'percent_change') out = percentChange(values.percent as number, values.se as number);
   else out = computeEffect({ measure: form, ...values });
   const n =
     values.n1 !== undefined && values.n2 !== undefined ? values.n1 + values.n2 : values.n !== undefined ? values.n : null;
@@ -118,6 +127,8 @@ export function computeReported(form: ReportForm, reported: Reported, assumedR?:
     formulaInfo: formulas[out.formula] ?? null,
     assumedR: usedAssumed,
     n,
+    fromBound: out.from_bound === true,
+    approximate: out.approximate === true,
   };
 }
 

@@ -194,6 +194,10 @@ export const computedSchema = z.object({
   formula: z.string(),
   assumedR: z.number().nullable(),
   n: z.number().int().nullable(),
+  /** computed from a reported bound (p < …); absent in snapshots frozen before it was recorded */
+  fromBound: z.boolean().optional(),
+  /** rests on a mean and SD estimated from a median (Wan et al. 2014); absent in older snapshots */
+  approximate: z.boolean().optional(),
 });
 
 /** A coded effect as stored and answered (the server's computation from what was reported, when it computes). */

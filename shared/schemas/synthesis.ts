@@ -19,6 +19,10 @@ export const synthesisFiltersSchema = z
     outcome: term.optional(),
     parameter: z.enum(PARAMETERS).optional(),
     unit: z.enum(UNITS).optional(),
+    /** leave out effects computed from a reported bound (p < …) */
+    excludeBound: z.boolean().optional(),
+    /** leave out effects whose mean and SD were estimated from a median (approximate) */
+    excludeApproximate: z.boolean().optional(),
     metric: z.enum(METRICS).optional(),
     population: term.optional(),
     modality: term.optional(),

@@ -68,6 +68,15 @@ export function smdFamilySentence(q: Pick<SynthesisRequest, 'smdFamily'>): strin
   );
 }
 
+/** Which flagged effects the request left out (computed from a bound; approximate, from medians). */
+export function flaggedSentence(q: Pick<SynthesisRequest, 'filters'>): string {
+  const out = [
+    q.filters.excludeBound ? 'computed from a reported bound (p below a value)' : '',
+    q.filters.excludeApproximate ? 'whose means and SDs were estimated from medians with quartiles or range (Wan, Wang, Liu & Tong, 2014)' : '',
+  ].filter(Boolean);
+  return out.length ? ` Effects ${out.join(' and effects ')} were left out.` : '';
+}
+
 /** A methods paragraph for a report, in plain prose with the citations the analysis rests on. */
 export function methodsParagraph(m: MethodsInput): string {
   const { request: q, counts } = m;
@@ -108,7 +117,7 @@ export function methodsParagraph(m: MethodsInput): string {
       }; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
     : ` ${counts.references} references (${counts.studies} studies, ${counts.effects} effects) met this synthesis's filters; screening counts were not available.`;
   const software = ` Computed with ${m.software.name} ${m.software.version}${m.registryVersion != null ? ` on registry version ${m.registryVersion}` : ''}.`;
-  const head = (multilevel ? multilevelModel(m, level) : model + hksj + hetero) + smdFamilySentence(q);
+  const head = (multilevel ? multilevelModel(m, level) : model + hksj + hetero) + smdFamilySentence(q) + flaggedSentence(q);
   return head + ' ' + dependenceSentence(q.dependence, counts.references) + bias + extras + prisma + software;
 }
 

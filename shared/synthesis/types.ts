@@ -14,6 +14,9 @@ export interface SettledEffect {
   /** what was measured and its unit (shared/vocabulary/parameters.ts); null only for effects coded before both were recorded */
   parameter?: string | null;
   unit?: string | null;
+  /** computed from a reported bound (p < …) / from a median with quartiles or range */
+  fromBound?: boolean;
+  approximate?: boolean;
   manipulation: string;
   /** the vocabulary label of the manipulation, when the repository gives it */
   manipulationLabel?: string;

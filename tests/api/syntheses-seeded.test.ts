@@ -37,7 +37,7 @@ describe('synthesis over the seeded demo registry', () => {
 
   it('the lean synthesis query answers the same rows as querySettledEffects, whatever the filters', async () => {
     const cases = [{}, { manipulation: 'luminance' }, { manipulation: ['numerosity', 'size'], metric: 'g_s' }, { outcome: 'simultaneity_window' }, { modality: 'auditory', yearFrom: 2010, yearTo: 2020 }, { manipulation: 'no_such_term' }];
-    const keys = ['id', 'referenceId', 'studyId', 'studyLabel', 'referenceLabel', 'year', 'outcome', 'parameter', 'unit', 'manipulation', 'manipulationLabel', 'metric', 'effect', 'variance', 'n', 'design', 'population', 'modality', 'task', 'standardMs'] as const;
+    const keys = ['id', 'referenceId', 'studyId', 'studyLabel', 'referenceLabel', 'year', 'outcome', 'parameter', 'unit', 'fromBound', 'approximate', 'manipulation', 'manipulationLabel', 'metric', 'effect', 'variance', 'n', 'design', 'population', 'modality', 'task', 'standardMs'] as const;
     for (const f of cases) {
       const full = await querySettledEffects(t.ctx.db, f);
       const lean = await querySynthesisRows(t.ctx.db, f);

@@ -10,6 +10,7 @@ export const DEFAULT_REQUEST: SynthesisRequest = synthesisRequestSchema.parse({}
 
 const TEXT_FILTERS = ['outcome', 'parameter', 'unit', 'metric', 'population', 'modality', 'task', 'design'] as const;
 const YEAR_FILTERS = ['yearFrom', 'yearTo'] as const;
+const FLAG_FILTERS = ['excludeBound', 'excludeApproximate'] as const;
 const MAX_MANIPULATIONS = 50;
 /** The address of a synthesis with every option at its default and no filter. */
 export const ALL_PARAM = 'all';
@@ -19,6 +20,7 @@ const KNOWN_PARAMS = new Set<string>([
   'manipulation',
   ...TEXT_FILTERS,
   ...YEAR_FILTERS,
+  ...FLAG_FILTERS,
   'method',
   'hksj',
   'level',
@@ -46,6 +48,8 @@ export interface SynthesisFormValues {
     design: string;
     yearFrom: string;
     yearTo: string;
+    excludeBound: boolean;
+    excludeApproximate: boolean;
   };
   method: string;
   hksj: boolean;
@@ -69,6 +73,7 @@ export function encodeRequest(request: SynthesisRequest): URLSearchParams {
   for (const m of ([] as string[]).concat(f.manipulation ?? [])) p.append('manipulation', m);
   for (const k of TEXT_FILTERS) if (f[k] !== undefined) p.set(k, f[k]);
   for (const k of YEAR_FILTERS) if (f[k] !== undefined) p.set(k, String(f[k]));
+  for (const k of FLAG_FILTERS) if (f[k]) p.set(k, '1');
   if (request.method !== DEFAULT_REQUEST.method) p.set('method', request.method);
   if (request.hksj) p.set('hksj', '1');
   if (request.level !== DEFAULT_REQUEST.level) p.set('level', String(request.level));
@@ -115,6 +120,8 @@ function valuesFromParams(p: URLSearchParams): SynthesisFormValues {
       design: get('design', ''),
       yearFrom: get('yearFrom', ''),
       yearTo: get('yearTo', ''),
+      excludeBound: p.get('excludeBound') === '1' || p.get('excludeBound') === 'true',
+      excludeApproximate: p.get('excludeApproximate') === '1' || p.get('excludeApproximate') === 'true',
     },
     method: get('method', d.method),
     hksj: p.get('hksj') === '1' || p.get('hksj') === 'true',
@@ -187,6 +194,8 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
       design: f.design ?? '',
       yearFrom: f.yearFrom === undefined ? '' : String(f.yearFrom),
       yearTo: f.yearTo === undefined ? '' : String(f.yearTo),
+      excludeBound: f.excludeBound === true,
+      excludeApproximate: f.excludeApproximate === true,
     },
     method: request.method,
     hksj: request.hksj,
@@ -227,6 +236,7 @@ function candidateFromRead(v: ReadValues): Record<string, unknown> {
   if (manipulation.length) filters.manipulation = manipulation.length === 1 ? manipulation[0] : manipulation;
   for (const k of TEXT_FILTERS) if (v.filters[k]) filters[k] = v.filters[k];
   for (const k of YEAR_FILTERS) if (v.filters[k] !== undefined) filters[k] = v.filters[k];
+  for (const k of FLAG_FILTERS) if (v.filters[k]) filters[k] = true;
   const { level } = v;
   const { r } = v.dependence;
   return {
@@ -261,6 +271,8 @@ const formValuesSchema = z.object({
     design: z.string(),
     yearFrom: numeric(yearText, filterShape.yearFrom),
     yearTo: numeric(yearText, filterShape.yearTo),
+    excludeBound: z.boolean(),
+    excludeApproximate: z.boolean(),
   }),
   method: z.string(),
   hksj: z.boolean(),

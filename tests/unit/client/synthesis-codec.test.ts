@@ -32,6 +32,7 @@ const SHAPES: Array<[string, SynthesisRequest]> = [
   ['one manipulation', request({ filters: { manipulation: 'luminance' } })],
   ['several manipulations', request({ filters: { manipulation: ['luminance', 'numerosity', 'looming'] } })],
   ['parameter and unit', request({ filters: { parameter: 'pse', unit: 'ms' } })],
+  ['without effects from a bound or approximate', request({ filters: { excludeBound: true, excludeApproximate: true } })],
   ...(['outcome', 'population', 'modality', 'task', 'design'] as const).map((k): [string, SynthesisRequest] => [`filter ${k}`, request({ filters: { [k]: `some_${k}` } })]),
   ...METRICS.map((metric): [string, SynthesisRequest] => [`metric ${metric}`, request({ filters: { metric } })]),
   ['from year', request({ filters: { yearFrom: 1998 } })],

@@ -27,6 +27,16 @@ export function EffectResult({ attempt, warnings, form }: { attempt: ComputeAtte
               </span>
             )}
           </p>
+          {attempt.result.fromBound && (
+            <p className="mt-1 text-xs text-caution-dark" data-testid="bound-flag">
+              ⚠ Computed from a bound (p below the value given): the effect is at least this far from 0. A reviewer may leave such effects out.
+            </p>
+          )}
+          {attempt.result.approximate && (
+            <p className="mt-1 text-xs text-caution-dark" data-testid="approximate-flag">
+              ⚠ Approximate: the mean and SD were estimated from the median with quartiles or range (Wan et al. 2014). A reviewer may leave such effects out.
+            </p>
+          )}
           {attempt.result.metric === 'g_z' && (
             <p className="mt-1 text-xs text-caution-dark" data-testid="gz-advice">
               ⚠ {GZ_ADVICE}

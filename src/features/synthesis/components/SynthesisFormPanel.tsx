@@ -113,6 +113,16 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
         <SynthesisField label="Design" error={err('filters.design')}>
           <FacetSelect control={control} name="filters.design" kind="design" facets={f?.designs ?? []} />
         </SynthesisField>
+        <div className="flex flex-col gap-0.5 pt-5 text-sm">
+          <label className="flex items-center gap-1.5">
+            <input type="checkbox" {...register('filters.excludeBound')} />
+            Leave out effects computed from a bound (p &lt; …)
+          </label>
+          <label className="flex items-center gap-1.5">
+            <input type="checkbox" {...register('filters.excludeApproximate')} />
+            Leave out approximate effects (from medians)
+          </label>
+        </div>
         <SynthesisField label="From year" error={err('filters.yearFrom')} hint={f?.years ? `earliest ${f.years.min}` : undefined}>
           <input inputMode="numeric" {...register('filters.yearFrom')} className={`${inputClass} w-24`} />
         </SynthesisField>
