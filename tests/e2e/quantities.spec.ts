@@ -63,4 +63,40 @@ export const specs: Spec[] = [
       assert.equal(await again.getByTestId('gz-advice').count(), 0);
     },
   },
+  {
+    name: 'an effect from a p bound is flagged on the sheet, and a synthesis can leave such effects out (the address keeps it)',
+    async run(page) {
+      await signInThroughPage(page, 'curator');
+      const headers = { Origin: new URL(process.env.APP_ORIGIN!).origin };
+      const list = await page.request.get(appUrl('/api/extractions/claimable?pageSize=1&sort=reference&order=desc'));
+      const [ref] = ((await list.json()) as { items: { id: number }[] }).items;
+      assert.ok(ref, 'the demo data offers another reference to claim');
+      const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: ref.id } });
+      assert.equal(claimed.status(), 201);
+      await page.goto(appUrl(`/extractions/${((await claimed.json()) as { id: number }).id}`));
+      await page.getByRole('button', { name: '+ Add a study' }).click();
+      const effect = page.getByRole('region', { name: 'Study 1' }).getByRole('group', { name: 'Study 1, effect 1' });
+      await effect.getByLabel('Outcome kind').selectOption('duration_distortion');
+      await effect.getByLabel('Manipulation').selectOption('luminance');
+      await effect.getByLabel('Reported as').selectOption('smd');
+      await effect.getByLabel('p below (a bound, e.g. 0.001)', { exact: true }).fill('0.001');
+      await effect.getByLabel('n 1', { exact: true }).fill('20');
+      await effect.getByLabel('n 2', { exact: true }).fill('20');
+      await effect.getByLabel('Direction (1: group 1 higher, −1: lower)', { exact: true }).fill('1');
+      await effect.getByTestId('bound-flag').getByText(/Computed from a bound/).waitFor();
+      await page.getByTestId('save-state').getByText(/Saved at/).waitFor({ timeout: 20_000 });
+
+      await page.goto(appUrl('/synthesis'));
+      await page.getByLabel('Manipulation').selectOption(['luminance']);
+      await page.getByLabel('Outcome kind').selectOption('duration_distortion');
+      await page.getByLabel('Standardized mean differences').selectOption('raw_score');
+      await page.getByLabel('Leave out effects computed from a bound (p < …)').check();
+      await page.getByRole('button', { name: 'Run synthesis' }).click();
+      await page.getByTestId('pooled-estimate').waitFor({ timeout: 40_000 });
+      assert.match(new URL(page.url()).search, /excludeBound=1/);
+      await page.reload();
+      await page.getByTestId('pooled-estimate').waitFor({ timeout: 40_000 });
+      assert.equal(await page.getByLabel('Leave out effects computed from a bound (p < …)').isChecked(), true);
+    },
+  },
 ];
