@@ -15,6 +15,8 @@ export const FLOW_FILTER_STEPS = [
   { key: 'task', fields: ['task'], label: 'Another task' },
   { key: 'design', fields: ['design'], label: 'Another design' },
   { key: 'years', fields: ['yearFrom', 'yearTo'], label: 'Outside the years' },
+  { key: 'bound', fields: ['excludeBound'], label: 'Only effects computed from a bound' },
+  { key: 'approximate', fields: ['excludeApproximate'], label: 'Only approximate effects (from medians)' },
 ] as const;
 
 export const NO_MANIPULATION_REASON = { reason: 'no_manipulation', label: 'No manipulation from the vocabulary coded' } as const;

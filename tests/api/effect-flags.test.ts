@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import * as migration from '../../migrations/20261205300200_add_effect_bound_approximate.js';
 import { computeEffect } from '../../shared/stats/compute-effect.js';
+import { filterAttribution } from '../../shared/synthesis/flow.js';
+import { querySynthesisRows } from '../../server/repositories/effects.js';
+import { filterSettledEffects } from '../../server/services/settled-effects-cache.js';
 import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 import { settleInventedReference } from './syntheses-fixtures.js';
@@ -49,6 +52,9 @@ describe('effects from a bound or approximate', () => {
     expect((await post({ excludeApproximate: true })).body.counts.effects).toBe(3);
     const both = await post({ excludeBound: true, excludeApproximate: true });
     expect(both.body.counts.effects).toBe(2);
+    // the synthesis flow counts each reference left out under its own step
+    const effects = await querySynthesisRows(t.ctx.db, { manipulation: 'numerosity' });
+    expect(filterAttribution(effects, { excludeBound: true, excludeApproximate: true }, filterSettledEffects)).toEqual({ bound: 1, approximate: 1 });
     const rows = await anonymous(t.app).get('/api/effects?manipulation=numerosity');
     expect(rows.body.items.map((r: any) => [r.fromBound, r.approximate])).toEqual([[false, false], [false, false], [true, false], [false, true]]);
 
