@@ -47,8 +47,11 @@ export const specs: Spec[] = [
       // Double coding: the same person twice is refused by the schema the server uses.
       await page.goto(appUrl('/assignments'));
       await page.getByLabel('also show coded references').check();
-      const row = page.getByRole('table').first().locator('tbody tr').first();
-      await row.waitFor();
+      const table = page.getByRole('table').first();
+      // wait for the list with coded references, then pin one row by its reference (the list re-sorts on refetch)
+      await table.getByText('settled').first().waitFor();
+      const reference = (await table.locator('tbody tr').first().getByRole('link').first().textContent())!.trim();
+      const row = table.locator('tbody tr').filter({ has: page.getByRole('link', { name: reference, exact: true }) });
       const first = row.getByRole('combobox', { name: /^First coder/ });
       const value = await first.locator('option').nth(1).getAttribute('value');
       await first.selectOption(value!);
