@@ -8,7 +8,7 @@ import {
   synthesisRequestSchema, type AtlasLanding, type AtlasManipulation, type AtlasOutcome, type AtlasPooled, type AtlasReferencePage, type PooledCell,
 } from '../../shared/schemas/synthesis.js';
 import { OUTCOMES, type OutcomeKind } from '../../shared/vocabulary/outcomes.js';
-import { quantityLabel } from '../../shared/vocabulary/parameters.js';
+import { quantityLabel, SIGN_CONVENTIONS } from '../../shared/vocabulary/parameters.js';
 import { runSynthesis, metricLabel } from '../../shared/synthesis/run.js';
 import { cautionsFor } from '../../shared/synthesis/cautions.js';
 
@@ -32,7 +32,7 @@ function groupBy<T>(xs: T[], key: (x: T) => string): Map<string, T[]> {
 
 const outcomeLabel = (o: string) => OUTCOMES[o as OutcomeKind]?.label ?? o;
 
-/** Every manipulation and outcome kind with counts of settled references, studies and effects. */
+/** Every manipulation (with its current pooled estimates) and outcome kind with counts of settled references, studies and effects. */
 export async function atlasLanding(db: Knex): Promise<AtlasLanding> {
   const [rows, vocab] = await Promise.all([querySynthesisRows(db, {}), liveVocabulary(db)]);
   const byManip = groupBy(rows, (r) => r.manipulation);
@@ -43,7 +43,10 @@ export async function atlasLanding(db: Knex): Promise<AtlasLanding> {
     totals: count(rows),
     manipulations: [...vocab, ...extra].map((m) => {
       const rs = byManip.get(m.term) ?? [];
-      return { term: m.term, label: m.label, description: m.description, ...count(rs), outcomes: [...new Set(rs.map((r) => r.outcome))].sort() };
+      return {
+        term: m.term, label: m.label, description: m.description, ...count(rs), outcomes: [...new Set(rs.map((r) => r.outcome))].sort(),
+        estimates: pooledCells(rs, (r) => ({ manipulation: m.term, outcome: r.outcome, metric: r.metric }), false),
+      };
     }),
     outcomes: Object.keys(OUTCOMES).map((kind) => {
       const rs = byOutcome.get(kind) ?? [];
@@ -76,6 +79,7 @@ function pooledCells(rows: SettledEffect[], filters: (first: SettledEffect) => R
         quantityLabel: rs[0].parameter && rs[0].unit ? quantityLabel(rs[0].parameter, rs[0].unit) : null,
         metric: rs[0].metric,
         metricLabel: metricLabel(rs[0].metric),
+        signConvention: SIGN_CONVENTIONS[rs[0].outcome as OutcomeKind] ?? '',
         filters: f,
         counts: out.counts,
         pooled: { estimate: r.estimate, ci_lower: r.ci_lower, ci_upper: r.ci_upper, pi_lower: r.pi_lower, pi_upper: r.pi_upper, tau2: r.tau2, I2: r.I2, Q_p: r.Q_p, p: r.p, level: r.level, method: r.method },

@@ -207,6 +207,8 @@ export const pooledCellSchema = z.object({
   quantityLabel: z.string().nullable(),
   metric: z.string(),
   metricLabel: z.string(),
+  /** which way round a positive effect is, in words (the outcome kind's convention) */
+  signConvention: z.string(),
   filters: z.record(z.string(), z.string()),
   counts: atlasCountsSchema,
   pooled: z.custom<Pick<PoolResult, 'estimate' | 'ci_lower' | 'ci_upper' | 'pi_lower' | 'pi_upper' | 'tau2' | 'I2' | 'Q_p' | 'p' | 'level' | 'method'>>(),
@@ -218,7 +220,10 @@ export type PooledCell = z.infer<typeof pooledCellSchema>;
 /** GET /api/atlas */
 export const atlasLandingSchema = z.object({
   totals: atlasCountsSchema,
-  manipulations: z.array(atlasCountsSchema.extend({ term: z.string(), label: z.string(), description: z.string(), outcomes: z.array(z.string()) })),
+  /** each manipulation with its current pooled estimates (no figures) */
+  manipulations: z.array(
+    atlasCountsSchema.extend({ term: z.string(), label: z.string(), description: z.string(), outcomes: z.array(z.string()), estimates: z.array(pooledCellSchema) }),
+  ),
   outcomes: z.array(atlasCountsSchema.extend({ kind: z.string(), label: z.string(), typicalReport: z.string(), metrics: z.array(z.string()) })),
 });
 export type AtlasLanding = z.infer<typeof atlasLandingSchema>;

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createTestApp, resetDb, type TestApp } from '../support/test-app.js';
+import { SIGN_CONVENTIONS } from '../../shared/vocabulary/parameters.js';
 import { settleInventedReference, settleInventedSet } from './syntheses-fixtures.js';
 
 describe('atlas', () => {
@@ -21,6 +22,14 @@ describe('atlas', () => {
     expect(res.body.manipulations.find((m: any) => m.term === 'pitch')).toMatchObject({ effects: 0 });
     expect(res.body.outcomes.find((o: any) => o.kind === 'duration_distortion')).toMatchObject({ effects: 14, references: 13 });
     expect(res.body.outcomes).toHaveLength(6);
+    // each manipulation carries its current estimates, the same numbers as its own page, with k and the sign convention
+    const page = (await request(t.app).get('/api/atlas/manipulations/luminance/pooled')).body;
+    expect(lum.estimates).toHaveLength(1);
+    expect(lum.estimates[0].pooled).toEqual(page.cells[0].pooled);
+    expect(lum.estimates[0].counts).toEqual({ effects: 13, studies: 12, references: 12 });
+    expect(lum.estimates[0].signConvention).toBe(SIGN_CONVENTIONS.duration_distortion);
+    expect(lum.estimates[0]).not.toHaveProperty('forest');
+    expect(res.body.manipulations.find((m: any) => m.term === 'pitch').estimates).toEqual([]);
   });
 
   it('a manipulation page pools each outcome and metric exactly as the synthesis does, with its forest plot', async () => {

@@ -1,6 +1,9 @@
 import assert from 'node:assert/strict';
 import type { Spec } from './run.js';
 import { appUrl, signInThroughPage, signOut } from './browser.js';
+import { SIGN_CONVENTIONS } from '../../shared/vocabulary/parameters.js';
+import { labelOf } from '../../shared/vocabulary/labels.js';
+import { NOT_CLINICAL } from '../../shared/synthesis/cautions.js';
 
 const forestSvg = 'figure[aria-label="Forest plot"] svg.main-svg';
 
@@ -45,6 +48,15 @@ export const specs: Spec[] = [
     name: 'signed out, the atlas shows a manipulation with its forest plot and opens it as a synthesis without a save button',
     async run(page) {
       await page.goto(appUrl('/atlas'));
+      // the overview: each manipulation's current estimate with k and the sign convention in words, one clinical caution
+      const row = page.getByRole('row').filter({ has: page.getByRole('link', { name: 'Numerosity', exact: true }) });
+      const estimate = row.getByTestId('atlas-estimate').first();
+      await estimate.waitFor();
+      assert.match((await estimate.getByTestId('atlas-k').textContent()) ?? '', /^k = \d+ stud(y|ies) \(\d+ effects?\)$/);
+      assert.equal(await estimate.getByTestId('atlas-sign').textContent(), `Sign: ${SIGN_CONVENTIONS.duration_distortion}`);
+      assert.ok(((await estimate.textContent()) ?? '').includes(labelOf('outcome', 'duration_distortion')));
+      assert.equal(await page.getByText(NOT_CLINICAL).count(), 1);
+      assert.equal(await page.getByRole('note').filter({ hasText: 'Not clinical guidance' }).count(), 1);
       await page.getByRole('link', { name: 'Numerosity' }).click();
       await page.getByRole('heading', { name: 'Numerosity', level: 1 }).waitFor();
       await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });

@@ -1,7 +1,10 @@
 import { Link } from 'react-router-dom';
-import { EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
+import { Caution, EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useAtlas } from '../../features/atlas/api/get-atlas';
-import { valueLabel } from '../../features/synthesis/labels';
+import { EstimateList } from '../../features/atlas/components/EstimateList';
+import { filtersHref } from '../../features/synthesis/codec';
+import { labelOf } from '../../../shared/vocabulary/labels';
+import { NOT_CLINICAL } from '../../../shared/synthesis/cautions';
 
 export function AtlasPage() {
   const { data, isLoading, error } = useAtlas();
@@ -12,6 +15,7 @@ export function AtlasPage() {
         What the registry knows, by manipulation and by outcome kind: each page gives the current pooled estimate from settled effects, its forest plot and the
         papers behind it.
       </p>
+      <Caution title="Not clinical guidance">{NOT_CLINICAL}</Caution>
       {isLoading && <Loading what="Loading the atlas" />}
       <ErrorNote error={error} />
       {data && (
@@ -30,6 +34,7 @@ export function AtlasPage() {
                 <th className="num">Studies</th>
                 <th className="num">Effects</th>
                 <th>Outcome kinds</th>
+                <th>Current estimates (k, sign convention)</th>
               </tr>
             </thead>
             <tbody>
@@ -40,7 +45,10 @@ export function AtlasPage() {
                   <td className="num">{m.references}</td>
                   <td className="num">{m.studies}</td>
                   <td className="num">{m.effects}</td>
-                  <td>{m.outcomes.length ? m.outcomes.map((o) => valueLabel('outcome', o)).join(', ') : <span className="text-ink-faint">none coded yet</span>}</td>
+                  <td>{m.outcomes.length ? m.outcomes.map((o) => labelOf('outcome', o)).join(', ') : <span className="text-ink-faint">none coded yet</span>}</td>
+                  <td>
+                    <EstimateList cells={m.estimates} hrefOf={(c) => filtersHref(c.filters)} />
+                  </td>
                 </tr>
               ))}
             </tbody>
@@ -65,7 +73,7 @@ export function AtlasPage() {
                   <td className="num">{o.references}</td>
                   <td className="num">{o.studies}</td>
                   <td className="num">{o.effects}</td>
-                  <td>{o.metrics.map((m) => valueLabel('metric', m)).join(', ') || '—'}</td>
+                  <td>{o.metrics.map((m) => labelOf('metric', m)).join(', ') || '—'}</td>
                 </tr>
               ))}
             </tbody>

@@ -22,6 +22,7 @@ export function PooledCellSummary({ cell, heading, openHref }: { cell: PooledCel
       <p className="text-sm tabular-nums">
         Prediction interval {interval(p.pi_lower, p.pi_upper, d)} · τ² {f(p.tau2, 4)} · I² {p.I2 == null ? '—' : `${f(p.I2, 1)}%`}
       </p>
+      <p className="text-sm text-ink-soft">Sign convention: {cell.signConvention}</p>
       {cell.cautions.map((c) => (
         <Caution key={c.code}>{c.text}</Caution>
       ))}
