@@ -68,9 +68,17 @@ export const specs: Spec[] = [
     async run(page) {
       await signInThroughPage(page, 'curator');
       const headers = { Origin: new URL(process.env.APP_ORIGIN!).origin };
-      const list = await page.request.get(appUrl('/api/extractions/claimable?pageSize=1&sort=reference&order=desc'));
-      const [ref] = ((await list.json()) as { items: { id: number }[] }).items;
-      assert.ok(ref, 'the demo data offers another reference to claim');
+      // a reference of its own, imported and included, so earlier specs' claims cannot use it up
+      const stamp = Date.now();
+      const imported = await page.request.post(appUrl('/api/imports'), {
+        headers,
+        data: { format: 'bibtex', text: `@article{bound${stamp}, title={Dimmer flashes and a p bound ${stamp}}, author={Boundary, Ilse}, year={2020}, doi={10.5555/bound.${stamp}}}` },
+      });
+      assert.equal(imported.status(), 201);
+      const ref = { id: ((await imported.json()) as { entries: { referenceId: number }[] }).entries[0].referenceId };
+      const { version } = ((await (await page.request.get(appUrl(`/api/references/${ref.id}`))).json()) as { reference: { version: number } }).reference;
+      const included = await page.request.post(appUrl(`/api/references/${ref.id}/screening`), { headers, data: { decision: 'included', version } });
+      assert.equal(included.status(), 201, await included.text());
       const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: ref.id } });
       assert.equal(claimed.status(), 201);
       await page.goto(appUrl(`/extractions/${((await claimed.json()) as { id: number }).id}`));

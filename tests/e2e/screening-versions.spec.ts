@@ -86,7 +86,7 @@ export const specs: Spec[] = [
       await page.goto(appUrl('/atlas/manipulations/numerosity'));
       await page.getByRole('heading', { name: 'References' }).waitFor();
       await page.getByRole('table').last().getByRole('row').nth(1).waitFor();
-      assert.equal(await page.getByRole('table').last().getByRole('row').filter({ hasText: target.title }).count(), 0, 'the excluded reference left the atlas');
+      assert.equal(await page.getByRole('table').last().getByRole('row').filter({ has: page.getByRole('cell', { name: target.title, exact: true }) }).count(), 0, 'the excluded reference left the atlas');
       const after = await apiJson<{ total: number }>(page, `/api/effects?referenceId=${target.referenceId}`);
       assert.equal(after.total, 0);
     },

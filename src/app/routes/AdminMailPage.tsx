@@ -105,7 +105,7 @@ export function AdminMailPage() {
           <p className="text-xs text-ink-soft">
             to {m.to.join(', ')} · from {m.from} · {when(m.receivedAt)} UTC
           </p>
-          <pre className="mt-1 whitespace-pre-wrap font-ui text-sm">{m.text}</pre>
+          <pre className="mt-1 whitespace-pre-wrap break-words font-ui text-sm [overflow-wrap:anywhere]">{m.text}</pre>
         </article>
       ))}
       {box.data && box.data.total > 0 && <Pager page={boxPage} pageSize={10} total={box.data.total} onPage={setBoxPage} />}

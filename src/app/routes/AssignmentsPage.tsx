@@ -85,11 +85,12 @@ function AssignRow({ c, onAssigned }: { c: Candidate; onAssigned: (note: string)
           className="flex flex-wrap items-center gap-1 text-sm"
           noValidate
           onSubmit={form.handleSubmit((body) =>
-            create.mutate(body, {
-              // the row leaves the list of unassigned references, so the outcome is said above the table
-              onSuccess: (created) => onAssigned(`${c.referenceLabel}: ${assignedNote(created)}`),
-              onError: (err) => showServerErrors(err, form.setError, ['coder1Id', 'coder2Id']),
-            }),
+            // the row leaves the list (and unmounts) once the list refetches, so the outcome is said above the table;
+            // mutateAsync settles even after the row is gone, unlike mutate's per-call callbacks
+            create.mutateAsync(body).then(
+              (created) => onAssigned(`${c.referenceLabel}: ${assignedNote(created)}`),
+              (err: unknown) => showServerErrors(err, form.setError, ['coder1Id', 'coder2Id']),
+            ),
           )}
         >
           {coderSelect('coder1Id', 'First coder', 'first coder')}
