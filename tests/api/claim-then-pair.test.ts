@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
+import type { Agent, TestApp } from '../support/test-app.js';
+import { codingTeam } from '../support/coding-team.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 
 // Claim, then pair: a curator's assignment adopts the claims coders already made, so no work is set aside.
@@ -29,11 +30,7 @@ describe('claim, then pair', () => {
   const assign = (referenceId: number, c1 = 'coder1', c2 = 'coder2') => curator.post('/api/assignments').send({ referenceId, coder1Id: ids.get(c1), coder2Id: ids.get(c2) });
 
   beforeAll(async () => {
-    t = await createTestApp();
-    ids = await resetDb(t.ctx.db);
-    curator = await signIn(t.app, 'curator');
-    coder1 = await signIn(t.app, 'coder1');
-    coder2 = await signIn(t.app, 'coder2');
+    ({ t, ids, curator, coder1, coder2 } = await codingTeam());
   });
   afterAll(() => t.close());
 

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createSettledRecord } from '../../server/services/settlement.js';
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
+import type { Agent, TestApp } from '../support/test-app.js';
+import { codingTeam } from '../support/coding-team.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 
 // Writes on a sheet or record the caller may not see answer exactly like a missing id (as reads do);
@@ -29,11 +30,7 @@ describe('writes on a hidden coding sheet or record draft answer the 404 of a mi
   }
 
   beforeAll(async () => {
-    t = await createTestApp();
-    ids = await resetDb(t.ctx.db);
-    curator = await signIn(t.app, 'curator');
-    coder1 = await signIn(t.app, 'coder1');
-    coder2 = await signIn(t.app, 'coder2');
+    ({ t, ids, curator, coder1, coder2 } = await codingTeam());
   });
   afterAll(() => t.close());
 

@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { pairDetailSchema, reconciledPairSchema } from '../../shared/schemas/reconciliation.js';
 import type { SheetInput } from '../../shared/schemas/extraction.js';
 import { currentRegistryVersion } from '../../server/repositories/registry-version.js';
-import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
+import { anonymous, signIn, type Agent, type TestApp } from '../support/test-app.js';
+import { codingTeam } from '../support/coding-team.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 
 type Disc = { id: number; field: string; path: string; label: string; impliedA: { effect: number | null; label: string }[]; impliedB: { effect: number | null }[] };
@@ -31,11 +32,7 @@ describe('reconciling a disputed pair field by field in one transaction', () => 
   const byField = (f: string) => discs.find((d) => d.field === f)!;
 
   beforeAll(async () => {
-    t = await createTestApp();
-    ids = await resetDb(t.ctx.db);
-    curator = await signIn(t.app, 'curator');
-    coder1 = await signIn(t.app, 'coder1');
-    coder2 = await signIn(t.app, 'coder2');
+    ({ t, ids, curator, coder1, coder2 } = await codingTeam());
     const ref = await insertReference(t.ctx.db, { firstAuthor: 'Quillfeather', year: 2018 });
     const made = await curator.post('/api/assignments').send({ referenceId: ref, coder1Id: ids.get('coder1'), coder2Id: ids.get('coder2') });
     expect(made.status).toBe(201);

@@ -1,4 +1,5 @@
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from './test-app.js';
+import type { Agent, TestApp } from './test-app.js';
+import { codingTeam } from './coding-team.js';
 import { clearSearch } from './references.js';
 
 export interface ScreeningTeam {
@@ -10,10 +11,9 @@ export interface ScreeningTeam {
 
 /** A fresh app with an empty registry and index, two contributors and a curator signed in. */
 export async function screeningTeam(): Promise<ScreeningTeam> {
-  const t = await createTestApp();
-  await resetDb(t.ctx.db);
+  const { t, coder1, coder2, curator } = await codingTeam();
   await clearSearch(t);
-  return { t, coder: await signIn(t.app, 'coder1'), coder2: await signIn(t.app, 'coder2'), curator: await signIn(t.app, 'curator') };
+  return { t, coder: coder1, coder2, curator };
 }
 
 /** Imports BibTeX as `agent` and answers the reference ids of its entries, in order. */
