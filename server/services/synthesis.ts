@@ -9,7 +9,8 @@ import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest, SynthesisRowsQ
 import { MixedMetricsError, MixedQuantitiesError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
 import { SmdFamilyFilterError, metricFilter } from '../../shared/synthesis/metric-choice.js';
 import { MultilevelModelError } from '../../shared/synthesis/run-multilevel.js';
-import type { PooledRow, SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
+import { rowOrder } from '../../shared/synthesis/answer-rows.js';
+import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
 import { PARAMETER_LABELS, UNIT_LABELS, type Parameter, type Unit } from '../../shared/vocabulary/parameters.js';
 
 /** The settled-effect filters a request means (an SMD family widens the metric filter to its members). */
@@ -52,15 +53,6 @@ export async function registrySynthesis(db: Knex, request: SynthesisRequest): Pr
   return { registryVersion, ...output };
 }
 
-const rowKey: Record<Exclude<SynthesisRowsQuery['sort'], 'position'>, (r: PooledRow) => number | string | null> = {
-  label: (r) => r.label,
-  year: (r) => r.year,
-  effect: (r) => r.effect,
-  variance: (r) => r.variance,
-  weight: (r) => r.weight,
-  n: (r) => r.n,
-};
-
 /**
  * A synthesis answer with its per-study rows (and `result.weights`, which stand beside them) as asked: all of
  * them, one page sorted on the server (missing values last, ties in the engine's order), or none. The pooled
@@ -70,21 +62,7 @@ export function synthesisRowsView(answer: SynthesisAnswer, q: SynthesisRowsQuery
   if (q.rows === 'all') return answer;
   const total = answer.rows.length;
   if (q.rows === 'none') return { ...answer, rows: [], result: { ...answer.result, weights: [] }, rowsPage: { rows: 'none', total } };
-  let order = answer.rows.map((_, i) => i);
-  if (q.sort !== 'position') {
-    const key = rowKey[q.sort];
-    const dir = q.order === 'desc' ? -1 : 1;
-    const keys = answer.rows.map(key);
-    order.sort((a, b) => {
-      const x = keys[a];
-      const y = keys[b];
-      if (x === y) return a - b;
-      if (x == null) return 1;
-      if (y == null) return -1;
-      return (x < y ? -1 : 1) * dir;
-    });
-  } else if (q.order === 'desc') order.reverse();
-  order = order.slice((q.page - 1) * q.pageSize, q.page * q.pageSize);
+  const order = rowOrder(answer.rows, q.sort, q.order).slice((q.page - 1) * q.pageSize, q.page * q.pageSize);
   return {
     ...answer,
     rows: order.map((i) => answer.rows[i]),

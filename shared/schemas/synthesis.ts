@@ -128,6 +128,7 @@ export const atlasSlugSchema = z.object({ slug: z.string().trim().min(1).max(120
  * default), one page of them sorted on the server (`page`, with page, pageSize, sort, order), or left out (`none`).
  */
 export const SYNTHESIS_ROW_SORTS = ['position', 'label', 'year', 'effect', 'variance', 'weight', 'n'] as const;
+export type SynthesisRowSort = (typeof SYNTHESIS_ROW_SORTS)[number];
 export const synthesisRowsQuerySchema = pagingSchema(SYNTHESIS_ROW_SORTS, 'position', { pageSize: 50 })
   .extend({ rows: z.enum(['all', 'page', 'none'], { message: 'rows must be all, page or none' }).default('all') })
   .superRefine((q, ctx) => {

@@ -1,4 +1,4 @@
-import { SYNTHESIS_INLINE_ROWS, SYNTHESIS_ROWS_PAGE, type SynthesisTableSort } from '../schemas/synthesis.js';
+import { SYNTHESIS_INLINE_ROWS, SYNTHESIS_ROWS_PAGE, type SynthesisRowSort, type SynthesisTableSort } from '../schemas/synthesis.js';
 import { pageOf, type Page } from '../schemas/common.js';
 import type { PooledRow, SynthesisOutput } from './types.js';
 
@@ -14,32 +14,40 @@ export function answerRows<T extends SynthesisOutput>(output: T): T {
 }
 
 const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
-const SORT_VALUE: Record<Exclude<SynthesisTableSort, 'position'>, (r: PooledRow) => string | number | null | undefined> = {
+/** Every field rows are sorted on (`se` and `variance` order alike: the table names it SE, the query variance). */
+export type RowSort = SynthesisTableSort | SynthesisRowSort;
+const SORT_VALUE: Record<Exclude<RowSort, 'position'>, (r: PooledRow) => string | number | null | undefined> = {
   label: (r) => r.label,
   year: (r) => r.year,
   n: (r) => r.n,
   effect: (r) => r.effect,
   se: (r) => r.variance,
+  variance: (r) => r.variance,
   weight: (r) => r.weight,
   effects: (r) => r.effectIds.length,
   subgroup: (r) => r.subgroup,
   moderator: (r) => r.moderator,
 };
 
-/** One page of the rows, sorted on the field (strings in code-point order, missing values last either way, ties in row order). */
+/** The row indices sorted on the field (strings in code-point order, missing values last either way, ties in row order). */
+export function rowOrder(rows: readonly PooledRow[], sort: RowSort, order: 'asc' | 'desc'): number[] {
+  const dir = order === 'asc' ? 1 : -1;
+  const value = sort === 'position' ? null : SORT_VALUE[sort];
+  const keys = rows.map((r, i) => (value ? value(r) : i));
+  return rows
+    .map((_, i) => i)
+    .sort((a, b) => {
+      const x = keys[a];
+      const y = keys[b];
+      if (x == null || y == null) return x == null && y == null ? a - b : x == null ? 1 : -1;
+      const c = typeof x === 'number' && typeof y === 'number' ? x - y : cmp(String(x), String(y));
+      return c * dir || a - b;
+    });
+}
+
+/** One page of the rows, sorted as rowOrder sorts them. */
 export function rowsPage(rows: readonly PooledRow[], q: { page: number; pageSize: number; sort: SynthesisTableSort; order: 'asc' | 'desc' }): Page<PooledRow> {
   const from = (q.page - 1) * q.pageSize;
   if (q.sort === 'position' && q.order === 'asc') return pageOf(rows.slice(from, from + q.pageSize), rows.length, q);
-  const dir = q.order === 'asc' ? 1 : -1;
-  const value = q.sort === 'position' ? null : SORT_VALUE[q.sort];
-  const keys = rows.map((r, i) => (value ? value(r) : i));
-  const order = rows.map((_, i) => i);
-  order.sort((a, b) => {
-    const x = keys[a];
-    const y = keys[b];
-    if (x == null || y == null) return x == null && y == null ? a - b : x == null ? 1 : -1;
-    const c = typeof x === 'number' && typeof y === 'number' ? x - y : cmp(String(x), String(y));
-    return c * dir || a - b;
-  });
-  return pageOf(order.slice(from, from + q.pageSize).map((i) => rows[i]), rows.length, q);
+  return pageOf(rowOrder(rows, q.sort, q.order).slice(from, from + q.pageSize).map((i) => rows[i]), rows.length, q);
 }
