@@ -16,6 +16,8 @@ const whyHere = (it: QueueItem) => (it.why.batch ? `new in batch ${it.why.batch}
 const typingIn = (el: EventTarget | null) => el instanceof HTMLElement && (el.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(el.tagName));
 const pressable = (el: EventTarget | null) => el instanceof HTMLElement && ['BUTTON', 'A'].includes(el.tagName);
 
+const records = (ids: number[]) => `record${ids.length === 1 ? '' : 's'} ${ids.map((id) => `#${id}`).join(', ')}`;
+
 type Last = { text: string; items: { refId: number; version: number }[] };
 
 /**
@@ -63,7 +65,9 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
       {
         onSuccess: (answer) => {
           const what = choice.decision === 'included' ? '✓ Included' : `✕ Excluded (${EXCLUSION_REASON_LABELS[choice.reason]})`;
-          setLast({ text: `${what}: ${targets.length === 1 ? targets[0].title : `${targets.length} records`}`, items: answer.results.map((r) => ({ refId: r.refId, version: r.version })) });
+          const withdrawn = answer.results.flatMap((r) => r.withdrawnRecords);
+          const also = withdrawn.length ? `; settled ${records(withdrawn)} withdrawn` : '';
+          setLast({ text: `${what}: ${targets.length === 1 ? targets[0].title : `${targets.length} records`}${also}`, items: answer.results.map((r) => ({ refId: r.refId, version: r.version })) });
           setTold(null);
           setMarked(new Set());
           setCursorId(next?.id ?? null);
@@ -80,7 +84,9 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
       {
         onSuccess: (answer) => {
           const n = answer.results.length;
-          setTold(`↶ Taken back: ${n === 1 ? `#${answer.results[0].refId} is` : `${n} records are`} waiting again`);
+          const restored = answer.results.flatMap((r) => r.restoredRecords);
+          const also = restored.length ? `; ${records(restored)} settled again` : '';
+          setTold(`↶ Taken back: ${n === 1 ? `#${answer.results[0].refId} is` : `${n} records are`} waiting again${also}`);
           setLast(null);
           setCursorId(answer.results[0]?.refId ?? null);
           listRef.current?.focus();
