@@ -1,4 +1,5 @@
-import { NavLink, Outlet, useNavigation } from 'react-router-dom';
+import { useEffect, useState } from 'react';
+import { NavLink, Outlet, useLocation, useNavigation } from 'react-router-dom';
 import { ROLE_LABELS, hasRole } from '../../shared/roles';
 import { useMe } from '../features/auth/api/get-me';
 import { useSignOut } from '../features/auth/api/sign-out';
@@ -10,6 +11,10 @@ export function AppShell() {
   const signOut = useSignOut();
   // A screen's loader is fetching its data: the page shown stays until it arrives.
   const navigating = useNavigation().state !== 'idle';
+  // Below the md breakpoint the links fold into a menu that a button opens; a new page closes it.
+  const [menuOpen, setMenuOpen] = useState(false);
+  const { pathname } = useLocation();
+  useEffect(() => setMenuOpen(false), [pathname]);
   const links = NAV_ITEMS.filter((n) => (n.role ? !!me && [n.role].flat().some((r) => hasRole(me.roles, r)) : n.signedIn ? !!me : true));
   return (
     <div className="min-h-screen">
@@ -21,14 +26,27 @@ export function AppShell() {
           <NavLink to="/" className="font-reading text-xl font-bold text-ink no-underline">
             Chronometa
           </NavLink>
-          <nav aria-label="Main" className="flex flex-wrap gap-4 text-sm">
+          <button
+            type="button"
+            className="ml-auto rounded border border-paper-edge px-2 py-1 text-sm md:hidden"
+            aria-expanded={menuOpen}
+            aria-controls="main-menu"
+            onClick={() => setMenuOpen((o) => !o)}
+          >
+            {menuOpen ? '✕ Close menu' : '☰ Menu'}
+          </button>
+          <nav
+            id="main-menu"
+            aria-label="Main"
+            className={`${menuOpen ? 'flex' : 'hidden'} w-full flex-col gap-2 py-1 text-sm md:flex md:w-auto md:flex-row md:flex-wrap md:gap-4 md:py-0`}
+          >
             {links.map((l) => (
               <NavLink key={l.to} to={l.to} className={({ isActive }) => (isActive ? 'font-semibold text-ink' : '')}>
                 {l.label}
               </NavLink>
             ))}
           </nav>
-          <div className="ml-auto flex items-center gap-3 text-sm">
+          <div className="flex flex-wrap items-center gap-3 text-sm md:ml-auto">
             {me ? (
               <>
                 <span>

@@ -72,7 +72,7 @@ export function SnapshotPage() {
     <article>
       <p className="text-xs uppercase tracking-wide text-ink-faint">Snapshot · frozen, never changes</p>
       <h1>{s.title}</h1>
-      <dl className="grid max-w-4xl grid-cols-[12rem_1fr] gap-x-3 gap-y-1 text-sm">
+      <dl className="grid max-w-4xl grid-cols-[minmax(0,7rem)_minmax(0,1fr)] sm:grid-cols-[12rem_minmax(0,1fr)] gap-x-3 gap-y-1 text-sm">
         <dt className="text-ink-soft">Stable address</dt>
         <dd>
           <a href={s.url}>{s.url}</a>

@@ -76,7 +76,7 @@ export function DecisionForm({
       )}
       <label>
         Note {reason === 'other' && decision === 'excluded' ? '(required)' : '(optional)'}
-        <input className="ml-2 w-80 rounded border border-paper-edge bg-white px-2 py-1" {...form.register('note')} aria-invalid={!!errors.note} aria-describedby={`note-${refId}-error`} />
+        <input className="ml-2 w-80 max-w-full rounded border border-paper-edge bg-white px-2 py-1" {...form.register('note')} aria-invalid={!!errors.note} aria-describedby={`note-${refId}-error`} />
         <FieldError id={`note-${refId}-error`} message={errors.note?.message} className="ml-2 text-refusal" />
       </label>
       {errors.root?.server && <ErrorNote error={errors.root.server.message} />}

@@ -48,7 +48,7 @@ export function SearchPanel() {
   };
   const years = Object.entries(data?.facets.year ?? {}).sort(([a], [b]) => Number(b) - Number(a));
   return (
-    <div className="grid gap-4 md:grid-cols-[16rem_1fr]">
+    <div className="grid gap-4 md:grid-cols-[16rem_minmax(0,1fr)]">
       <aside aria-label="Filters" className="text-sm">
         <form role="search" aria-label="Search references" noValidate onSubmit={form.handleSubmit(() => apply(form.getValues()))}>
           <Field label="Words in title, authors, journal or DOI" error={errors.q?.message} className="mb-2 block" labelClassName="block">

@@ -46,7 +46,7 @@ export function CiteSnapshot({ citation: c }: { citation: SnapshotCitation }) {
   return (
     <section aria-labelledby="cite-heading" className="mt-4 max-w-4xl">
       <h2 id="cite-heading">Cite this snapshot</h2>
-      <dl className="grid grid-cols-[12rem_1fr] gap-x-3 gap-y-1 text-sm">
+      <dl className="grid grid-cols-[minmax(0,7rem)_minmax(0,1fr)] sm:grid-cols-[12rem_minmax(0,1fr)] gap-x-3 gap-y-1 text-sm">
         <dt className="text-ink-soft">Identifier</dt>
         <dd className="font-mono">{c.identifier}</dd>
         <dt className="text-ink-soft">Address</dt>

@@ -26,8 +26,8 @@ export function SaveSnapshotForm({ request }: { request: SynthesisRequest }) {
       noValidate
       onSubmit={form.handleSubmit((v) => save.mutate({ ...request, ...v }, { onError: (err) => showServerErrors(err, form.setError, ['title']) }))}
     >
-      <Field label="Snapshot title (optional)" error={titleError} className="flex flex-col text-sm" labelClassName="font-semibold">
-        <input {...form.register('title')} maxLength={200} className="w-96 rounded border border-paper-edge bg-white/70 px-2 py-1" placeholder="Named from the filters when left empty" />
+      <Field label="Snapshot title (optional)" error={titleError} className="flex min-w-0 max-w-full flex-col text-sm" labelClassName="font-semibold">
+        <input {...form.register('title')} maxLength={200} className="w-96 max-w-full rounded border border-paper-edge bg-white/70 px-2 py-1" placeholder="Named from the filters when left empty" />
       </Field>
       <Button type="submit" variant="primary" disabled={save.isPending}>
         {save.isPending ? 'Saving…' : 'Save snapshot'}
