@@ -6,7 +6,7 @@ import { querySettledEffects } from '../repositories/effects.js';
 import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import type { SynthesisAnswer, SynthesisFacets, SynthesisRequest, SynthesisRowsQuery, SYNTHESIS_EXPORT_FILES } from '../../shared/schemas/synthesis.js';
-import { MixedMetricsError, MixedQuantitiesError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
+import { MixedMetricsError, MixedOutcomesError, MixedQuantitiesError, NoEffectsError, runSynthesis } from '../../shared/synthesis/run.js';
 import { SmdFamilyFilterError, metricFilter } from '../../shared/synthesis/metric-choice.js';
 import { MultilevelModelError } from '../../shared/synthesis/run-multilevel.js';
 import { rowOrder } from '../../shared/synthesis/answer-rows.js';
@@ -28,6 +28,7 @@ export function synthesize(effects: readonly SettledEffect[], request: Synthesis
   try {
     return runSynthesis(effects, request);
   } catch (err) {
+    if (err instanceof MixedOutcomesError) throw new UnprocessableError(err.message, { outcomes: err.outcomes, choices: err.choices });
     if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics, choices: err.choices });
     if (err instanceof MixedQuantitiesError) throw new UnprocessableError(err.message, { quantities: err.quantities, choices: err.choices });
     if (err instanceof NoEffectsError) throw new UnprocessableError(err.message, { effects: 0 });

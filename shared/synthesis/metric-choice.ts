@@ -1,5 +1,5 @@
 import { RAW_SCORE_SMDS, SMD_FAMILY_METRICS, isRawScoreSmd, LEGACY_SMD_KEY, type Metric, type SmdFamily } from '../stats/metrics.js';
-import { METRIC_LABELS, SMD_FAMILY_LABELS } from '../vocabulary/outcomes.js';
+import { METRIC_LABELS, OUTCOMES, SMD_FAMILY_LABELS, type OutcomeKind } from '../vocabulary/outcomes.js';
 import { quantityLabel, type Parameter, type Unit } from '../vocabulary/parameters.js';
 import type { SynthesisRequest } from '../schemas/synthesis.js';
 import type { SettledEffect } from './types.js';
@@ -72,6 +72,58 @@ export class MixedQuantitiesError extends Error {
 
 const NOT_RECORDED = 'parameter and unit not recorded';
 
+const outcomeLabel = (o: string) => OUTCOMES[o as OutcomeKind]?.label ?? o;
+
+/** Raised when the matching effects are of several outcome kinds: a synthesis pools one at a time. */
+export class MixedOutcomesError extends Error {
+  constructor(
+    readonly outcomes: Array<{ outcome: string; label: string; count: number }>,
+    readonly choices: PoolingChoice[],
+  ) {
+    super(
+      `These effects are of ${outcomes.length} outcome kinds (${outcomes.map((o) => `${o.label}: ${o.count}`).join(', ')}); a synthesis pools one outcome kind, parameter, unit and metric at a time.` +
+        ` Add an outcome filter, e.g. "filters": { "outcome": "${outcomes[0].outcome}" }, or take one of the choices.`,
+    );
+  }
+}
+
+/**
+ * Refuses (MixedOutcomesError) effects of several outcome kinds, with one choice per outcome kind × parameter × unit
+ * × metric among them (an SMD family the request pools counts as one metric), so each choice pools as it stands.
+ */
+export function assertOneOutcome(effects: readonly SettledEffect[], request: SynthesisRequest): void {
+  const byOutcome = new Map<string, number>();
+  for (const e of effects) byOutcome.set(e.outcome, (byOutcome.get(e.outcome) ?? 0) + 1);
+  if (byOutcome.size <= 1) return;
+  const outcomes = [...byOutcome]
+    .map(([outcome, count]) => ({ outcome, label: outcomeLabel(outcome), count }))
+    .sort((a, b) => b.count - a.count || (a.outcome < b.outcome ? -1 : 1));
+  const family = request.smdFamily;
+  const inFamily = (m: string) => !!family && SMD_FAMILY_METRICS[family].includes(m as Metric);
+  const combos = new Map<string, { outcome: string; parameter: string | null; unit: string | null; metric: string | null; count: number }>();
+  for (const e of effects) {
+    const metric = inFamily(e.metric) ? null : e.metric;
+    const key = [e.outcome, e.parameter ?? '', e.unit ?? '', metric ?? ''].join('\u0000');
+    const c = combos.get(key);
+    if (c) c.count++;
+    else combos.set(key, { outcome: e.outcome, parameter: e.parameter ?? null, unit: e.unit ?? null, metric, count: 1 });
+  }
+  const choices: PoolingChoice[] = [...combos.values()]
+    .filter((c) => c.parameter && c.unit)
+    .sort((a, b) => b.count - a.count || (a.outcome < b.outcome ? -1 : a.outcome > b.outcome ? 1 : 0))
+    .map((c) => {
+      const { smdFamily: _drop, ...rest } = request;
+      const filters = { ...request.filters, outcome: c.outcome as OutcomeKind, parameter: c.parameter as Parameter, unit: c.unit as Unit };
+      const what = [outcomeLabel(c.outcome), quantityLabel(c.parameter!, c.unit!), metricLabel(c.metric ?? FAMILY_METRIC[family!])].join(' · ');
+      return {
+        label: `Only ${what} (${plural(c.count, 'effect')})`,
+        effects: c.count,
+        request: c.metric ? { ...rest, filters: { ...filters, metric: c.metric as Metric } } : { ...request, filters },
+      };
+    });
+  throw new MixedOutcomesError(outcomes, choices);
+}
+
 /** Refuses (MixedQuantitiesError, one choice per parameter and unit) effects that are not one parameter in one unit. */
 export function assertOneQuantity(effects: readonly SettledEffect[], request: SynthesisRequest): void {
   const byQuantity = new Map<string, { parameter: string | null; unit: string | null; count: number }>();
@@ -96,11 +148,12 @@ export function assertOneQuantity(effects: readonly SettledEffect[], request: Sy
 }
 
 /**
- * The one metric the effects are pooled in and its label; refuses (MixedMetricsError with one-click choices) when
- * they are several metrics, unless they are all of the SMD family the request pools, and then (MixedQuantitiesError)
+ * The one metric the effects are pooled in and its label; refuses (MixedOutcomesError) effects of several outcome
+ * kinds, then (MixedMetricsError with one-click choices) when they are several metrics, unless they are all of the SMD family the request pools, and then (MixedQuantitiesError)
  * when they are not one parameter in one unit.
  */
 export function pooledMetric(effects: readonly SettledEffect[], request: SynthesisRequest): { metric: string; label: string } {
+  assertOneOutcome(effects, request);
   const byMetric = new Map<string, number>();
   for (const e of effects) byMetric.set(e.metric, (byMetric.get(e.metric) ?? 0) + 1);
   const family = request.smdFamily;

@@ -27,7 +27,7 @@ const TRIMFILL_MAX_STUDIES = 3000;
 /** Begg's test is O(k²) in pairs. */
 const BEGG_MAX_STUDIES = 3000;
 
-export { metricLabel, MixedMetricsError, MixedQuantitiesError } from './metric-choice.js';
+export { metricLabel, MixedMetricsError, MixedOutcomesError, MixedQuantitiesError } from './metric-choice.js';
 
 function subgroupValue(unit: StudyUnit, variable: SubgroupVariable): string {
   const values = new Set(unit.effects.map((e) => e[variable] ?? 'not reported'));

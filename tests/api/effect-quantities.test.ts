@@ -163,4 +163,43 @@ describe('effect parameters and units', () => {
     expect(after.map((r) => [r.effect, r.version])).toEqual(before.map((r) => [r.effect, r.version]));
     await expect(t.ctx.db('effects').where({ id: after[0].id }).update({ parameter: 'pse', unit: null })).rejects.toThrow(/effects_unit_with_parameter/);
   });
+
+  it('a synthesis pools one outcome kind at a time: 422 naming the kinds, one choice per outcome × parameter × unit × metric, each of which pools', async () => {
+    // the same parameter, unit and metric under two outcome kinds (a PSS in ms as a mean difference)
+    const pss = { mean1: 40, mean2: 10, sd: 30, n: 18, form: 'log_ratio' as const, parameter: 'pss', unit: 'ms' };
+    for (let i = 0; i < 3; i++) await settleInventedReference(t.ctx.db, 'expectation', 2011 + i, [{ ...pss, form: 'smd', mean1: 40 + i * 5 }], 'temporal_order');
+    for (let i = 0; i < 2; i++) await settleInventedReference(t.ctx.db, 'expectation', 2014 + i, [{ ...pss, form: 'smd', mean1: 30 + i * 5 }], 'recalibration_shift');
+    await settleInventedReference(t.ctx.db, 'expectation', 2019, [{ ...pss, mean1: 60, parameter: 'jnd', unit: 'ratio' }], 'temporal_order');
+    const post = (body: object) => anonymous(t.app).post('/api/syntheses').send(body);
+    const res = await post({ filters: { manipulation: 'expectation', metric: 'g_s' } });
+    expect(res.status).toBe(422);
+    expect(res.body.error.message).toBe(
+      'These effects are of 2 outcome kinds (Temporal order: 3, Recalibration shift: 2); a synthesis pools one outcome kind, parameter, unit and metric at a time. Add an outcome filter, e.g. "filters": { "outcome": "temporal_order" }, or take one of the choices.',
+    );
+    expect(res.body.error.details.outcomes).toEqual([
+      { outcome: 'temporal_order', label: 'Temporal order', count: 3 },
+      { outcome: 'recalibration_shift', label: 'Recalibration shift', count: 2 },
+    ]);
+    const choices = res.body.error.details.choices as Array<{ label: string; effects: number; request: any }>;
+    expect(choices.map((c) => [c.label, c.request.filters])).toEqual([
+      ["Only Temporal order · PSS (ms) · Hedges' g_s (independent groups) (3 effects)", { manipulation: 'expectation', metric: 'g_s', outcome: 'temporal_order', parameter: 'pss', unit: 'ms' }],
+      ["Only Recalibration shift · PSS (ms) · Hedges' g_s (independent groups) (2 effects)", { manipulation: 'expectation', metric: 'g_s', outcome: 'recalibration_shift', parameter: 'pss', unit: 'ms' }],
+    ]);
+    for (const c of choices) {
+      const pooled = await post(c.request);
+      expect(pooled.status).toBe(200);
+      expect(pooled.body.counts.effects).toBe(c.effects);
+    }
+    // with every metric: each outcome kind's quantities and metrics are their own choices
+    const all = await post({ filters: { manipulation: 'expectation' } });
+    expect(all.status).toBe(422);
+    expect(all.body.error.details.outcomes.map((o: { count: number }) => o.count)).toEqual([4, 2]);
+    expect(all.body.error.details.choices.map((c: { label: string }) => c.label)).toEqual([
+      "Only Temporal order · PSS (ms) · Hedges' g_s (independent groups) (3 effects)",
+      "Only Recalibration shift · PSS (ms) · Hedges' g_s (independent groups) (2 effects)",
+      'Only Temporal order · JND (ratio) · log ratio of means (1 effect)',
+    ]);
+    // one outcome kind alone is not refused for its kind
+    expect((await post({ filters: { manipulation: 'expectation', outcome: 'recalibration_shift' } })).status).toBe(200);
+  });
 });

@@ -47,11 +47,17 @@ describe('synthesis over the seeded demo registry', () => {
     expect((await querySynthesisRows(t.ctx.db, {})).length).toBeGreaterThanOrEqual(120);
   });
 
-  it('refuses to pool a manipulation coded in two metrics without a metric filter', async () => {
+  it('refuses to pool several outcome kinds, and one outcome kind coded in two metrics without a metric filter', async () => {
     const facets = (await anonymous(t.app).get('/api/syntheses/facets')).body;
-    expect(facets.metrics.length).toBeGreaterThan(1);
-    const res = await anonymous(t.app).post('/api/syntheses').send({ filters: {} });
+    expect(facets.outcomes.length).toBeGreaterThan(1);
+    const all = await anonymous(t.app).post('/api/syntheses').send({ filters: {} });
+    expect(all.status).toBe(422);
+    for (const o of facets.outcomes) expect(all.body.error.details.outcomes).toContainEqual(expect.objectContaining({ outcome: o.value, count: o.count }));
+    const metrics = new Map<string, number>();
+    for (const e of await querySettledEffects(t.ctx.db, { outcome: 'duration_distortion' })) metrics.set(e.metric, (metrics.get(e.metric) ?? 0) + 1);
+    expect(metrics.size).toBeGreaterThan(1);
+    const res = await anonymous(t.app).post('/api/syntheses').send({ filters: { outcome: 'duration_distortion' } });
     expect(res.status).toBe(422);
-    for (const m of facets.metrics) expect(res.body.error.message).toContain(`${m.value}: ${m.count}`);
+    for (const [m, count] of metrics) expect(res.body.error.message).toContain(`${m}: ${count}`);
   });
 });
