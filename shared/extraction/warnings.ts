@@ -29,7 +29,7 @@ export function effectWarnings(e: EffectSheet, study: StudySheet | undefined, co
   }
   if (r.percent !== undefined && Math.abs(r.percent) > 100) w.push({ field: 'reported.percent', message: 'a change of more than 100% of the physical duration is implausible' });
   if (study?.n1 !== undefined && r.n1 !== undefined && study.design === 'between' && r.n1 > study.n1) w.push({ field: 'reported.n1', message: 'more participants than the study reports' });
-  if (study?.design === 'within' && (e.form === 'smd' || e.form === 'log_ratio')) w.push({ field: 'form', message: 'the study is within subject but this form treats the conditions as independent groups' });
+  if (study?.design === 'within' && (e.form === 'smd' || e.form === 'log_ratio' || e.form === 'counts_2x2' || e.form === 'counts_smd')) w.push({ field: 'form', message: 'the study is within subject but this form treats the conditions as independent groups' });
   if (study?.design === 'between' && (e.form === 'smd_paired' || e.form === 'log_ratio_paired')) w.push({ field: 'form', message: 'the study is between groups but this form is for within-subject contrasts' });
   if (computed && computed.metric.startsWith('g_') && Math.abs(computed.effect) > 3) w.push({ field: 'effect', message: "|g| above 3 is far outside this literature (typically 0.1–0.8); check the SDs are not SEs" });
   if (computed?.metric === 'log_ratio' && Math.abs(computed.effect) > 0.7) w.push({ field: 'effect', message: 'a log ratio beyond ±0.7 (a factor of 2) is implausible for duration judgements' });

@@ -20,9 +20,9 @@ export interface OutcomeInfo {
 export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   duration_distortion: {
     label: 'Duration distortion',
-    typicalReport: 'perceived/physical duration, % change, PSE shift (ms) in bisection',
-    // a PSE shift in ms is a mean difference
-    metrics: ['log_ratio', 'mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z'],
+    typicalReport: 'perceived/physical duration, % change, PSE shift (ms) in bisection, counts of “longer” judgements',
+    // a PSE shift in ms is a mean difference; counts of “longer”/“shorter” judgements per group a log odds ratio
+    metrics: ['log_ratio', 'mean_diff', 'g_s', 'g_av', 'g_rm', 'g_z', 'log_odds_ratio'],
   },
   simultaneity_window: {
     label: 'Simultaneity window',
@@ -32,8 +32,8 @@ export const OUTCOMES: Record<OutcomeKind, OutcomeInfo> = {
   temporal_order: {
     label: 'Temporal order',
     typicalReport: 'PSS and JND (ms) from temporal order judgements',
-    // a ratio of JNDs is a log ratio of means
-    metrics: ['mean_diff', 'log_ratio', 'g_s', 'g_av', 'g_rm', 'g_z'],
+    // a ratio of JNDs is a log ratio of means; counts of “first”/“second” judgements a log odds ratio
+    metrics: ['mean_diff', 'log_ratio', 'g_s', 'g_av', 'g_rm', 'g_z', 'log_odds_ratio'],
   },
   recalibration_shift: {
     label: 'Recalibration shift',

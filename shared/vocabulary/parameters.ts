@@ -12,6 +12,7 @@ export const PARAMETERS = [
   'weber_fraction',
   'recalibration_shift',
   'lag',
+  'response_odds',
 ] as const;
 export type Parameter = (typeof PARAMETERS)[number];
 
@@ -29,6 +30,7 @@ export const PARAMETER_LABELS: Record<Parameter, string> = {
   weber_fraction: 'Weber fraction',
   recalibration_shift: 'Recalibration shift',
   lag: 'Lag',
+  response_odds: 'Odds of a response',
 };
 
 export const UNIT_LABELS: Record<Unit, string> = { ms: 'ms', deg: 'deg', percent: '%', ratio: 'ratio', none: 'no unit' };
@@ -45,13 +47,14 @@ export const PARAMETER_UNITS: Record<Parameter, readonly Unit[]> = {
   weber_fraction: ['none', 'percent'],
   recalibration_shift: ['ms'],
   lag: ['ms', 'deg'],
+  response_odds: ['none'],
 };
 
 /** The parameters each outcome kind allows; the first is the usual one (an effect that names none takes it). */
 export const OUTCOME_PARAMETERS: Record<OutcomeKind, readonly Parameter[]> = {
-  duration_distortion: ['duration_ratio', 'pse', 'bisection_point', 'weber_fraction'],
+  duration_distortion: ['duration_ratio', 'pse', 'bisection_point', 'weber_fraction', 'response_odds'],
   simultaneity_window: ['window_width', 'window_centre'],
-  temporal_order: ['pss', 'jnd'],
+  temporal_order: ['pss', 'jnd', 'response_odds'],
   recalibration_shift: ['recalibration_shift', 'pss'],
   postdiction_window: ['window_width'],
   positional_lag: ['lag'],
@@ -70,9 +73,15 @@ export const SIGN_CONVENTIONS: Record<OutcomeKind, string> = {
 export const quantityLabel = (parameter: string, unit: string) =>
   `${PARAMETER_LABELS[parameter as Parameter] ?? parameter} (${UNIT_LABELS[unit as Unit] ?? unit})`;
 
-/** The parameter and unit an effect stands for: its own, or its outcome kind's usual ones (null without an outcome). */
-export function effectQuantity(e: { outcome?: OutcomeKind | null; parameter?: Parameter | null; unit?: Unit | null }): { parameter: Parameter; unit: Unit } | null {
-  const parameter = e.parameter ?? (e.outcome ? OUTCOME_PARAMETERS[e.outcome][0] : null);
+/** Report forms that measure one parameter whatever the outcome kind: 2×2 counts are the odds of a response. */
+const FORM_PARAMETERS: Partial<Record<string, Parameter>> = { counts_2x2: 'response_odds', counts_smd: 'response_odds' };
+
+/**
+ * The parameter and unit an effect stands for: its own, or the usual ones of its report form (2×2 counts) or
+ * outcome kind (null without an outcome).
+ */
+export function effectQuantity(e: { outcome?: OutcomeKind | null; parameter?: Parameter | null; unit?: Unit | null; form?: string | null }): { parameter: Parameter; unit: Unit } | null {
+  const parameter = e.parameter ?? (e.outcome ? ((e.form ? FORM_PARAMETERS[e.form] : undefined) ?? OUTCOME_PARAMETERS[e.outcome][0]) : null);
   if (!parameter) return null;
   return { parameter, unit: e.unit ?? PARAMETER_UNITS[parameter][0] };
 }
@@ -94,7 +103,7 @@ export interface QuantityProblem {
  * combinations nearest to it (keep the outcome and change the parameter, or keep the parameter and change the outcome).
  */
 export function quantityProblem(
-  e: { outcome?: OutcomeKind | null; parameter?: Parameter | null; unit?: Unit | null },
+  e: { outcome?: OutcomeKind | null; parameter?: Parameter | null; unit?: Unit | null; form?: string | null },
   outcomeLabel: (k: OutcomeKind) => string,
 ): QuantityProblem | null {
   const q = effectQuantity(e);

@@ -22,7 +22,7 @@ export const REPORTED_LABELS: Record<ReportedKey, string> = {
   df: 'df (for a t-based CI)',
   mean: 'Mean (ms)',
   sd: 'SD (ms)',
-  percent: 'Percent change',
+  percent: 'Percent change (e.g. 12 for +12%)',
   se: 'SE (of the mean or percent change)',
   p_less_than: 'p below (a bound, e.g. 0.001)',
   se1: 'SE 1 (instead of SD 1)',
@@ -42,4 +42,9 @@ export const REPORTED_LABELS: Record<ReportedKey, string> = {
   upper_quartile: 'Upper quartile (ms)',
   min: 'Minimum (ms)',
   max: 'Maximum (ms)',
+  ratio: 'Ratio (e.g. perceived/physical duration)',
+  events1: 'Group 1: count of one response (e.g. “longer”)',
+  nonevents1: 'Group 1: count of the other response (e.g. “shorter”)',
+  events2: 'Group 2: count of the one response',
+  nonevents2: 'Group 2: count of the other response',
 };

@@ -47,7 +47,7 @@ describe('effect parameters and units', () => {
   it('a parameter its outcome kind does not allow is refused with 422 and the allowed alternatives; nothing is saved', async () => {
     const res = await coder1.put(`/api/extractions/${sheetId}`).send({ version, sheet: sheetWith({ parameter: 'pss', unit: 'ms' }) });
     expect(res.status).toBe(422);
-    expect(res.body.error.message).toMatch(/Study 1, effect 1: Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, not PSS/);
+    expect(res.body.error.message).toMatch(/Study 1, effect 1: Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, Odds of a response, not PSS/);
     const [problem] = res.body.error.details.problems;
     expect(problem).toMatchObject({ effect: 'studies.0.effects.0', path: 'body.sheet.studies.0.effects.0.parameter', field: 'parameter' });
     expect(problem.choices).toEqual([
@@ -55,6 +55,7 @@ describe('effect parameters and units', () => {
       { label: 'PSE (ms)', set: { parameter: 'pse', unit: 'ms' } },
       { label: 'Bisection point (ms)', set: { parameter: 'bisection_point', unit: 'ms' } },
       { label: 'Weber fraction (no unit)', set: { parameter: 'weber_fraction', unit: 'none' } },
+      { label: 'Odds of a response (no unit)', set: { parameter: 'response_odds', unit: 'none' } },
       { label: 'Keep PSS (ms): outcome kind Temporal order', set: { outcome: 'temporal_order' } },
       { label: 'Keep PSS (ms): outcome kind Recalibration shift', set: { outcome: 'recalibration_shift' } },
     ]);
@@ -91,7 +92,7 @@ describe('effect parameters and units', () => {
     expect((await coder1.patch(`/api/effects/${row.id}`).send({ version: 1, reason: 'lag it is', effect })).status).toBe(403);
     const edit = await curator.patch(`/api/effects/${row.id}`).send({ version: 1, reason: 'lag it is', effect });
     expect(edit.status).toBe(422);
-    expect(edit.body.error.details.problems[0]).toMatchObject({ path: 'body.effect.parameter', message: `Effect ${row.id}: Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, not Lag` });
+    expect(edit.body.error.details.problems[0]).toMatchObject({ path: 'body.effect.parameter', message: `Effect ${row.id}: Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, Odds of a response, not Lag` });
     // an edit that names no parameter keeps the stored one
     await t.ctx.db('effects').where({ id: row.id }).update({ parameter: 'weber_fraction', unit: 'percent' });
     const kept = await curator.patch(`/api/effects/${row.id}`).send({ version: 1, reason: 'corrected mean', effect: luminanceSheet().studies![0].effects![0] });

@@ -42,7 +42,7 @@ export const specs: Spec[] = [
       await effect.getByLabel('Outcome kind').selectOption('duration_distortion');
       const choices = page.getByRole('group', { name: 'Choices for Study 1, effect 1' });
       await choices.waitFor({ timeout: 20_000 });
-      await choices.getByText(/Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, not PSS/).waitFor();
+      await choices.getByText(/Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, Odds of a response, not PSS/).waitFor();
       await choices.getByRole('button', { name: 'Keep PSS (ms): outcome kind Temporal order' }).waitFor();
       await effect.getByText(/not PSS/).waitFor();
       await choices.getByRole('button', { name: 'PSE (ms)' }).click();

@@ -59,7 +59,7 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
   const needsR = e?.form === 'smd_paired' || e?.form === 'log_ratio_paired';
   const metricMismatch = e?.outcome && attempt?.ok && !OUTCOMES[e.outcome].metrics.includes(attempt.result!.metric);
   // blank parameter or unit: the outcome kind's usual ones, said in the blank option
-  const usual = e?.outcome ? effectQuantity({ outcome: e.outcome, parameter: e.parameter }) : null;
+  const usual = e?.outcome ? effectQuantity({ outcome: e.outcome, parameter: e.parameter, form: e.form }) : null;
   const allowed: readonly string[] = e?.outcome ? OUTCOME_PARAMETERS[e.outcome] : [];
   return (
     <fieldset className="mt-3 rounded border border-paper-edge p-3" aria-label={`Study ${i + 1}, effect ${j + 1}`}>
