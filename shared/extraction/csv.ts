@@ -1,6 +1,8 @@
 import Papa from 'papaparse';
 import { REPORTED_KEYS, tryComputeReported, type Reported } from './compute.js';
 import { effectDraftSchema, studyDraftSchema, type EffectSheet, type StudySheet } from '../schemas/extraction.js';
+import { OUTCOMES } from '../vocabulary/outcomes.js';
+import { PARAMETERS, UNITS, quantityProblem } from '../vocabulary/parameters.js';
 
 export interface CsvRow {
   study: Omit<StudySheet, 'effects'> & { effects: EffectSheet[] };
@@ -8,8 +10,14 @@ export interface CsvRow {
 }
 
 const STUDY_COLUMNS = ['study', 'design', 'n1_study', 'n2_study', 'population', 'diagnosis', 'modality', 'task', 'standard_ms'];
-const EFFECT_COLUMNS = ['label', 'outcome', 'manipulation', 'form', ...REPORTED_KEYS, 'assumed_r', 'page', 'locator', 'quote'];
+const EFFECT_COLUMNS = ['label', 'outcome', 'parameter', 'unit', 'manipulation', 'form', ...REPORTED_KEYS, 'assumed_r', 'page', 'locator', 'quote'];
 export const CSV_COLUMNS = [...STUDY_COLUMNS, ...EFFECT_COLUMNS];
+
+/** A refused quantity's choices in the CSV's own terms. */
+function csvChoices(choices: NonNullable<ReturnType<typeof quantityProblem>>['choices']): string {
+  const set = choices.map((c) => Object.entries(c.set).map(([k, v]) => `${k} ${v}`).join(' with '));
+  return `allowed: ${set.join('; ')}`;
+}
 
 /** Parses bulk-entry CSV rows into studies and effects; every bad row gets its own message. */
 export function parseEffectsCsv(text: string): { rows: CsvRow[]; errors: { row: number; message: string }[] } {
@@ -28,16 +36,27 @@ export function parseEffectsCsv(text: string): { rows: CsvRow[]; errors: { row: 
       label: val('study') ?? 'Experiment 1', design: val('design'), n1: val('n1_study'), n2: val('n2_study'), population: val('population'),
       diagnosis: val('diagnosis'), modality: val('modality'), task: val('task'), standardMs: val('standard_ms'), effects: [],
     });
+    // a parameter or unit outside the vocabulary is named with the terms the column takes
+    const termProblems: string[] = [];
+    const term = (k: 'parameter' | 'unit', terms: readonly string[]) => {
+      const v = val(k);
+      if (v === undefined || terms.includes(v)) return v;
+      termProblems.push(`${k}: “${v}” is not one of ${terms.join(', ')}`);
+      return undefined;
+    };
     const effect = effectDraftSchema.safeParse({
-      label: val('label'), outcome: val('outcome'), manipulation: val('manipulation'), form: val('form'), reported, assumedR: val('assumed_r'),
+      label: val('label'), outcome: val('outcome'), parameter: term('parameter', PARAMETERS), unit: term('unit', UNITS), manipulation: val('manipulation'), form: val('form'), reported, assumedR: val('assumed_r'),
       page: val('page'), locator: val('locator'), quote: val('quote'),
     });
     const problems = [
       ...(study.success ? [] : study.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`)),
       ...(effect.success ? [] : effect.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`)),
+      ...termProblems,
     ];
     if (effect.success) {
       if (!effect.data.outcome) problems.push('outcome: choose an outcome kind');
+      const quantity = termProblems.length ? null : quantityProblem(effect.data, (k) => OUTCOMES[k].label);
+      if (quantity) problems.push(`${quantity.field}: ${quantity.message} (${csvChoices(quantity.choices)})`);
       if (!effect.data.manipulation) problems.push('manipulation: give a vocabulary term');
       if (!effect.data.form) problems.push('form: say how the result was reported');
       else {

@@ -23,6 +23,35 @@ describe('bulk CSV entry', () => {
     expect(errors[1].message).toMatch(/sd_diff must be a positive finite number/);
   });
 
+  it('takes parameter and unit columns, and names each row whose parameter or unit is not allowed', () => {
+    const head = 'study,design,n1_study,population,modality,task,label,outcome,parameter,unit,manipulation,form,mean_diff,sd_diff,n';
+    const csv = [
+      head,
+      'Experiment 1,within,20,healthy_adults,visual,bisection,pse shift,duration_distortion,pse,ms,luminance,mean_diff,-30,60,20',
+      'Experiment 1,within,20,healthy_adults,visual,bisection,ratio,duration_distortion,,,luminance,mean_diff,-30,60,20',
+      'Experiment 1,within,20,healthy_adults,visual,bisection,wrong kind,duration_distortion,pss,ms,luminance,mean_diff,-30,60,20',
+      'Experiment 1,within,20,healthy_adults,visual,bisection,wrong unit,duration_distortion,pse,deg,luminance,mean_diff,-30,60,20',
+      'Experiment 1,within,20,healthy_adults,visual,bisection,unknown,duration_distortion,pse,furlongs,luminance,mean_diff,-30,60,20',
+      'Experiment 1,within,20,healthy_adults,visual,bisection,unknown,duration_distortion,tempo,ms,luminance,mean_diff,-30,60,20',
+    ].join('\n');
+    const { rows, errors } = parseEffectsCsv(csv);
+    expect(rows.map((r) => [r.effect.label, r.effect.parameter, r.effect.unit])).toEqual([
+      ['pse shift', 'pse', 'ms'],
+      // blank: the outcome kind's usual ones, as on the sheet
+      ['ratio', undefined, undefined],
+    ]);
+    expect(errors).toEqual([
+      {
+        row: 4,
+        message:
+          'parameter: Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, not PSS (allowed: parameter duration_ratio with unit ratio; parameter pse with unit ms; parameter bisection_point with unit ms; parameter weber_fraction with unit none; outcome temporal_order; outcome recalibration_shift)',
+      },
+      { row: 5, message: 'unit: PSE is measured in ms, not deg (allowed: unit ms)' },
+      { row: 6, message: 'unit: “furlongs” is not one of ms, deg, percent, ratio, none' },
+      { row: 7, message: 'parameter: “tempo” is not one of duration_ratio, pse, pss, jnd, window_width, window_centre, bisection_point, weber_fraction, recalibration_shift, lag' },
+    ]);
+  });
+
   it('refuses unknown columns', () => {
     const { errors } = parseEffectsCsv('study,colour\nExperiment 1,red');
     expect(errors[0]).toMatchObject({ row: 1, message: expect.stringMatching(/unknown column: colour/) });
