@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseEffectsCsv } from '../../shared/extraction/csv.js';
 import { computeReported } from '../../shared/extraction/compute.js';
+import { OUTCOME_PARAMETERS, PARAMETERS, PARAMETER_LABELS, PARAMETER_UNITS, UNITS } from '../../shared/vocabulary/parameters.js';
 
 describe('bulk CSV entry', () => {
   it('turns good rows into studies and effects and names every bad row by line', () => {
@@ -43,12 +44,11 @@ describe('bulk CSV entry', () => {
     expect(errors).toEqual([
       {
         row: 4,
-        message:
-          'parameter: Duration distortion records Perceived-duration ratio, PSE, Bisection point, Weber fraction, not PSS (allowed: parameter duration_ratio with unit ratio; parameter pse with unit ms; parameter bisection_point with unit ms; parameter weber_fraction with unit none; outcome temporal_order; outcome recalibration_shift)',
+        message: `parameter: Duration distortion records ${OUTCOME_PARAMETERS.duration_distortion.map((k) => PARAMETER_LABELS[k]).join(', ')}, not PSS (allowed: ${OUTCOME_PARAMETERS.duration_distortion.map((k) => `parameter ${k} with unit ${PARAMETER_UNITS[k][0]}`).join('; ')}; outcome temporal_order; outcome recalibration_shift)`,
       },
       { row: 5, message: 'unit: PSE is measured in ms, not deg (allowed: unit ms)' },
-      { row: 6, message: 'unit: “furlongs” is not one of ms, deg, percent, ratio, none' },
-      { row: 7, message: 'parameter: “tempo” is not one of duration_ratio, pse, pss, jnd, window_width, window_centre, bisection_point, weber_fraction, recalibration_shift, lag' },
+      { row: 6, message: `unit: “furlongs” is not one of ${UNITS.join(', ')}` },
+      { row: 7, message: `parameter: “tempo” is not one of ${PARAMETERS.join(', ')}` },
     ]);
   });
 
