@@ -71,6 +71,13 @@ export type SubgroupVariable = (typeof SUBGROUP_VARIABLES)[number];
 export const MODERATORS = ['standardMs', 'year'] as const;
 export type Moderator = (typeof MODERATORS)[number];
 export const MODERATOR_LABELS: Record<Moderator, string> = { standardMs: 'Standard duration (ms)', year: 'Publication year' };
+/** Moderators of the several-moderator meta-regression: numbers as they are, categories dummy-coded (reference: the first in code order). */
+export const REGRESSION_MODERATORS = ['standardMs', 'year', 'design', 'modality', 'task', 'population'] as const;
+export type RegressionModerator = (typeof REGRESSION_MODERATORS)[number];
+export const CONTINUOUS_MODERATORS: readonly RegressionModerator[] = ['standardMs', 'year'];
+/** How subgroups get their between-study variance: one τ² per subgroup, or one τ² shared by all (the mixed-effects model with the factor). */
+export const SUBGROUP_TAU2_MODELS = ['separate', 'pooled'] as const;
+export type SubgroupTau2Model = (typeof SUBGROUP_TAU2_MODELS)[number];
 
 export const synthesisRequestSchema = z
   .object({
@@ -81,6 +88,15 @@ export const synthesisRequestSchema = z
     dependence: dependenceSchema.default({ mode: 'aggregate', r: 0.5 }),
     subgroup: z.enum(SUBGROUP_VARIABLES).optional(),
     moderator: z.enum(MODERATORS).optional(),
+    /** a meta-regression on several moderators at once (Knapp–Hartung when hksj) */
+    moderators: z
+      .array(z.enum(REGRESSION_MODERATORS))
+      .min(1)
+      .max(REGRESSION_MODERATORS.length)
+      .refine((m) => new Set(m).size === m.length, { message: 'each moderator may be chosen once' })
+      .optional(),
+    /** subgroups: a separate τ² in each (absent) or one τ² shared by all; ignored without a subgroup */
+    subgroupTau2: z.enum(SUBGROUP_TAU2_MODELS).optional(),
     /** pool g_s, g_av and g_rm together as one raw-score standardized mean difference (never g_z) */
     smdFamily: z.enum(SMD_FAMILIES).optional(),
   })

@@ -1,5 +1,6 @@
 import type { PoolResult } from '../stats/types.js';
 import type { Caution } from './types.js';
+import { estimatorI2 } from './analyses.js';
 
 export const NOT_CLINICAL =
   'This is research synthesis, not clinical guidance: for any clinical decision defer to licensed practice and local guidelines.';
@@ -18,10 +19,11 @@ export function cautionsFor(result: PoolResult, studies: number, [one, many]: [s
       code: 'few_studies_tests',
       text: `Fewer than 10 ${many} (${studies}): asymmetry tests (Egger, Begg, trim-and-fill), subgroup comparisons and meta-regression are unreliable.`,
     });
-  if (result.I2 != null && result.I2 > 75)
+  const I2 = estimatorI2(result.method, result);
+  if (I2 != null && I2 > 75)
     out.push({
       code: 'high_heterogeneity',
-      text: `I² is ${result.I2.toFixed(1)}% (above 75%): the pooled value may describe no real setting; read the prediction interval and look for moderators.`,
+      text: `I² is ${I2.toFixed(1)}% (above 75%): the pooled value may describe no real setting; read the prediction interval and look for moderators.`,
     });
   out.push({ code: 'not_clinical', text: NOT_CLINICAL });
   return out;

@@ -1,4 +1,6 @@
 import { METHOD_LABELS, ONE_PER_STUDY_LABELS, SENSITIVITY_RS, type Dependence, type SynthesisRequest } from '../schemas/synthesis.js';
+import { labelOf } from '../vocabulary/labels.js';
+import { i2Definition } from './analyses.js';
 
 export interface PrismaCounts {
   /** records in the registry (every reference, duplicates included) */
@@ -77,6 +79,8 @@ export function flaggedSentence(q: Pick<SynthesisRequest, 'filters'>): string {
   return out.length ? ` Effects ${out.join(' and effects ')} were left out.` : '';
 }
 
+const listed = (xs: string[]) => (xs.length > 1 ? `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}` : xs[0]);
+
 /** A methods paragraph for a report, in plain prose with the citations the analysis rests on. */
 export function methodsParagraph(m: MethodsInput): string {
   const { request: q, counts } = m;
@@ -88,13 +92,15 @@ export function methodsParagraph(m: MethodsInput): string {
   const hksj = q.hksj
     ? ` Confidence intervals used the Hartung–Knapp–Sidik–Jonkman adjustment with t on k − 1 degrees of freedom (Knapp & Hartung, 2003; IntHout, Ioannidis & Borm, 2014).`
     : '';
+  const i2 =
+    q.method === 'FE' ? 'I² and H² from Q' : i2Definition(q.method) === 'tau' ? `I² and H² from the ${METHOD_LABELS[q.method]} τ² and the typical within-study variance` : 'I² and H² from Q (for DerSimonian–Laird the same as from its τ²)';
   const hetero =
-    ` Heterogeneity is reported as Cochran's Q with its p value, I² and H² (Higgins & Thompson, 2002), τ² with a ${level} Q-profile interval (Viechtbauer, 2007), and a ${level} prediction interval with t on k − 2 degrees of freedom (Higgins, Thompson & Spiegelhalter, 2009).`;
+    ` Heterogeneity is reported as Cochran's Q with its p value, ${i2} (Higgins & Thompson, 2002) in the pooled row and in every leave-one-out and cumulative row, τ² with a ${level} Q-profile interval (Viechtbauer, 2007), and a ${level} prediction interval with t on k − 2 degrees of freedom (Higgins, Thompson & Spiegelhalter, 2009).`;
   const skip = new Set(m.notRun ?? []);
   const multilevel = q.dependence.mode === 'multilevel';
   const smallStudy = multilevel ? [] : [
     counts.studies >= 3 ? "Egger's regression test (Egger, Davey Smith, Schneider & Minder, 1997)" : '',
-    skip.has("Begg's test") ? '' : "Begg's rank correlation (Begg & Mazumdar, 1994)",
+    skip.has("Begg's test") ? '' : "Begg's rank correlation (Begg & Mazumdar, 1994; the exact p of Kendall's statistic for up to 50 studies without ties, else the normal approximation)",
     skip.has('trim-and-fill') ? '' : 'trim-and-fill (Duval & Tweedie, 2000)',
   ].filter(Boolean);
   const sensitivity = multilevel
@@ -104,8 +110,17 @@ export function methodsParagraph(m: MethodsInput): string {
     (smallStudy.length ? ` Small-study effects were examined with ${smallStudy.length > 1 ? `${smallStudy.slice(0, -1).join(', ')} and ${smallStudy.at(-1)}` : smallStudy[0]}.` : '') +
     (sensitivity.length ? ` ${sensitivity.join(' and ').replace(/^./, (c) => c.toUpperCase())} analyses were run for sensitivity.` : '');
   const extras = [
-    q.subgroup ? ` Subgroups by ${q.subgroup} were compared with a Q test between subgroup estimates (${multilevel ? 'a separate three-level fit' : 'separate τ²'} per subgroup).` : '',
-    q.moderator ? ` A ${multilevel ? 'three-level' : 'mixed-effects'} meta-regression on ${q.moderator === 'standardMs' ? 'standard duration (ms)' : 'publication year'} was fitted.` : '',
+    q.subgroup
+      ? !multilevel && q.subgroupTau2 === 'pooled'
+        ? ` Subgroups by ${labelOf('subgroup', q.subgroup).toLowerCase()} were compared in a mixed-effects model with the subgroup as a factor and one τ² shared by all subgroups, tested by the ${q.hksj ? 'Knapp–Hartung F test' : 'omnibus χ² test'} of the factor.`
+        : ` Subgroups by ${labelOf('subgroup', q.subgroup).toLowerCase()} were compared with a Q test between subgroup estimates (${multilevel ? 'a separate three-level fit' : 'separate τ²'} per subgroup).`
+      : '',
+    q.moderator ? ` A ${multilevel ? 'three-level' : 'mixed-effects'} meta-regression on ${labelOf('moderator', q.moderator).toLowerCase()} was fitted${!multilevel && q.hksj ? ' with the Knapp–Hartung t test on k − 2 degrees of freedom' : ''}.` : '',
+    q.moderators && !multilevel && !skip.has('meta-regression on several moderators')
+      ? ` A mixed-effects meta-regression on ${listed(q.moderators.map((m) => labelOf('moderator', m).toLowerCase()))} at once was fitted (categories coded as indicators against their first level; residual τ² by the ${METHOD_LABELS[q.method]} method), ${
+          q.hksj ? 'with Knapp–Hartung t tests on k − p degrees of freedom and an F test of the moderators (Knapp & Hartung, 2003)' : 'with Wald z tests and an omnibus χ² test of the moderators'
+        }, residual heterogeneity Q_E and the proportion of τ² explained (R²; Raudenbush, 2009).`
+      : '',
     multilevel ? " Egger's test, Begg's test and trim-and-fill assume independent effects and were not run." : '',
   ].join('');
   const p = m.prisma;

@@ -8,6 +8,7 @@ import { applyDependence, type StudyUnit } from './dependence.js';
 import { cautionsFor } from './cautions.js';
 import { valueLabel } from './labels.js';
 import { multilevelPart } from './run-multilevel.js';
+import { estimatorTable, severalModerators } from './analyses.js';
 import type { CorrelationSensitivityRow, MetaRegressionResult, PlotFigure, PooledRow, SensitivityRow, SettledEffect, SubgroupComparison, SynthesisOutput } from './types.js';
 
 export class NoEffectsError extends Error {
@@ -108,6 +109,20 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
 
   const refits = part.refits();
 
+  // Several moderators at once, and τ² and I² by every estimator: over the pooled units of a two-level model.
+  let regression: SynthesisOutput['regression'] = null;
+  let estimators: SynthesisOutput['estimators'] = null;
+  if (dependence.mode === 'multilevel') {
+    if (request.moderators) unavailable.push({ analysis: 'meta-regression on several moderators', reason: 'not fitted under the three-level model; combine or keep one effect per study to run it' });
+    if (sg && request.subgroupTau2 === 'pooled') unavailable.push({ analysis: 'one τ² shared by all subgroups', reason: 'the three-level model fits each subgroup separately' });
+  } else {
+    if (request.moderators) {
+      const chosen = request.moderators;
+      regression = log.attempt('meta-regression on several moderators', () => severalModerators(rows, effects, request, chosen));
+    }
+    if (rows.length >= 2) estimators = log.attempt('estimators compared', () => estimatorTable(rows.map((r) => r.effect), rows.map((r) => r.variance), request.hksj, request.level));
+  }
+
   let metaReg: SynthesisOutput['metaRegression'] = null;
   const mod = request.moderator;
   if (mod) {
@@ -138,6 +153,11 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
       : null;
   const forest = part.forest(subgroups);
   const finished = part.finish(result);
+  if (regression?.fewPerCovariate)
+    finished.cautions.splice(finished.cautions.length - 1, 0, {
+      code: 'few_per_covariate',
+      text: `The meta-regression on several moderators has ${regression.k} studies for ${regression.terms.length - 1} coefficients: fewer than 10 studies per coefficient (common practice), so its estimates are unstable.`,
+    });
 
   return {
     request,
@@ -149,6 +169,8 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
     subgroups,
     ...refits,
     metaRegression: metaReg,
+    regression,
+    estimators,
     figures: { forest, funnel, bubble },
     ...finished,
     unavailable,
@@ -186,27 +208,31 @@ function studyPart(
   });
 
   const subgroups = (labelOf: (value: string) => string): SubgroupComparison => {
-    const sub = subgroupAnalysis({ effects: y, variances: v, groups: rows.map((r) => r.subgroup!), ...opts });
+    const sub = subgroupAnalysis({ effects: y, variances: v, groups: rows.map((r) => r.subgroup!), ...opts, tau2Model: request.subgroupTau2 ?? 'separate' });
     return {
       variable: sg!,
-      groups: sub.groups.map((r) => ({ value: r.group, label: labelOf(r.group), k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, p: r.p })),
+      groups: sub.groups.map((r) => ({ value: r.group, label: labelOf(r.group), k: r.k, estimate: r.estimate, se: r.se, ci_lower: r.ci_lower, ci_upper: r.ci_upper, tau2: r.tau2, I2: r.I2, I2_tau: r.I2_tau, p: r.p })),
+      tau2Model: sub.tau2_model,
+      tau2_pooled: sub.tau2_pooled,
       Q_between: sub.Q_between,
       df: sub.Q_between_df,
+      df2: sub.Q_between_df2,
+      test: sub.Q_between_test,
       p: sub.Q_between_p,
     };
   };
 
   const regress = (withX: number[]) => {
-    const fit = metaRegression({ effects: withX.map((i) => y[i]), variances: withX.map((i) => v[i]), moderator: withX.map((i) => rows[i].moderator as number), method: request.method, level: request.level });
+    const fit = metaRegression({ effects: withX.map((i) => y[i]), variances: withX.map((i) => v[i]), moderator: withX.map((i) => rows[i].moderator as number), method: request.method, hksj: request.hksj, level: request.level });
     const slope = fit.coefficients[1];
-    return { k: fit.k, intercept: fit.coefficients[0].estimate, slope: slope.estimate, slope_se: slope.se, slope_ci_lower: slope.ci_lower, slope_ci_upper: slope.ci_upper, slope_p: slope.p, tau2: fit.tau2, R2: fit.R2 };
+    return { k: fit.k, intercept: fit.coefficients[0].estimate, slope: slope.estimate, slope_se: slope.se, slope_ci_lower: slope.ci_lower, slope_ci_upper: slope.ci_upper, slope_p: slope.p, slope_df: slope.statistic_df, tau2: fit.tau2, R2: fit.R2 };
   };
 
   const refits = (): ReturnType<ModelPart['refits']> => {
     const sensitivityRows = (entries: SensitivityEntry[], order: number[]): SensitivityRow[] =>
       entries.map((e, j) => {
         const u = units[order[j]].u;
-        return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.estimate / e.se) : tTwoTailed(e.estimate / e.se, e.statistic_df), tau2: e.tau2, I2: e.I2 };
+        return { label: u.label, studyId: u.studyId, year: u.year, k: e.k, estimate: e.estimate, ci_lower: e.ci_lower, ci_upper: e.ci_upper, p: e.statistic_df === null ? normalTwoTailed(e.estimate / e.se) : tTwoTailed(e.estimate / e.se, e.statistic_df), tau2: e.tau2, I2: e.I2, I2_tau: e.I2_tau };
       });
     const refitsAllowed = (what: string) => {
       if (k > SENSITIVITY_MAX_STUDIES) {
@@ -236,7 +262,7 @@ function studyPart(
     else if (k > BEGG_MAX_STUDIES) unavailable.push({ analysis: "Begg's test", reason: `compares every pair of studies; not run for more than ${BEGG_MAX_STUDIES} studies (${k} here)` });
     else {
       const b = attempt("Begg's test", () => begg({ effects: y, variances: v }));
-      if (b) beggResult = { tau: b.tau, z: b.z, p: b.p };
+      if (b) beggResult = { tau: b.tau, z: b.z, p: b.p, p_method: b.p_method };
     }
     return {
       leaveOneOut: leaveOut,
@@ -327,6 +353,6 @@ function overCorrelations(effects: readonly SettledEffect[], d: Extract<Dependen
       }
     }
     const res = pool({ effects: y, variances: v, ...opts });
-    return { r, k: res.k, estimate: res.estimate, se: res.se, ci_lower: res.ci_lower, ci_upper: res.ci_upper, p: res.p, tau2: res.tau2, I2: res.I2 };
+    return { r, k: res.k, estimate: res.estimate, se: res.se, ci_lower: res.ci_lower, ci_upper: res.ci_upper, p: res.p, tau2: res.tau2, I2: res.I2, I2_tau: res.I2_tau };
   });
 }

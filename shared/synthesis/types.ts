@@ -1,6 +1,7 @@
 import type { Metric } from '../stats/metrics.js';
 import type { PoolResult } from '../stats/types.js';
-import type { Dependence, Moderator, SubgroupVariable, SynthesisFilters, SynthesisRequest } from '../schemas/synthesis.js';
+import type { Dependence, Moderator, RegressionModerator, SubgroupTau2Model, SubgroupVariable, SynthesisFilters, SynthesisRequest } from '../schemas/synthesis.js';
+import type { Method } from '../stats/types.js';
 
 /** One settled effect as the registry stores it (server/repositories/effects.ts querySettledEffects). */
 export interface SettledEffect {
@@ -62,7 +63,10 @@ export interface SensitivityRow {
   ci_upper: number;
   p: number;
   tau2: number | null;
+  /** I² from Q */
   I2: number | null;
+  /** I² from τ² and the typical within-study variance (REML and PM; null otherwise) */
+  I2_tau?: number | null;
 }
 
 export interface SubgroupResult {
@@ -75,14 +79,22 @@ export interface SubgroupResult {
   ci_upper: number;
   tau2: number | null;
   I2: number | null;
+  I2_tau?: number | null;
   p: number;
 }
 
 export interface SubgroupComparison {
   variable: SubgroupVariable;
   groups: SubgroupResult[];
+  /** a separate τ² per subgroup, or one shared τ² (absent in older snapshots: separate) */
+  tau2Model?: SubgroupTau2Model;
+  /** the shared τ² (pooled model, random effects) */
+  tau2_pooled?: number | null;
+  /** the between-subgroups statistic: Q (χ²) or, for one shared τ² under HKSJ, the F of the factor */
   Q_between: number | null;
   df: number | null;
+  df2?: number | null;
+  test?: 'chisq' | 'F' | null;
   p: number | null;
 }
 
@@ -90,6 +102,8 @@ export interface BeggResult {
   tau: number;
   z: number;
   p: number;
+  /** exact Kendall distribution (k ≤ 50 without ties) or the normal approximation (absent in older snapshots) */
+  p_method?: 'exact' | 'normal';
 }
 
 export interface TrimFillResult {
@@ -111,10 +125,68 @@ export interface MetaRegressionResult {
   slope_ci_lower: number;
   slope_ci_upper: number;
   slope_p: number;
+  /** t df under Knapp–Hartung, null for z (absent in older snapshots) */
+  slope_df?: number | null;
   tau2: number | null;
   R2: number | null;
   /** units left out because their moderator value is missing */
   missing: number;
+}
+
+/** One coefficient of the several-moderator meta-regression, named in words. */
+export interface RegressionTerm {
+  /** "Intercept", a moderator's label, or "Moderator: level" for a dummy of a category */
+  label: string;
+  moderator: RegressionModerator | null;
+  /** the category level this dummy stands for (its code), else null */
+  level: string | null;
+  estimate: number;
+  se: number;
+  statistic: number;
+  /** t df under Knapp–Hartung, null for z */
+  df: number | null;
+  p: number;
+  ci_lower: number;
+  ci_upper: number;
+}
+
+/** The meta-regression on several moderators at once (mixed-effects model; Knapp–Hartung when hksj). */
+export interface SeveralModeratorsResult {
+  moderators: Array<{ moderator: RegressionModerator; label: string; type: 'continuous' | 'categorical'; reference: string | null; referenceLabel: string | null }>;
+  k: number;
+  /** units left out because a moderator value is missing */
+  missing: number;
+  method: Method;
+  hksj: boolean;
+  terms: RegressionTerm[];
+  tau2: number | null;
+  tau2_total: number | null;
+  R2: number | null;
+  /** test of all moderator coefficients: χ² on QM_df, or the F on (QM_df, QM_df2) under Knapp–Hartung */
+  QM: number;
+  QM_df: number;
+  QM_df2: number | null;
+  QM_test: 'chisq' | 'F';
+  QM_p: number;
+  QE: number;
+  QE_df: number;
+  QE_p: number;
+  /** fewer than 10 studies per moderator coefficient */
+  fewPerCovariate: boolean;
+}
+
+/** τ² and I² by each estimator, each I² from that estimator's own τ² (as metafor reports it). */
+export interface EstimatorRow {
+  method: Method;
+  label: string;
+  estimate: number;
+  ci_lower: number;
+  ci_upper: number;
+  tau2: number | null;
+  tau2_ci_lower: number | null;
+  tau2_ci_upper: number | null;
+  I2: number | null;
+  H2: number | null;
 }
 
 /** The three-level fit behind a multilevel synthesis (effects within papers). */
@@ -147,10 +219,11 @@ export interface CorrelationSensitivityRow {
   p: number;
   tau2: number | null;
   I2: number | null;
+  I2_tau?: number | null;
 }
 
 export interface Caution {
-  code: 'few_studies_dl' | 'few_clusters' | 'few_studies_tests' | 'high_heterogeneity' | 'not_clinical' | 'single_study' | 'analysis_unavailable';
+  code: 'few_studies_dl' | 'few_clusters' | 'few_studies_tests' | 'high_heterogeneity' | 'not_clinical' | 'single_study' | 'analysis_unavailable' | 'few_per_covariate';
   text: string;
 }
 
@@ -179,6 +252,10 @@ export interface SynthesisOutput {
   begg: BeggResult | null;
   trimFill: TrimFillResult | null;
   metaRegression: MetaRegressionResult | null;
+  /** the meta-regression on several moderators, when asked for (absent in older snapshots) */
+  regression?: SeveralModeratorsResult | null;
+  /** τ² and I² by every estimator over the same studies (absent in older snapshots and under the three-level model) */
+  estimators?: EstimatorRow[] | null;
   cautions: Caution[];
   figures: SynthesisFigures;
   /** dependence mode "multilevel": the three-level fit (absent in older snapshots) */

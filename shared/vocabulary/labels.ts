@@ -43,7 +43,12 @@ export const LABELS = {
     manipulation: 'Manipulation', outcome: 'Outcome kind', parameter: 'Parameter', unit: 'Unit', metric: 'Metric', population: 'Population',
     modality: 'Modality', task: 'Task', design: 'Design', yearFrom: 'From year', yearTo: 'To year',
   },
-  moderator: { standardMs: 'Standard duration (ms)', year: 'Publication year' },
+  moderator: { standardMs: 'Standard duration (ms)', year: 'Publication year', design: 'Design', modality: 'Modality', task: 'Task', population: 'Population' },
+  subgroupTau2: { separate: 'A separate τ² in each subgroup', pooled: 'One τ² shared by all subgroups' },
+  estimator: { FE: 'Fixed effect', DL: 'DerSimonian–Laird', REML: 'REML', PM: 'Paule–Mandel' },
+  pMethod: { exact: 'exact (Kendall’s distribution)', normal: 'normal approximation' },
+  test: { chisq: 'χ²', F: 'F (Knapp–Hartung)' },
+  i2Definition: { q: 'from Q', tau: 'from τ²' },
   subgroup: { population: 'Population', modality: 'Modality', task: 'Task', design: 'Design', outcome: 'Outcome kind', manipulation: 'Manipulation' },
 } as const satisfies Record<string, Record<string, string>>;
 

@@ -11,6 +11,7 @@ describeAccess(
   [
     { method: 'post', path: '/api/syntheses', body, who: 'anyone', bad: { body: { method: 'median', dependence: { mode: 'aggregate', r: 3 } } } },
     { method: 'post', path: '/api/syntheses', body: multilevel, who: 'anyone', bad: { body: { ...multilevel, dependence: { mode: 'multilevel', robust: 'yes' } } } },
+    { method: 'post', path: '/api/syntheses', body: { ...body, moderators: ['year', 'standardMs'], subgroup: 'modality', subgroupTau2: 'pooled' }, who: 'anyone', bad: { body: { ...body, moderators: ['year', 'year'] } } },
     { method: 'get', path: '/api/syntheses/facets', who: 'anyone' },
     { method: 'post', path: '/api/syntheses/flow', body, who: 'anyone', bad: { body: { filters: { colour: 'red' } } } },
     { method: 'get', path: `/api/syntheses/export/flow.svg?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/flow.svg' } },

@@ -42,6 +42,8 @@ const FORM_FIELDS = [
   'dependence.weighted',
   'subgroup',
   'moderator',
+  'moderators',
+  'subgroupTau2',
   'smdFamily',
 ] as const;
 

@@ -31,6 +31,8 @@ const KNOWN_PARAMS = new Set<string>([
   'weighted',
   'subgroup',
   'moderator',
+  'moderators',
+  'subgroupTau2',
   'smdFamily',
 ]);
 
@@ -57,6 +59,10 @@ export interface SynthesisFormValues {
   dependence: { mode: DependenceMode; r: string; rule: string; robust: boolean; weighted: boolean };
   subgroup: string;
   moderator: string;
+  /** the several-moderator meta-regression's moderators (none: not run) */
+  moderators: string[];
+  /** '' (a separate τ² per subgroup) or 'pooled' */
+  subgroupTau2: string;
   /** '' or an SMD family pooled as one metric ('raw_score') */
   smdFamily: string;
 }
@@ -90,6 +96,8 @@ export function encodeRequest(request: SynthesisRequest): URLSearchParams {
   }
   if (request.subgroup) p.set('subgroup', request.subgroup);
   if (request.moderator) p.set('moderator', request.moderator);
+  for (const m of request.moderators ?? []) p.append('moderators', m);
+  if (request.subgroup && request.subgroupTau2 === 'pooled') p.set('subgroupTau2', 'pooled');
   if (request.smdFamily) p.set('smdFamily', request.smdFamily);
   if (p.size === 0) p.set(ALL_PARAM, '1');
   return p;
@@ -135,6 +143,8 @@ function valuesFromParams(p: URLSearchParams): SynthesisFormValues {
     },
     subgroup: get('subgroup', ''),
     moderator: get('moderator', ''),
+    moderators: p.getAll('moderators'),
+    subgroupTau2: get('subgroupTau2', ''),
     smdFamily: get('smdFamily', ''),
   };
 }
@@ -209,6 +219,8 @@ export function requestToFormValues(request: SynthesisRequest): SynthesisFormVal
     },
     subgroup: request.subgroup ?? '',
     moderator: request.moderator ?? '',
+    moderators: [...(request.moderators ?? [])],
+    subgroupTau2: request.subgroupTau2 ?? '',
     smdFamily: request.smdFamily ?? '',
   };
 }
@@ -252,6 +264,8 @@ function candidateFromRead(v: ReadValues): Record<string, unknown> {
           : { mode: 'aggregate', ...(r === undefined ? {} : { r }), ...(v.dependence.weighted ? { weighted: true } : {}) },
     ...(v.subgroup ? { subgroup: v.subgroup } : {}),
     ...(v.moderator ? { moderator: v.moderator } : {}),
+    ...(v.moderators.length ? { moderators: v.moderators } : {}),
+    ...(v.subgroup && v.subgroupTau2 === 'pooled' ? { subgroupTau2: 'pooled' } : {}),
     ...(v.smdFamily ? { smdFamily: v.smdFamily } : {}),
   };
 }
@@ -285,6 +299,8 @@ const formValuesSchema = z.object({
   ]),
   subgroup: z.string(),
   moderator: z.string(),
+  moderators: z.array(z.string()),
+  subgroupTau2: z.string().catch(''), // undefined while its select is disabled (no subgroups)
   smdFamily: z.string(),
 });
 

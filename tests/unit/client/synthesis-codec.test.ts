@@ -5,6 +5,7 @@ import { METHODS } from '../../../shared/stats/types';
 import {
   MODERATORS,
   ONE_PER_STUDY_RULES,
+  REGRESSION_MODERATORS,
   SUBGROUP_VARIABLES,
   synthesisRequestSchema,
   type SynthesisRequest,
@@ -48,6 +49,9 @@ const SHAPES: Array<[string, SynthesisRequest]> = [
   ['three-level model, model-based', request({ dependence: { mode: 'multilevel', robust: false }, subgroup: 'task' })],
   ...SUBGROUP_VARIABLES.map((subgroup): [string, SynthesisRequest] => [`subgroups by ${subgroup}`, request({ subgroup })]),
   ...MODERATORS.map((moderator): [string, SynthesisRequest] => [`moderator ${moderator}`, request({ moderator })]),
+  ...REGRESSION_MODERATORS.map((m): [string, SynthesisRequest] => [`several moderators with ${m}`, request({ moderators: ['year', m].filter((x, i, xs) => xs.indexOf(x) === i) as SynthesisRequest['moderators'] })]),
+  ['every moderator at once', request({ moderators: [...REGRESSION_MODERATORS] })],
+  ['subgroups with one shared τ²', request({ subgroup: 'modality', subgroupTau2: 'pooled' })],
   [
     'everything at once',
     request({
@@ -83,6 +87,7 @@ function randomRequest(rand: () => number): SynthesisRequest {
     dependence: rand() < 0.5 ? { mode: 'aggregate', r: Math.round(rand() * 100) / 100 } : { mode: 'one', rule: pick(ONE_PER_STUDY_RULES) },
     ...(rand() < 0.3 ? { subgroup: pick(SUBGROUP_VARIABLES) } : {}),
     ...(rand() < 0.3 ? { moderator: pick(MODERATORS) } : {}),
+    ...(rand() < 0.3 ? { moderators: [...new Set([pick(REGRESSION_MODERATORS), pick(REGRESSION_MODERATORS)])] } : {}),
   });
 }
 
@@ -182,6 +187,10 @@ describe('synthesis codec: a bad address falls back, never crashes', () => {
     ['an unknown metric', 'metric=cohens_q&manipulation=a', { filters: { manipulation: 'a' } }],
     ['an unknown subgroup variable', 'subgroup=colour', {}],
     ['an unknown moderator', 'moderator=weight', {}],
+    ['an unknown one of several moderators', 'moderators=weight&moderators=year', { moderators: ['year'] }],
+    ['a moderator chosen twice', 'moderators=year&moderators=year', {}],
+    ['one shared τ² without subgroups', 'subgroupTau2=pooled', {}],
+    ['a τ² choice other than pooled', 'subgroup=task&subgroupTau2=common', { subgroup: 'task' }],
     ['a year before 1800', 'yearFrom=1700&yearTo=2000', { filters: { yearTo: 2000 } }],
     ['a year that is not a number', 'yearFrom=nineteen', {}],
     ['a from-year after the to-year (the to-year goes)', 'yearFrom=2010&yearTo=2000', { filters: { yearFrom: 2010 } }],
@@ -200,7 +209,7 @@ describe('synthesis codec: a bad address falls back, never crashes', () => {
 
   it('survives 500 seeded addresses of garbage, always giving a request the server schema accepts', () => {
     const rand = mulberry32(99);
-    const keys = ['manipulation', 'outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo', 'method', 'hksj', 'level', 'dependence', 'r', 'rule', 'robust', 'weighted', 'subgroup', 'moderator'];
+    const keys = ['manipulation', 'outcome', 'metric', 'population', 'modality', 'task', 'design', 'yearFrom', 'yearTo', 'method', 'hksj', 'level', 'dependence', 'r', 'rule', 'robust', 'weighted', 'subgroup', 'moderator', 'moderators', 'subgroupTau2'];
     const junk = ['', ' ', '-1', '0', '1', '0.5', '1e309', 'NaN', 'null', '{}', '[]', 'DL', 'one', 'multilevel', 'REML', 'g_s', '2000', '1799', '\u0000', 'é'.repeat(200)];
     for (let i = 0; i < 500; i++) {
       const p = new URLSearchParams();

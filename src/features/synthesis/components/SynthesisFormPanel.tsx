@@ -1,6 +1,6 @@
 import type { ReactElement } from 'react';
 import { Controller, useWatch, type Control, type UseFormReturn } from 'react-hook-form';
-import { METHOD_LABELS, MODERATOR_LABELS, ONE_PER_STUDY_LABELS, ONE_PER_STUDY_RULES, SUBGROUP_VARIABLES, type SynthesisRequest } from '../../../../shared/schemas/synthesis';
+import { METHOD_LABELS, MODERATOR_LABELS, ONE_PER_STUDY_LABELS, ONE_PER_STUDY_RULES, REGRESSION_MODERATORS, SUBGROUP_VARIABLES, type SynthesisRequest } from '../../../../shared/schemas/synthesis';
 import { Button } from '../../../components/ui/Button';
 import { Field, FieldError, messageAt } from '../../../components/ui/Field';
 import type { Facet, SynthesisFacets } from '../api/get-facets';
@@ -75,6 +75,7 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
   const err = (path: string) => messageAt(formState.errors, path);
   const method = useWatch({ control, name: 'method' });
   const mode = useWatch({ control, name: 'dependence.mode' });
+  const subgroup = useWatch({ control, name: 'subgroup' });
   const f = facets;
   return (
     <form onSubmit={form.handleSubmit(onRun)} noValidate aria-label="Synthesis filters and options" className="rounded border border-paper-edge bg-paper-deep/50 p-3">
@@ -195,9 +196,15 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
             <option value="">No subgroups</option>
             {SUBGROUP_VARIABLES.map((v) => (
               <option key={v} value={v}>
-                {v}
+                {valueLabel('subgroup', v)}
               </option>
             ))}
+          </select>
+        </SynthesisField>
+        <SynthesisField label="Between-study variance in subgroups" error={err('subgroupTau2')} hint={!subgroup ? 'choose subgroups first' : mode === 'multilevel' ? 'the three-level model fits each subgroup separately' : undefined}>
+          <select {...register('subgroupTau2')} disabled={!subgroup} className={inputClass}>
+            <option value="">{valueLabel('subgroupTau2', 'separate')}</option>
+            <option value="pooled">{valueLabel('subgroupTau2', 'pooled')}</option>
           </select>
         </SynthesisField>
         <SynthesisField label="Meta-regression on" error={err('moderator')}>
@@ -210,6 +217,19 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
             ))}
           </select>
         </SynthesisField>
+        <fieldset className="flex flex-col gap-0.5 text-sm">
+          <legend className="font-semibold">Meta-regression on several moderators</legend>
+          <div className="flex flex-wrap gap-x-3">
+            {REGRESSION_MODERATORS.map((m) => (
+              <label key={m} className="flex items-center gap-1.5">
+                <input type="checkbox" value={m} {...register('moderators')} />
+                {valueLabel('moderator', m)}
+              </label>
+            ))}
+          </div>
+          <span className="text-xs text-ink-soft">{mode === 'multilevel' ? 'not fitted under the three-level model' : 'categories coded against their first value; Knapp–Hartung tests with HKSJ'}</span>
+          <FieldError message={err('moderators')} />
+        </fieldset>
       </fieldset>
       <div className="mt-3 flex items-center gap-3">
         <Button type="submit" variant="primary" disabled={running}>

@@ -8,6 +8,8 @@ import { digitsFor, fixed, interval as span, pEquals, pValue } from '../../../li
 import { valueLabel } from '../labels';
 import { ResultTable, type Column, type TableSort } from './ResultTable';
 import { useSynthesisRows } from '../api/synthesis-rows';
+import { AnalysesSection } from './AnalysesSection';
+import { estimatorI2, i2Definition } from '../../../../shared/synthesis/analyses';
 
 export type FigureComponent = ComponentType<{ figure: PlotFigure; name: string; label: string; show?: Record<string, boolean> }>;
 
@@ -76,6 +78,9 @@ export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { 
   const ml = data.dependence.mode === 'multilevel' ? data.multilevel : null;
   const several = data.papersWithSeveralEffects ?? 0;
   const unit = ml ? 'Effect' : 'Study';
+  // one I² definition per estimator on the whole screen (the three-level model's comes from its variance components)
+  const rowI2 = (x: { I2: number | null; I2_tau?: number | null }) => (ml ? x.I2 : estimatorI2(r.method, x));
+  const i2Label = ml ? 'I² %' : `I² % (${valueLabel('i2Definition', r.method === 'FE' ? 'q' : i2Definition(r.method))})`;
   const corrCols: Column<CorrelationSensitivityRow>[] = [
     { key: 'r', label: 'Assumed r', numeric: true, value: (x) => x.r, render: (x) => fixed(x.r, 1) },
     { key: 'k', label: 'k', numeric: true, value: (x) => x.k },
@@ -83,7 +88,7 @@ export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { 
     { key: 'ci', label: `${lvl} CI`, numeric: true, value: (x) => x.ci_lower, render: (x) => interval(x.ci_lower, x.ci_upper) },
     { key: 'p', label: 'p', numeric: true, value: (x) => x.p, render: (x) => pValue(x.p) },
     { key: 'tau2', label: 'τ²', numeric: true, value: (x) => x.tau2, render: (x) => fixed(x.tau2, 4) },
-    { key: 'I2', label: 'I² %', numeric: true, value: (x) => x.I2, render: (x) => fixed(x.I2, 1) },
+    { key: 'I2', label: i2Label, numeric: true, value: (x) => rowI2(x), render: (x) => fixed(rowI2(x), 1) },
   ];
 
   const studyCols: Column<PooledRow>[] = [
@@ -105,7 +110,7 @@ export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { 
     { key: 'ci', label: `${lvl} CI`, numeric: true, value: (x) => x.ci_lower, render: (x) => interval(x.ci_lower, x.ci_upper) },
     { key: 'p', label: 'p', numeric: true, value: (x) => x.p, render: (x) => pValue(x.p) },
     { key: 'tau2', label: 'τ²', numeric: true, value: (x) => x.tau2, render: (x) => fixed(x.tau2, 4) },
-    { key: 'I2', label: 'I² %', numeric: true, value: (x) => x.I2, render: (x) => fixed(x.I2, 1) },
+    { key: 'I2', label: i2Label, numeric: true, value: (x) => rowI2(x), render: (x) => fixed(rowI2(x), 1) },
   ];
 
   return (
@@ -147,8 +152,8 @@ export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { 
                     {fixed(r.tau2, 4)} {r.tau2_ci_lower != null ? `[${fixed(r.tau2_ci_lower, 4)}, ${fixed(r.tau2_ci_upper, 4)}]` : ''}
                   </Stat>
                   <Stat label="τ">{fixed(r.tau, 4)}</Stat>
-                  <Stat label="I²">{r.I2 == null ? '—' : `${fixed(r.I2, 1)}%`}</Stat>
-                  <Stat label="H²">{fixed(r.H2, 2)}</Stat>
+                  <Stat label={`I² (${valueLabel('i2Definition', i2Definition(r.method))})`}>{rowI2(r) == null ? '—' : `${fixed(rowI2(r), 1)}%`}</Stat>
+                  <Stat label="H²">{fixed(i2Definition(r.method) === 'tau' && r.I2_tau != null ? 100 / (100 - r.I2_tau) : r.H2, 2)}</Stat>
                 </>
               )}
               <Stat label="Q (df), p">
@@ -190,82 +195,7 @@ export function SynthesisResults({ data, Figure, fileStem, onUseMultilevel }: { 
         </>
       )}
 
-      <h2>Small-study effects</h2>
-      <table className="max-w-3xl">
-        <caption className="caption-top pb-1 text-left text-sm text-ink-soft">Asymmetry tests and trim-and-fill (estimates to {d} decimals, p to 3)</caption>
-        <thead>
-          <tr>
-            <th>Test</th>
-            <th className="num">Statistic</th>
-            <th className="num">p</th>
-            <th>Reading</th>
-          </tr>
-        </thead>
-        <tbody>
-          <tr>
-            <td>Egger's regression</td>
-            <td className="num">{r.egger ? `intercept ${fixed(r.egger.intercept, 3)} (SE ${fixed(r.egger.se, 3)}), t = ${fixed(r.egger.t, 2)}` : '—'}</td>
-            <td className="num">{pValue(r.egger?.p)}</td>
-            <td>{r.egger ? (r.egger.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : (data.unavailable.find((u) => u.analysis === "Egger's test")?.reason ?? 'needs at least 3 studies')}</td>
-          </tr>
-          <tr>
-            <td>Begg's rank correlation</td>
-            <td className="num">{data.begg ? `Kendall's τ ${fixed(data.begg.tau, 3)}, z = ${fixed(data.begg.z, 2)}` : '—'}</td>
-            <td className="num">{pValue(data.begg?.p)}</td>
-            <td>{data.begg ? (data.begg.p < 0.1 ? '⚠ asymmetry suggested' : 'no clear asymmetry') : (data.unavailable.find((u) => u.analysis === "Begg's test")?.reason ?? '—')}</td>
-          </tr>
-          <tr>
-            <td>Trim-and-fill</td>
-            <td className="num">{data.trimFill ? `${data.trimFill.k0} imputed (${data.trimFill.side}); adjusted ${fixed(data.trimFill.estimate, d)} ${interval(data.trimFill.ci_lower, data.trimFill.ci_upper)}` : '—'}</td>
-            <td className="num">—</td>
-            <td>{data.trimFill ? (data.trimFill.k0 ? 'the adjusted value assumes the gap is publication bias' : 'no studies imputed') : (data.unavailable.find((u) => u.analysis === 'trim-and-fill')?.reason ?? '—')}</td>
-          </tr>
-        </tbody>
-      </table>
-
-      {data.subgroups && (
-        <>
-          <h2>Subgroups by {data.subgroups.variable}</h2>
-          <table className="max-w-3xl">
-            <caption className="caption-top pb-1 text-left text-sm text-ink-soft">
-              Q between subgroups = {fixed(data.subgroups.Q_between, 2)} on {data.subgroups.df ?? '—'} df, {pEquals(data.subgroups.p)} (separate τ² in each)
-            </caption>
-            <thead>
-              <tr>
-                <th>Subgroup</th>
-                <th className="num">k</th>
-                <th className="num">Estimate</th>
-                <th className="num">{lvl} CI</th>
-                <th className="num">τ²</th>
-                <th className="num">I² %</th>
-              </tr>
-            </thead>
-            <tbody>
-              {data.subgroups.groups.map((g) => (
-                <tr key={g.value}>
-                  <td>{g.label}</td>
-                  <td className="num">{g.k}</td>
-                  <td className="num">{fixed(g.estimate, d)}</td>
-                  <td className="num">{interval(g.ci_lower, g.ci_upper)}</td>
-                  <td className="num">{fixed(g.tau2, 4)}</td>
-                  <td className="num">{fixed(g.I2, 1)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </>
-      )}
-
-      {data.metaRegression && (
-        <>
-          <h2>Meta-regression on {MODERATOR_LABELS[data.metaRegression.moderator].toLowerCase()}</h2>
-          <p className="text-sm tabular-nums">
-            Slope {data.metaRegression.slope.toPrecision(3)} per unit [{data.metaRegression.slope_ci_lower.toPrecision(3)}, {data.metaRegression.slope_ci_upper.toPrecision(3)}], {pEquals(data.metaRegression.slope_p)}; residual τ² {fixed(data.metaRegression.tau2, 4)}; R² {data.metaRegression.R2 == null ? '—' : `${fixed(data.metaRegression.R2 * 100, 1)}%`}; k = {data.metaRegression.k}
-            {data.metaRegression.missing ? ` (${data.metaRegression.missing} studies without a value left out)` : ''}.
-          </p>
-          {data.figures.bubble && <Figure figure={data.figures.bubble} name={`${fileStem}-bubble`} label="Bubble plot" />}
-        </>
-      )}
+      <AnalysesSection data={data} Figure={Figure} fileStem={fileStem} />
 
       {data.correlationSensitivity && (
         <>
