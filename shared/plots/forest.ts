@@ -45,10 +45,42 @@ export interface ForestInput {
 }
 
 export const FOREST_MAX_ROWS = 300;
-const ROW_PX = 17;
-const LABEL_CHARS = 46;
+/** Above this many rows the effect axis is drawn at the top as well as at the bottom. */
+export const FOREST_TOP_AXIS_ROWS = 40;
+/** Below this width (px) a figure's `narrow` variant is drawn instead (src/features/plots/components/PlotFigure.tsx). */
+export const NARROW_FIGURE_PX = 900;
+const LINE_PX = { wide: 17, narrow: 15 };
+const LABEL_CHARS = { wide: 44, narrow: 52 };
+const LABEL_LINES = { wide: 2, narrow: 3 };
 
-const clip = (s: string) => (s.length > LABEL_CHARS ? `${s.slice(0, LABEL_CHARS - 1)}…` : s);
+/** A label broken at spaces into lines of at most `width` characters, at most `max` lines (the last one ends in … when cut). */
+export function wrapLabel(text: string, width: number, max: number): string[] {
+  const lines: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    let w = word;
+    while (w.length > width) {
+      if (line) lines.push(line);
+      lines.push(w.slice(0, width));
+      w = w.slice(width);
+      line = '';
+    }
+    if (!line) line = w;
+    else if (line.length + 1 + w.length <= width) line += ` ${w}`;
+    else {
+      lines.push(line);
+      line = w;
+    }
+  }
+  if (line || !lines.length) lines.push(line);
+  if (lines.length <= max) return lines;
+  const kept = lines.slice(0, max);
+  const last = kept[max - 1];
+  kept[max - 1] = `${last.length >= width ? last.slice(0, width - 1) : last}…`;
+  return kept;
+}
+
+const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
 
 function quantile(sorted: number[], q: number) {
   if (!sorted.length) return NaN;
@@ -58,10 +90,16 @@ function quantile(sorted: number[], q: number) {
 
 /**
  * A forest plot as a Plotly figure: one row per study (label, year, n, effect with CI, weight), squares
- * sized by weight, CI whiskers (clipped ends drawn as arrows), subgroup diamonds, the pooled diamond with
- * the prediction interval as a thin bar beneath it, and a vertical line at no effect.
+ * sized by weight, CI whiskers (clipped ends drawn as arrows, diamonds' too), subgroup diamonds, the pooled
+ * diamond with the prediction interval as a thin bar beneath it, and a vertical line at no effect. Long labels
+ * wrap (the full label is in the row's hover text); more than FOREST_TOP_AXIS_ROWS rows repeat the axis at the
+ * top. `narrow` is the same plot for a phone: each label on its own line above its row, two columns only.
  */
 export function forestFigure(input: ForestInput): PlotFigure {
+  return { ...forestLayout(input, 'wide'), narrow: forestLayout(input, 'narrow') };
+}
+
+function forestLayout(input: ForestInput, form: 'wide' | 'narrow'): PlotFigure {
   const z = normalQuantileUpper((1 - input.level) / 2);
   const digits = metricDigits(input.metric);
   const maxRows = input.maxRows ?? FOREST_MAX_ROWS;
@@ -126,54 +164,78 @@ export function forestFigure(input: ForestInput): PlotFigure {
   lo -= span * 0.05;
   hi += span * 0.05;
 
+  const narrow = form === 'narrow';
+  const width = LABEL_CHARS[form];
   const sq = { x: [] as number[], y: [] as number[], size: [] as number[], text: [] as string[] };
   const wx: Array<number | null> = [];
   const wy: Array<number | null> = [];
   const arrowsL = { x: [] as number[], y: [] as number[] };
   const arrowsR = { x: [] as number[], y: [] as number[] };
-  const colLabel = { y: [] as number[], text: [] as string[] };
-  const colYear = { y: [] as number[], text: [] as string[] };
-  const colN = { y: [] as number[], text: [] as string[] };
-  const colCi = { y: [] as number[], text: [] as string[] };
-  const colW = { y: [] as number[], text: [] as string[] };
+  const col = () => ({ y: [] as number[], text: [] as string[], hover: [] as string[] });
+  const colLabel = col();
+  const colYear = col();
+  const colN = col();
+  const colCi = col();
+  const colW = col();
   const diamonds: Array<Record<string, unknown>> = [];
   let maxW = 1e-9;
   for (const s of studies) if (s.weight > maxW) maxW = s.weight;
 
-  rows.forEach((r, i) => {
-    const y = -i;
-    if (r.kind === 'header') {
-      colLabel.y.push(y);
-      colLabel.text.push(`<b>${clip(r.text)}</b>`);
+  // Rows are placed from the top in lines: a wrapped label takes a line per piece; on a phone the label sits on
+  // its own lines above the row's marks. `cursor` is the next free line (y falls by one per line).
+  let cursor = 0;
+  const place = (label: string, bold: boolean, full = label) => {
+    const lines = wrapLabel(label, width, LABEL_LINES[form]).map((l) => (bold ? `<b>${esc(l)}</b>` : esc(l)));
+    const u = lines.length;
+    const labelY = narrow ? cursor - (u - 1) / 2 : cursor - (u - 1) / 2;
+    const markY = narrow ? cursor - u : labelY;
+    cursor -= narrow ? u + 1 : u;
+    colLabel.y.push(labelY);
+    colLabel.text.push(lines.join('<br>'));
+    colLabel.hover.push(esc(full));
+    return markY;
+  };
+  const clipped = (y: number, a: number, b: number) => {
+    if (a < lo) {
+      arrowsL.x.push(lo);
+      arrowsL.y.push(y);
+    }
+    if (b > hi) {
+      arrowsR.x.push(hi);
+      arrowsR.y.push(y);
+    }
+  };
+  const addCol = (c: ReturnType<typeof col>, y: number, text: string) => {
+    c.y.push(y);
+    c.text.push(text);
+  };
+
+  for (const r of rows) {
+    if (r.kind === 'gap') {
+      cursor -= 1;
+    } else if (r.kind === 'header') {
+      place(r.text, true);
     } else if (r.kind === 'study') {
       const { s } = r;
+      const about = narrow ? ` (${[s.year ?? '', s.n == null ? '' : `n = ${s.n}`, `${fmt(s.weight, 1)}%`].filter(Boolean).join(', ')})` : '';
+      const y = place(`${s.label}${about}`, false, s.label);
       sq.x.push(s.effect);
       sq.y.push(y);
-      sq.size.push(5 + 13 * Math.sqrt(s.weight / maxW));
-      sq.text.push(`${s.label}<br>${fmt(s.effect, digits)} [${fmt(r.lo, digits)}, ${fmt(r.hi, digits)}]<br>weight ${fmt(s.weight, 1)}%`);
+      sq.size.push((narrow ? 4 : 5) + (narrow ? 9 : 13) * Math.sqrt(s.weight / maxW));
+      sq.text.push(`${esc(s.label)}<br>${fmt(s.effect, digits)} [${fmt(r.lo, digits)}, ${fmt(r.hi, digits)}]<br>weight ${fmt(s.weight, 1)}%`);
       wx.push(Math.max(r.lo, lo), Math.min(r.hi, hi), null);
       wy.push(y, y, null);
-      if (r.lo < lo) {
-        arrowsL.x.push(lo);
-        arrowsL.y.push(y);
+      clipped(y, r.lo, r.hi);
+      if (!narrow) {
+        addCol(colYear, y, s.year == null ? '—' : String(s.year));
+        addCol(colN, y, s.n == null ? '—' : String(s.n));
+        addCol(colW, y, fmt(s.weight, 1));
       }
-      if (r.hi > hi) {
-        arrowsR.x.push(hi);
-        arrowsR.y.push(y);
-      }
-      colLabel.y.push(y);
-      colLabel.text.push(clip(s.label));
-      colYear.y.push(y);
-      colYear.text.push(s.year == null ? '—' : String(s.year));
-      colN.y.push(y);
-      colN.text.push(s.n == null ? '—' : String(s.n));
-      colCi.y.push(y);
-      colCi.text.push(`${fmt(s.effect, digits)} [${fmt(r.lo, digits)}, ${fmt(r.hi, digits)}]`);
-      colW.y.push(y);
-      colW.text.push(fmt(s.weight, 1));
+      addCol(colCi, y, `${fmt(s.effect, digits)} [${fmt(r.lo, digits)}, ${fmt(r.hi, digits)}]`);
     } else if (r.kind === 'diamond') {
       const d = r.d;
-      const h = r.sub ? 0.32 : 0.42;
+      const y = place(d.label, true);
+      const h = narrow ? 0.3 : r.sub ? 0.32 : 0.42;
       diamonds.push({
         type: 'scatter',
         mode: 'lines',
@@ -183,74 +245,88 @@ export function forestFigure(input: ForestInput): PlotFigure {
         fillcolor: r.sub ? C.pooledLight : C.pooled,
         line: { color: r.sub ? C.pooled : C.pooledDark, width: 1 },
         hoverinfo: 'text',
-        text: `${d.label}: ${fmt(d.estimate, digits)} [${fmt(d.ci_lower, digits)}, ${fmt(d.ci_upper, digits)}]`,
+        text: `${esc(d.label)}: ${fmt(d.estimate, digits)} [${fmt(d.ci_lower, digits)}, ${fmt(d.ci_upper, digits)}]`,
         hoveron: 'fills',
         name: d.label,
         meta: r.sub ? (byPaper ? 'paper' : 'subgroup') : 'pooled',
       });
-      colLabel.y.push(y);
-      colLabel.text.push(`<b>${clip(d.label)}</b>`);
-      colCi.y.push(y);
-      colCi.text.push(`<b>${fmt(d.estimate, digits)} [${fmt(d.ci_lower, digits)}, ${fmt(d.ci_upper, digits)}]</b>`);
-      colW.y.push(y);
-      colW.text.push(r.sub ? '' : '100.0');
+      // a diamond that runs past the axis is marked like a clipped interval
+      clipped(y, d.ci_lower, d.ci_upper);
+      addCol(colCi, y, `<b>${fmt(d.estimate, digits)} [${fmt(d.ci_lower, digits)}, ${fmt(d.ci_upper, digits)}]</b>`);
+      if (!narrow) addCol(colW, y, r.sub ? '' : '100.0');
     } else if (r.kind === 'pi') {
       const d = r.d;
+      const y = narrow ? place('Prediction interval', false) : cursor;
+      if (!narrow) {
+        colLabel.y.push(y);
+        colLabel.text.push('Prediction interval');
+        colLabel.hover.push('Prediction interval');
+        cursor -= 1;
+      }
       diamonds.push({
         type: 'scatter',
         mode: 'lines',
         x: [Math.max(d.pi_lower!, lo), Math.min(d.pi_upper!, hi)],
-        y: [y + 0.25, y + 0.25],
+        y: [y, y],
         line: { color: C.pooledDark, width: 3 },
         hoverinfo: 'text',
         text: `Prediction interval ${fmt(d.pi_lower, digits)} to ${fmt(d.pi_upper, digits)}`,
         name: 'Prediction interval',
         meta: 'prediction',
       });
-      colLabel.y.push(y + 0.25);
-      colLabel.text.push('Prediction interval');
-      colCi.y.push(y + 0.25);
-      colCi.text.push(`[${fmt(d.pi_lower, digits)}, ${fmt(d.pi_upper, digits)}]`);
+      clipped(y, d.pi_lower!, d.pi_upper!);
+      addCol(colCi, y, `[${fmt(d.pi_lower, digits)}, ${fmt(d.pi_upper, digits)}]`);
     }
-  });
+  }
+  const bottom = cursor + 1;
 
   const header = 1;
-  const textTrace = (axis: 'x2' | 'x3', x: number, col: { y: number[]; text: string[] }, position: string, name: string) => ({
+  const textTrace = (axis: 'x2' | 'x3', x: number, c: ReturnType<typeof col>, position: string, name: string) => ({
     type: 'scatter',
     mode: 'text',
     xaxis: axis,
-    x: col.y.map(() => x),
-    y: col.y,
-    text: col.text,
+    x: c.y.map(() => x),
+    y: c.y,
+    text: c.text,
     textposition: position,
-    textfont: { size: 11, color: C.ink },
-    hoverinfo: 'skip',
+    textfont: { size: narrow ? 10 : 11, color: C.ink },
+    ...(c.hover.length ? { hovertext: c.hover, hoverinfo: 'text' } : { hoverinfo: 'skip' }),
     cliponaxis: false,
     name,
   });
-  const headers = {
+  const headerTrace = (axis: 'x2' | 'x3', x: number[], text: string[], position: string[]) => ({
     type: 'scatter',
     mode: 'text',
-    xaxis: 'x2',
-    x: [0, 0.8, 1],
-    y: [header, header, header],
-    text: ['<b>Study</b>', '<b>Year</b>', '<b>n</b>'],
-    textposition: ['middle right', 'middle left', 'middle left'],
+    xaxis: axis,
+    x,
+    y: x.map(() => header),
+    text,
+    textposition: position,
+    textfont: { size: narrow ? 10 : 11, color: C.ink },
     hoverinfo: 'skip',
     cliponaxis: false,
-  };
-  const headersRight = {
-    type: 'scatter',
-    mode: 'text',
-    xaxis: 'x3',
-    x: [0.78, 1],
-    y: [header, header],
-    text: [`<b>${input.metricLabel} [${Math.round(input.level * 100)}% CI]</b>`, '<b>Weight %</b>'],
-    textposition: ['middle left', 'middle left'],
-    hoverinfo: 'skip',
-    cliponaxis: false,
-  };
+  });
+  const ciHead = `<b>${esc(input.metricLabel)} [${Math.round(input.level * 100)}% CI]</b>`;
+  // Columns: wide = labels | year | n | plot | estimate | weight; narrow = plot | estimate, the labels across the top of each row.
+  const ciX = narrow ? 1 : 0.78;
+  const texts = narrow
+    ? [
+        textTrace('x2', 0, colLabel, 'middle right', 'labels'),
+        textTrace('x3', ciX, colCi, 'middle left', 'estimates'),
+        headerTrace('x2', [0], ['<b>Study (year, n, weight)</b>'], ['middle right']),
+        headerTrace('x3', [ciX], [`<b>${Math.round(input.level * 100)}% CI</b>`], ['middle left']),
+      ]
+    : [
+        textTrace('x2', 0, colLabel, 'middle right', 'labels'),
+        textTrace('x2', 0.8, colYear, 'middle left', 'years'),
+        textTrace('x2', 1, colN, 'middle left', 'n'),
+        textTrace('x3', ciX, colCi, 'middle left', 'estimates'),
+        textTrace('x3', 1, colW, 'middle left', 'weights'),
+        headerTrace('x2', [0, 0.8, 1], ['<b>Study</b>', '<b>Year</b>', '<b>n</b>'], ['middle right', 'middle left', 'middle left']),
+        headerTrace('x3', [0.78, 1], [ciHead, '<b>Weight %</b>'], ['middle left', 'middle left']),
+      ];
 
+  const topAxis = rows.length > FOREST_TOP_AXIS_ROWS;
   const data: Array<Record<string, unknown>> = [
     { type: 'scatter', mode: 'lines', x: wx, y: wy, line: { color: C.inkSoft, width: 1 }, hoverinfo: 'skip', name: 'CI', meta: 'whiskers' },
     {
@@ -267,20 +343,16 @@ export function forestFigure(input: ForestInput): PlotFigure {
     { type: 'scatter', mode: 'markers', x: arrowsL.x, y: arrowsL.y, marker: { symbol: 'triangle-left', size: 8, color: C.inkSoft }, hoverinfo: 'skip', cliponaxis: false, name: 'CI continues left', meta: 'arrows' },
     { type: 'scatter', mode: 'markers', x: arrowsR.x, y: arrowsR.y, marker: { symbol: 'triangle-right', size: 8, color: C.inkSoft }, hoverinfo: 'skip', cliponaxis: false, name: 'CI continues right', meta: 'arrows' },
     ...diamonds,
-    textTrace('x2', 0, colLabel, 'middle right', 'labels'),
-    textTrace('x2', 0.8, colYear, 'middle left', 'years'),
-    textTrace('x2', 1, colN, 'middle left', 'n'),
-    textTrace('x3', 0.78, colCi, 'middle left', 'estimates'),
-    textTrace('x3', 1, colW, 'middle left', 'weights'),
-    headers,
-    headersRight,
+    ...texts,
   ];
+  // the top axis needs a trace of its own to be drawn: two invisible points at the ends of the range
+  if (topAxis) data.push({ type: 'scatter', mode: 'markers', xaxis: 'x4', x: [lo, hi], y: [header, header], marker: { opacity: 0 }, hoverinfo: 'skip', name: 'top axis', meta: 'top-axis' });
 
   const shapes: Array<Record<string, unknown>> = [
-    { type: 'line', xref: 'x', yref: 'y', x0: input.pooled.estimate, x1: input.pooled.estimate, y0: 0.5, y1: -(rows.length - 1), line: { color: C.pooled, width: 1, dash: 'dot' } },
+    { type: 'line', xref: 'x', yref: 'y', x0: input.pooled.estimate, x1: input.pooled.estimate, y0: 0.5, y1: bottom, line: { color: C.pooled, width: 1, dash: 'dot' } },
   ];
   if (nul !== null && nul >= lo && nul <= hi)
-    shapes.push({ type: 'line', xref: 'x', yref: 'y', x0: nul, x1: nul, y0: header - 0.4, y1: -(rows.length - 0.5), line: { color: C.inkFaint, width: 1 } });
+    shapes.push({ type: 'line', xref: 'x', yref: 'y', x0: nul, x1: nul, y0: header - 0.4, y1: bottom - 0.5, line: { color: C.inkFaint, width: 1 } });
 
   const annotations: Array<Record<string, unknown>> = [];
   if (omitted > 0)
@@ -296,26 +368,20 @@ export function forestFigure(input: ForestInput): PlotFigure {
       font: { size: 11, color: C.inkSoft },
     });
 
-  const height = Math.max(260, (rows.length + 2) * ROW_PX + 110);
+  const lines = header - bottom + 2;
+  const top = topAxis ? 64 : 24;
+  const height = Math.max(260, lines * LINE_PX[form] + top + (omitted ? 70 : 50));
+  const plotDomain = narrow ? [0, 0.6] : [0.4, 0.72];
+  const axisStyle = { range: [lo, hi], zeroline: false, showgrid: false, showline: true, linecolor: C.inkFaint, ticks: 'outside', tickcolor: C.inkFaint };
   const layout = {
     ...baseLayout(height),
     title: titleLayout(input.title ?? 'Forest plot'),
-    margin: { l: 8, r: 8, t: 40, b: omitted ? 70 : 50 },
-    xaxis: {
-      domain: [0.4, 0.72],
-      range: [lo, hi],
-      zeroline: false,
-      showgrid: false,
-      showline: true,
-      linecolor: C.inkFaint,
-      ticks: 'outside',
-      tickcolor: C.inkFaint,
-      title: { text: input.metricLabel, font: { size: 11 } },
-      fixedrange: false,
-    },
-    xaxis2: { domain: [0, 0.38], range: [0, 1], visible: false, fixedrange: true },
-    xaxis3: { domain: [0.74, 1], range: [0, 1], visible: false, fixedrange: true },
-    yaxis: { range: [-(rows.length - 0.4), header + 0.6], visible: false, fixedrange: true },
+    margin: { l: 8, r: 8, t: top, b: omitted ? 70 : 50 },
+    xaxis: { ...axisStyle, domain: plotDomain, title: { text: esc(input.metricLabel), font: { size: 11 } }, fixedrange: false },
+    xaxis2: { domain: [0, narrow ? 1 : 0.38], range: [0, 1], visible: false, fixedrange: true },
+    xaxis3: { domain: [narrow ? 0.62 : 0.74, 1], range: [0, 1], visible: false, fixedrange: true },
+    ...(topAxis ? { xaxis4: { ...axisStyle, overlaying: 'x', side: 'top', anchor: 'y', matches: 'x', fixedrange: false } } : {}),
+    yaxis: { range: [bottom - 0.6, header + 0.6], visible: false, fixedrange: true },
     shapes,
     annotations,
   };

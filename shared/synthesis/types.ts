@@ -230,6 +230,8 @@ export interface Caution {
 export interface PlotFigure {
   data: Array<Record<string, unknown>>;
   layout: Record<string, unknown>;
+  /** the same figure laid out for a phone-width box, drawn there instead (forest plots) */
+  narrow?: PlotFigure;
 }
 
 export interface SynthesisFigures {

@@ -109,4 +109,49 @@ export const specs: Spec[] = [
       for (const p of ['/admin/people', '/admin/audit', '/admin/mail']) await fitsThePhone(page, p);
     },
   },
+  {
+    name: 'at 390 px the forest plot is drawn narrow: labels above their rows, nothing overprinted or cut off, no second title; wide again on a wide screen',
+    async run(page) {
+      await page.setViewportSize(PHONE);
+      await signInThroughPage(page, 'reviewer');
+      await page.goto(appUrl('/synthesis'));
+      await page.getByLabel('Manipulation').selectOption(['luminance']);
+      await page.getByLabel('Outcome kind').selectOption('duration_distortion');
+      await page.getByLabel('Standardized mean differences').selectOption('raw_score');
+      await page.getByLabel('Subgroups by').selectOption('task');
+      await page.getByRole('button', { name: 'Run synthesis' }).click();
+      const figure = page.getByRole('figure', { name: 'Forest plot' });
+      const svg = figure.locator('svg.main-svg').first();
+      await svg.waitFor({ timeout: 40_000 });
+      await figure.getByText('Study (year, n, weight)').waitFor();
+      assert.equal(await figure.getByText('Weight %').count(), 0);
+
+      const drawn = await figure.evaluate((fig) => {
+        const box = fig.querySelector('svg.main-svg')!.getBoundingClientRect();
+        const texts = [...fig.querySelectorAll('.textpoint text')].map((t) => ({ text: t.textContent ?? '', r: t.getBoundingClientRect() })).filter((t) => t.text && t.r.width > 0);
+        const overlaps: string[] = [];
+        for (let i = 0; i < texts.length; i++)
+          for (let j = i + 1; j < texts.length; j++) {
+            const a = texts[i].r;
+            const b = texts[j].r;
+            if (a.left < b.right - 1 && b.left < a.right - 1 && a.top < b.bottom - 1 && b.top < a.bottom - 1) overlaps.push(`"${texts[i].text}" / "${texts[j].text}"`);
+          }
+        const outside = texts.filter((t) => t.r.left < box.left - 1 || t.r.right > box.right + 1).map((t) => t.text);
+        const title = [...fig.querySelectorAll('.gtitle')].map((t) => t.textContent ?? '').join('');
+        return { n: texts.length, overlaps, outside, title, right: box.right };
+      });
+      assert.ok(drawn.n > 5, `only ${drawn.n} labels drawn`);
+      assert.deepEqual(drawn.overlaps, [], 'labels overprint');
+      assert.deepEqual(drawn.outside, [], 'labels cut off at the edge');
+      assert.equal(drawn.title, '', 'the plot draws no title of its own (the caption names it)');
+      assert.ok(drawn.right <= PHONE.width, `the plot reaches ${drawn.right} px`);
+      assert.ok((await page.evaluate(() => document.documentElement.scrollWidth)) <= PHONE.width);
+      // the caption names the figure once
+      assert.equal(await figure.getByText('Forest plot', { exact: true }).count(), 1);
+
+      await page.setViewportSize({ width: 1280, height: 900 });
+      await figure.getByText('Weight %').waitFor();
+      assert.equal(await figure.getByText('Study (year, n, weight)').count(), 0);
+    },
+  },
 ];
