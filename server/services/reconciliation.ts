@@ -22,6 +22,7 @@ import { settledMail } from './extraction-mails.js';
 import { queueMails, type OutgoingMail } from './mail.js';
 import { resolveManipulations } from './manipulations.js';
 import { createSettledRecord } from './settlement.js';
+import { fieldProblemInWords } from '../../shared/schemas/plain-words.js';
 
 /** A coder of the pair may not read or settle its reconciliation (blind coding, independent settling). */
 function refuseOwnPair(a: Pick<AssignmentRow, 'coder1_id' | 'coder2_id'>, actorId: number) {
@@ -77,7 +78,7 @@ const isStudyField = (f: string): f is StudyField => (STUDY_FIELDS as readonly s
 /** Checks a curator's own value for a field has the field's type and vocabulary (`at` names it in errors). */
 function checkValue(field: string, value: unknown, at = 'body.value'): unknown {
   const name = at.replace(/^body\./, '');
-  const fail = (message: string) => new ValidationError(`${name}: ${message}`, [{ path: at, message }]);
+  const fail = (message: string) => new ValidationError(fieldProblemInWords(name, message), [{ path: at, message }]);
   if (field === 'studies' || field === 'effects') throw new UnprocessableError('A count is settled by taking one coder’s list (a or b), not by entering a value.');
   if (isStudyField(field)) {
     const r = studyDraftSchema.shape[field].safeParse(value);
@@ -94,7 +95,7 @@ function checkValue(field: string, value: unknown, at = 'body.value'): unknown {
     if (!r.success) throw fail(r.error.issues[0].message);
     if (!r.data.form) throw fail('choose how the result was reported');
     const c = tryComputeReported(r.data.form, r.data.reported as Reported, r.data.assumedR ?? null);
-    if (!c.ok) throw new ValidationError(`${name}.reported: ${c.error}`, [{ path: `${at}.reported${c.field ? `.${c.field}` : ''}`, message: c.error! }]);
+    if (!c.ok) throw new ValidationError(fieldProblemInWords(`${name}.reported${c.field ? `.${c.field}` : ''}`, c.error!), [{ path: `${at}.reported${c.field ? `.${c.field}` : ''}`, message: c.error! }]);
     return { form: r.data.form, reported: r.data.reported, assumedR: r.data.assumedR ?? null, metric: c.result!.metric, effect: c.result!.effect, variance: c.result!.variance };
   }
   throw fail(`no field ${field}`);
@@ -150,7 +151,7 @@ export async function reconcilePair(ctx: MailingDeps, actorId: number, assignmen
     if (a.version !== input.version) throw new ConflictError(`This pair changed since you opened it (version ${input.version}, now ${a.version}): reload it to see the decisions made since.`);
     const ds = new Map((await discrepanciesOf(trx, assignmentId)).map((d) => [d.id, d]));
     const unknown = input.decisions.flatMap((x, i) => (ds.has(x.discrepancyId) ? [] : [{ path: `body.decisions.${i}.discrepancyId`, message: `no discrepancy ${x.discrepancyId} in this pair` }]));
-    if (unknown.length) throw new ValidationError(`decisions: ${unknown.map((u) => u.message).join('; ')}`, unknown);
+    if (unknown.length) throw new ValidationError(`Decisions: ${unknown.map((u) => u.message).join('; ')}.`, unknown);
     const decided = new Set(input.decisions.map((x) => x.discrepancyId));
     const missing = [...ds.values()].filter((d) => d.status === 'open' && !decided.has(d.id));
     if (missing.length) {

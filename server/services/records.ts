@@ -26,6 +26,7 @@ import { queueMails, type OutgoingMail } from './mail.js';
 import { resolveManipulations } from './manipulations.js';
 import { assertQuantities } from './quantities.js';
 import { parseCompleteSheet, saveSheet } from './settlement.js';
+import { fieldProblemInWords } from '../../shared/schemas/plain-words.js';
 
 export async function listRecords(db: Knex, referenceId: number): Promise<RecordHistory> {
   const [rows, settlements] = await Promise.all([recordsOf(db, referenceId), settlementsOf(db, referenceId)]);
@@ -164,7 +165,7 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
     const metrics = c?.ok ? [c.result!.metric] : e.form ? METRICS_OF_FORM[e.form] : [];
     if (e.outcome && metrics.length && !metrics.some((m) => OUTCOMES[e.outcome!].metrics.includes(m)))
       problems.push({ path: 'body.effect.form', message: `${OUTCOMES[e.outcome].label} is not pooled as ${metrics.map((m) => METRIC_LABELS[m]).join(' or ')}` });
-    if (problems.length) throw new ValidationError(`${problems[0].path}: ${problems[0].message}`, problems);
+    if (problems.length) throw new ValidationError(fieldProblemInWords(problems[0].path, problems[0].message), problems);
     assertQuantities([{ at: '', label: `Effect ${effectId}`, effect: e }], 'body.effect.');
     const ids = await resolveManipulations(trx, [e.manipulation!]);
     const before = { outcome: f.outcome, parameter: f.parameter, unit: f.unit, manipulationId: f.manipulation_id, form: f.report_form, reported: f.reported, effect: f.effect, variance: f.variance };

@@ -12,13 +12,14 @@ import { MultilevelModelError } from '../../shared/synthesis/run-multilevel.js';
 import { rowOrder } from '../../shared/synthesis/answer-rows.js';
 import type { SettledEffect, SynthesisOutput } from '../../shared/synthesis/types.js';
 import { PARAMETER_LABELS, UNIT_LABELS, type Parameter, type Unit } from '../../shared/vocabulary/parameters.js';
+import { fieldProblemInWords } from '../../shared/schemas/plain-words.js';
 
 /** The settled-effect filters a request means (an SMD family widens the metric filter to its members). */
 export function requestFilters(request: SynthesisRequest): SettledEffectFilters {
   try {
     return { ...request.filters, metric: metricFilter(request) };
   } catch (err) {
-    if (err instanceof SmdFamilyFilterError) throw new ValidationError(`body.smdFamily: ${err.message}`, [{ path: 'body.smdFamily', message: err.message }]);
+    if (err instanceof SmdFamilyFilterError) throw new ValidationError(fieldProblemInWords('smdFamily', err.message), [{ path: 'body.smdFamily', message: err.message }]);
     throw err;
   }
 }

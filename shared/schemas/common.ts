@@ -1,4 +1,6 @@
 import { z } from 'zod';
+// zod's fallback messages in words for people (installs z.config once, for both ends)
+import './plain-words.js';
 
 /** An id in a path or query: a positive integer PostgreSQL's `integer` holds (so `99999999999999999999` is refused). */
 export const MAX_ID = 2_147_483_647;

@@ -19,7 +19,7 @@ export const followCreateSchema = z
   .strict()
   .superRefine((v, ctx) => {
     if ((v.request === undefined) === (v.snapshotId === undefined))
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: [v.request === undefined ? 'request' : 'snapshotId'], message: 'give either request (a synthesis to follow) or snapshotId (a snapshot to follow), one of the two' });
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: [v.request === undefined ? 'request' : 'snapshotId'], message: 'follow either a synthesis or a snapshot, one of the two' });
   });
 export type FollowCreate = z.infer<typeof followCreateSchema>;
 

@@ -33,7 +33,7 @@ export const synthesisFiltersSchema = z
   })
   .strict()
   .refine((f) => f.yearFrom === undefined || f.yearTo === undefined || f.yearFrom <= f.yearTo, {
-    message: 'yearFrom must not be after yearTo',
+    message: 'the from-year must not be after the to-year',
     path: ['yearTo'],
   });
 export type SynthesisFilters = z.infer<typeof synthesisFiltersSchema>;
@@ -79,12 +79,15 @@ export const CONTINUOUS_MODERATORS: readonly RegressionModerator[] = ['standardM
 export const SUBGROUP_TAU2_MODELS = ['separate', 'pooled'] as const;
 export type SubgroupTau2Model = (typeof SUBGROUP_TAU2_MODELS)[number];
 
+/** A synthesis's confidence level, from 50% to 99.9%. */
+const CONFIDENCE_LEVEL_MESSAGE = 'the confidence level must be between 50% and 99.9%';
+
 export const synthesisRequestSchema = z
   .object({
     filters: synthesisFiltersSchema.default({}),
     method: z.enum(METHODS).default('DL'),
     hksj: z.boolean().default(false),
-    level: z.number().gt(0.5).lt(1).default(0.95),
+    level: z.number({ error: CONFIDENCE_LEVEL_MESSAGE }).min(0.5, CONFIDENCE_LEVEL_MESSAGE).max(0.999, CONFIDENCE_LEVEL_MESSAGE).default(0.95),
     dependence: dependenceSchema.default({ mode: 'aggregate', r: 0.5 }),
     subgroup: z.enum(SUBGROUP_VARIABLES).optional(),
     moderator: z.enum(MODERATORS).optional(),
@@ -149,7 +152,7 @@ export const synthesisRowsQuerySchema = pagingSchema(SYNTHESIS_ROW_SORTS, 'posit
   .extend({ rows: z.enum(['all', 'page', 'none'], { message: 'rows must be all, page or none' }).default('all') })
   .superRefine((q, ctx) => {
     if (q.rows !== 'page' && (q.page !== 1 || q.pageSize !== 50 || q.sort !== 'position' || q.order !== 'asc')) {
-      ctx.addIssue({ code: 'custom', path: ['rows'], message: 'page, pageSize, sort and order apply only with rows=page' });
+      ctx.addIssue({ code: 'custom', path: ['rows'], message: 'paging and sorting the rows apply only when the rows are asked for page by page' });
     }
   });
 export type SynthesisRowsQuery = z.infer<typeof synthesisRowsQuerySchema>;

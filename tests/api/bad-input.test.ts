@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { bib } from '../support/references.js';
+import { pathLikeIn } from '../support/words.js';
 
 const refCount = async (t: TestApp) => Number((await t.ctx.db('refs').count({ n: '*' }).first())?.n);
 
@@ -100,5 +101,32 @@ describe('bad input: ids, numbers, lengths and garbage', () => {
     const upload = await coder.post('/api/imports').attach('file', Buffer.from('garbage garbage'), 'junk.bib');
     expect(upload.status).toBe(422);
     expect(await batches()).toBe(before);
+  });
+
+  it('words every refusal of bad input for people: no schema path, zod wording or API syntax in the message', async () => {
+    const reviewer = await signIn(t.app, 'reviewer');
+    const level = await reviewer.post('/api/syntheses').send({ level: 2 });
+    expect(level.status).toBe(400);
+    expect(level.body.error.message).toBe('The confidence level must be between 50% and 99.9%.');
+    expect(level.body.error.details).toEqual([{ path: 'body.level', message: 'the confidence level must be between 50% and 99.9%' }]);
+    const token = await reviewer.post('/api/tokens').send({ name: '  ' });
+    expect(token.status).toBe(400);
+    expect(token.body.error.message).toBe('Give the token a name.');
+    const refusals = [
+      level,
+      token,
+      await reviewer.post('/api/syntheses').send({ filters: { yearFrom: 'soon' }, dependence: { mode: 'pairs' }, extra: 1 }),
+      await reviewer.post('/api/syntheses').send([1, 2]),
+      await reviewer.get('/api/references?page=0&pageSize=a'),
+      await reviewer.get('/api/snapshots?sort=nothing'),
+      await coder.post('/api/imports').send({ format: 'word', text: 5 }),
+      await reviewer.post('/api/follows').send({ seShare: -1 }),
+    ];
+    for (const res of refusals) {
+      expect(res.status, JSON.stringify(res.body)).toBe(400);
+      const { message, details } = res.body.error as { message: string; details: Array<{ message: string }> };
+      expect(pathLikeIn(message), message).toEqual([]);
+      for (const d of details) expect(pathLikeIn(d.message), d.message).toEqual([]);
+    }
   });
 });

@@ -35,16 +35,16 @@ describe('POST /api/compute/pool and /api/compute/effect', () => {
     const tooMany = await request(t.app).post('/api/compute/pool').send({ effects: [...effects, 0], variances: [...variances, 1] });
     expect(tooMany.status).toBe(400);
     expect(tooMany.body.error.code).toBe('invalid_input');
-    expect(tooMany.body.error.message).toMatch(/effects/);
+    expect(tooMany.body.error.message).toMatch(/^Effects: at most/);
   });
 
   it('refuses bad input with the error shape and the offending position', async () => {
     const cases: [unknown, RegExp][] = [
       [{ effects: [1, 2], variances: [1, 0] }, /variances\[1\] must be a positive finite number/],
       [{ effects: [1, 2], variances: [1] }, /same length/],
-      [{ effects: [], variances: [] }, /effects/],
-      [{ effects: [1], variances: [1], method: 'ML' }, /method/],
-      [{ effects: ['a'], variances: [1] }, /effects/],
+      [{ effects: [], variances: [] }, /^Effects: /],
+      [{ effects: [1], variances: [1], method: 'ML' }, /^Method: choose one of the listed values/],
+      [{ effects: ['a'], variances: [1] }, /^Effect 1: enter a number/],
     ];
     for (const [body, message] of cases) {
       const res = await request(t.app).post('/api/compute/pool').send(body as object);

@@ -48,7 +48,7 @@ describe('following a snapshot, and a snapshot against today’s registry', () =
     expect(both.body.error.details[0].path).toMatch(/snapshotId/);
     const neither = await reader.post('/api/follows').send({ seShare: 0.5 });
     expect(neither.status).toBe(400);
-    expect(neither.body.error.details[0].message).toMatch(/either request .* or snapshotId/);
+    expect(neither.body.error.details[0].message).toBe('follow either a synthesis or a snapshot, one of the two');
     const unknown = await reader.post('/api/follows').send({ snapshotId: '0000000000000000' });
     expect(unknown.status).toBe(404);
     expect(unknown.body.error.message).toMatch(/No snapshot 0000000000000000/);

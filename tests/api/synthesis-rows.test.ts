@@ -74,6 +74,6 @@ describe('POST /api/syntheses?rows=page|none', () => {
       expect(res.body.error.details.map((d: any) => d.path)).toContain(path);
     }
     const alone = await anonymous(t.app).post('/api/syntheses?page=2').send(request);
-    expect(alone.body.error.details[0].message).toBe('page, pageSize, sort and order apply only with rows=page');
+    expect(alone.body.error.details[0].message).toBe('paging and sorting the rows apply only when the rows are asked for page by page');
   });
 });

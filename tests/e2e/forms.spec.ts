@@ -81,7 +81,7 @@ export const specs: Spec[] = [
       await page.getByLabel('From year').fill('2030');
       await page.getByLabel('To year').fill('2000');
       await page.getByRole('button', { name: 'Run synthesis' }).click();
-      await page.getByText('✕ yearFrom must not be after yearTo').waitFor();
+      await page.getByText('✕ the from-year must not be after the to-year').waitFor();
       assert.equal(new URL(page.url()).search, '');
 
       await page.getByLabel('From year').fill('');

@@ -238,7 +238,7 @@ describe('synthesis form schema: messages at the form fields', () => {
     v.dependence.r = 'half';
     expect(Object.fromEntries(issues(v))).toEqual({
       'filters.yearFrom': 'a year has four digits',
-      level: 'must be above 0.5',
+      level: 'the confidence level must be between 50% and 99.9%',
       'dependence.r': 'enter a number, such as 0.95',
     });
   });
@@ -247,7 +247,7 @@ describe('synthesis form schema: messages at the form fields', () => {
     const v = values();
     v.filters.yearFrom = '2010';
     v.filters.yearTo = '2000';
-    expect(issues(v)).toEqual([['filters.yearTo', 'yearFrom must not be after yearTo']]);
+    expect(issues(v)).toEqual([['filters.yearTo', 'the from-year must not be after the to-year']]);
   });
 
   it('a level or correlation that is not a number, or out of range', () => {

@@ -13,6 +13,7 @@ import { Button } from '../../../components/ui/Button';
 import { Field, messageAt } from '../../../components/ui/Field';
 import { ErrorNote } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
+import { fieldInWords } from '../../../lib/forms/plain-words';
 import type { z } from 'zod';
 import { ApiRequestError } from '../../../lib/api-client';
 import { useSaveExtraction } from '../api/save-extraction';
@@ -363,7 +364,7 @@ export function SheetForm({
     if (!complete.success) {
       for (const issue of complete.error.issues) setError(issue.path.join('.') as any, { message: issue.message });
       const first = complete.error.issues[0];
-      setSave({ kind: 'error', message: `Not ready to submit: ${first.path.join('.') || 'sheet'} — ${first.message}${complete.error.issues.length > 1 ? ` (and ${complete.error.issues.length - 1} more, marked below)` : ''}` });
+      setSave({ kind: 'error', message: `Not ready to submit: ${first.path.length ? fieldInWords(first.path) : 'the sheet'} — ${first.message}${complete.error.issues.length > 1 ? ` (and ${complete.error.issues.length - 1} more, marked below)` : ''}` });
       return;
     }
     if (!(await flush())) return;

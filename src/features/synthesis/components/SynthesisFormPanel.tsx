@@ -149,7 +149,7 @@ export function SynthesisFormPanel({ form, onRun, facets, running }: { form: Syn
           </label>
           <FieldError message={err('hksj')} />
         </div>
-        <SynthesisField label="Confidence level" error={err('level')} hint="e.g. 0.95">
+        <SynthesisField label="Confidence level" error={err('level')} hint="e.g. 0.95 for 95%">
           <input inputMode="decimal" {...register('level')} className={`${inputClass} w-20`} />
         </SynthesisField>
         <SynthesisField label="Several effects in one study" error={err('dependence.mode')}>
