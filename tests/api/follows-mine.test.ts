@@ -32,9 +32,9 @@ describe("one's own follows: list and stop without the mail's link", () => {
     const [first, second] = res.body.items;
     expect(first).toMatchObject({ seShare: 0.25, weightShare: 0.2, feedUrl: `${process.env.APP_ORIGIN}/api/follows/${ids[0]}/feed.atom` });
     expect(first.request.filters).toEqual(luminance.request.filters);
-    expect(first.summary).toBe("manipulation: luminance; outcome: Duration distortion; metric: Hedges' g_s (independent groups) — DerSimonian–Laird; effects within a study combined with r = 0.50");
+    expect(first.summary).toBe("Manipulation: Luminance; Outcome kind: Duration distortion; Metric: Hedges' g_s (independent groups) — DerSimonian–Laird; effects within a study combined with r = 0.50");
     expect(second).toMatchObject({ seShare: 0.5, weightShare: 0.2 });
-    expect(second.summary).toBe('manipulation: pitch, luminance; years 2000–… — REML with HKSJ; effects within a study combined with r = 0.50');
+    expect(second.summary).toBe('Manipulation: Pitch, Luminance; years 2000–… — REML with HKSJ; effects within a study combined with r = 0.50');
     const theirs = await other.get('/api/follows');
     expect(theirs.body.items).toHaveLength(1);
     expect(theirs.body.items[0].id).not.toBe(ids[0]);

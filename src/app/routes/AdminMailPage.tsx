@@ -7,6 +7,7 @@ import { useMailbox } from '../../features/mailbox/api/get-mailbox';
 import { useResendMail } from '../../features/mailbox/api/resend-mail';
 import { Button } from '../../components/ui/Button';
 import { RequireRole } from './RequireRole';
+import { labelOf } from '../../../shared/vocabulary/labels';
 
 const when = (s: string | null) => (s ? new Date(s).toISOString().slice(0, 19).replace('T', ' ') : '—');
 
@@ -31,7 +32,9 @@ export function AdminMailPage() {
         <select className="rounded border border-paper-edge bg-white px-2 py-1" value={status} onChange={(e) => (setStatus(e.target.value), setLogPage(1))}>
           <option value="">all</option>
           {['queued', 'sent', 'retrying', 'failed'].map((s) => (
-            <option key={s}>{s}</option>
+            <option key={s} value={s}>
+              {labelOf('state', s)}
+            </option>
           ))}
         </select>
       </label>

@@ -9,6 +9,7 @@ import { StateBadge } from '../../components/ui/StateBadge';
 import { useClaimReference } from '../../features/extraction/api/claim-reference';
 import { useClaimable, type ClaimableQuery } from '../../features/extraction/api/get-claimable';
 import { RequireRole } from './RequireRole';
+import { labelOf } from '../../../shared/vocabulary/labels';
 
 function ClaimList() {
   const [q, setQ] = useState<ClaimableQuery>({ page: 1, pageSize: 10, sort: 'reference', order: 'asc' });
@@ -71,7 +72,9 @@ export function MyExtractionsPage() {
         <select className="rounded border border-paper-edge bg-white px-2 py-1" value={q.state ?? ''} onChange={(e) => setQ({ ...q, state: (e.target.value || undefined) as MyExtractionsQuery['state'], page: 1 })}>
           <option value="">all</option>
           {['draft', 'submitted', 'disputed', 'settled'].map((s) => (
-            <option key={s}>{s}</option>
+            <option key={s} value={s}>
+              {labelOf('state', s)}
+            </option>
           ))}
         </select>
       </label>

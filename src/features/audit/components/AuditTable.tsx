@@ -1,3 +1,5 @@
+import { auditRecordText } from '../../../../shared/vocabulary/audit';
+import { labelOf } from '../../../../shared/vocabulary/labels';
 import { useState } from 'react';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
@@ -44,10 +46,8 @@ export function AuditTable() {
                   <td className="num">{a.id}</td>
                   <td className="num">{a.at.slice(0, 19).replace('T', ' ')}</td>
                   <td>{a.actorLogin ? `@${a.actorLogin}` : 'system'}</td>
-                  <td>{a.action}</td>
-                  <td>
-                    {a.entityType} {a.entityId}
-                  </td>
+                  <td>{labelOf('auditAction', a.action)}</td>
+                  <td>{auditRecordText(a.entityType, a.entityId)}</td>
                   <td className="font-mono text-xs">{JSON.stringify(a.details)}</td>
                 </tr>
               ))}

@@ -13,6 +13,7 @@ import { exportHref } from '../api/export-references';
 import { FIRST_REFERENCES_PAGE, firstReferencesQuery, useReferences } from '../api/get-references';
 import { NO_FILTERS, referenceFiltersSchema, type ReferenceFilterValues } from '../forms/reference-filters';
 import { ScreeningStatusWord } from './StatusWord';
+import { labelOf } from '../../../../shared/vocabulary/labels';
 
 type Sort = ReferenceListQuery['sort'];
 const input = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
@@ -63,7 +64,7 @@ export function ReferencesTable({ batch }: { batch?: number }) {
             <option value="">any</option>
             {SCREENING_STATUSES.map((s) => (
               <option key={s} value={s}>
-                {s}
+                {labelOf('screening', s)}
               </option>
             ))}
           </select>
