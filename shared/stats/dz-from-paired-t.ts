@@ -1,4 +1,4 @@
-import { correlation, finite, positive, result, sampleSize, type EffectSize } from './effect-checks.js';
+import { correlation, finite, positive, result, sampleSize, sizeWithSd, type EffectSize } from './effect-checks.js';
 import { hedgesJ } from './hedges-correction.js';
 
 /**
@@ -26,7 +26,7 @@ export function dzFromPairedT(t: number, n: number, formula = 'smd.paired.dz_t')
 export function dzFromDifferences(meanDiff: number, sdDiff: number, n: number, formula = 'smd.paired.dz_sd_diff'): EffectSize {
   finite('mean_diff', meanDiff);
   positive('sd_diff', sdDiff);
-  sampleSize('n', n, 3);
+  sizeWithSd('n', n, 'sd_diff', 3);
   return gzFromDz(meanDiff / sdDiff, n, formula);
 }
 
@@ -36,6 +36,7 @@ export function dzFromConditionSds(mean1: number, sd1: number, mean2: number, sd
   finite('mean2', mean2);
   positive('sd1', sd1);
   positive('sd2', sd2);
+  sizeWithSd('n', n, 'sd1', 3);
   correlation('r', r);
   return dzFromDifferences(mean1 - mean2, Math.sqrt(sd1 * sd1 + sd2 * sd2 - 2 * r * sd1 * sd2), n, 'smd.paired.dz_sds');
 }

@@ -37,10 +37,14 @@ export function sampleSize(name: string, x: unknown, min = 2): number {
   return x;
 }
 
-/** A sample size that comes with an SD (or an SE turned into one): an SD needs at least two observations. */
-export function sizeWithSd(name: string, x: unknown, sdName: string): number {
-  if (x === 1) throw new StatsInputError(`${name} = 1 cannot come with a standard deviation (${sdName}); an SD needs at least 2 observations`, name);
-  return sampleSize(name, x, 2);
+/**
+ * A sample size that comes with an SD (or an SE, or quartiles, turned into one): an SD needs at least two
+ * observations. `spread` says what came with it in words (default: a standard deviation (sdName)); `min` is the
+ * form's own least n, checked after.
+ */
+export function sizeWithSd(name: string, x: unknown, sdName: string, min = 2, spread = `a standard deviation (${sdName})`): number {
+  if (x === 1) throw new StatsInputError(`${name} = 1 cannot come with ${spread}; an SD needs at least 2 observations`, name);
+  return sampleSize(name, x, min);
 }
 
 export function correlation(name: string, x: unknown): number {

@@ -28,7 +28,7 @@ const present = (o: GroupFields, key: string) => o[key] !== undefined;
 export function meanSdFromMedian(f: { median: number; lower_quartile?: number; upper_quartile?: number; min?: number; max?: number; n: number }, suffix = ''): { mean: number; sd: number } {
   const name = (k: string) => `${k}${suffix}`;
   const m = finite(name('median'), f.median);
-  const n = sizeWithSd(name('n'), f.n, name('median'));
+  const n = sizeWithSd(name('n'), f.n, name('median'), 2, `quartiles or a range (the SD estimated from them)`);
   const hasIqr = f.lower_quartile !== undefined || f.upper_quartile !== undefined;
   const hasRange = f.min !== undefined || f.max !== undefined;
   if (!hasIqr && !hasRange)

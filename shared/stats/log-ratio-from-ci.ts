@@ -28,12 +28,16 @@ export function logRatioFromCi(point: number, ciLower: number, ciUpper: number, 
   const scale = percent ? 100 : 1;
   const offLog = offCentre(point, ciLower, ciUpper, (x) => Math.log(toRatio(x)), 1 / (scale * ratio));
   const offLinear = offCentre(point, ciLower, ciUpper, (x) => x, 1);
-  if (offLog > 1 && offLinear > 1)
+  if (offLog > 1 && offLinear > 1) {
+    const halves = (f: (x: number) => number) => `${+(f(point) - f(ciLower)).toPrecision(3)} and ${+(f(ciUpper) - f(point)).toPrecision(3)}`;
+    const logHalves = halves((x) => Math.log(toRatio(x)));
     throw new StatsInputError(
-      `the interval ${ciLower} to ${ciUpper} is centred on ${name} ${point} neither on the log scale nor on the reported scale; ` +
-        'an SE can only be recovered from a symmetric interval — check the numbers, or enter the means and SDs instead',
+      `the interval ${ciLower} to ${ciUpper} is not centred on ${name} ${point} on either scale (halves ${logHalves} on the log scale, ` +
+        `${halves((x) => x)} in ${percent ? 'percent' : 'ratio units'}); an SE can only be recovered from an interval symmetric on one of them — ` +
+        'check the numbers, or enter the group means and SDs instead',
       'ci_lower',
     );
+  }
   const base = percent ? 'lnrom.percent_ci' : 'lnrom.ratio_ci';
   if (offLog <= offLinear) {
     const se = (Math.log(upper) - Math.log(lower)) / (2 * c);

@@ -1,4 +1,4 @@
-import { correlation, finite, positive, result, sampleSize, type EffectSize } from './effect-checks.js';
+import { correlation, finite, positive, result, sizeWithSd, type EffectSize } from './effect-checks.js';
 import { hedgesJ } from './hedges-correction.js';
 
 /**
@@ -15,7 +15,7 @@ export function smdPairedSds(mean1: number, sd1: number, mean2: number, sd2: num
   finite('mean2', mean2);
   positive('sd1', sd1);
   positive('sd2', sd2);
-  sampleSize('n', n, 3);
+  sizeWithSd('n', n, 'sd1', 3);
   correlation('r', r);
   const sAv = Math.sqrt((sd1 * sd1 + sd2 * sd2) / 2);
   const j = hedgesJ((2 * (n - 1)) / (1 + r * r));

@@ -1,4 +1,4 @@
-import { correlation, finite, positive, result, sampleSize, type EffectSize } from './effect-checks.js';
+import { correlation, finite, positive, result, sampleSize, sizeWithSd, type EffectSize } from './effect-checks.js';
 import { hedgesJ } from './hedges-correction.js';
 
 /**
@@ -23,7 +23,7 @@ export function rawScoreFromD(d: number, n: number, r: number, formula: string):
 export function smdPaired(meanDiff: number, sdDiff: number, n: number, r: number): EffectSize {
   finite('mean_diff', meanDiff);
   positive('sd_diff', sdDiff);
-  sampleSize('n', n, 3);
+  sizeWithSd('n', n, 'sd_diff', 3);
   correlation('r', r);
   const sRm = sdDiff / Math.sqrt(2 * (1 - r));
   return rawScoreFromD(meanDiff / sRm, n, r, 'smd.paired.sd_diff');

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import * as migration from '../../migrations/20261206900000_add_response_odds_parameter.js';
 import { computeReported } from '../../shared/extraction/compute.js';
-import { createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
+import { anonymous, createTestApp, resetDb, signIn, type Agent, type TestApp } from '../support/test-app.js';
 import { insertReference, luminanceSheet } from './extraction-fixtures.js';
 
 // The sheet's forms for a ratio or percent change with its CI and for 2×2 counts (issue 11), over the API.
@@ -90,5 +90,48 @@ describe('sheet forms: ratio and percent change with a CI, 2×2 counts', () => {
     expect(res.status).toBe(400);
     const detail = res.body.error.details.find((x: { path: string }) => x.path === 'sheet.studies.0.effects.0.form');
     expect(detail.message).toMatch(/Simultaneity window is pooled as raw mean or mean difference, not log odds ratio/);
+  });
+
+  it('on submit, n = 1 with an SD and an interval not centred on its estimate are refused beside their fields, in words', async () => {
+    const ref = await insertReference(t.ctx.db, { firstAuthor: 'Szabadkai', year: 2021 });
+    const claimed = await coder.post('/api/extractions').send({ referenceId: ref });
+    const sheet = sheetWith([
+      { form: 'smd_paired', reported: { mean_diff: 40, sd_diff: 30, n: 1, r: 0.7 } },
+      { form: 'ratio_ci', reported: { ratio: 1.2, ci_lower: 1.1, ci_upper: 1.6 } },
+      { form: 'mean_diff', reported: { mean_diff: 12, ci_lower: 1, ci_upper: 30 } },
+    ]);
+    const saved = await coder.put(`/api/extractions/${claimed.body.id}`).send({ version: 1, sheet });
+    expect(saved.status).toBe(200);
+    expect(saved.body.studies[0].effects.map((e: { computed: unknown }) => e.computed)).toEqual([null, null, null]);
+    const res = await coder.post(`/api/extractions/${claimed.body.id}/submit`).send({ version: saved.body.version });
+    expect(res.status).toBe(400);
+    const at = (path: string) => res.body.error.details.find((d: { path: string }) => d.path === `sheet.studies.0.effects.${path}`)?.message;
+    expect(at('0.reported.n')).toBe('n = 1 cannot come with a standard deviation (sd_diff); an SD needs at least 2 observations');
+    expect(at('1.reported.ci_lower')).toMatch(/the interval 1.1 to 1.6 is not centred on ratio 1.2 on either scale \(halves 0.087 and 0.288 on the log scale, 0.1 and 0.4 in ratio units\)/);
+    expect(at('2.reported.ci_lower')).toMatch(/the interval 1 to 30 is not centred on mean_diff 12 \(halves 11 and 18\)/);
+    expect((await t.ctx.db('extractions').where({ id: claimed.body.id }).first()).state).toBe('draft');
+    // the stateless compute route refuses the same way, naming the field
+    const route = await anonymous(t.app).post('/api/compute/effect').send({ measure: 'smd_paired', mean_diff: 40, sd_diff: 30, n: 1 });
+    expect(route.status).toBe(400);
+    expect(route.body.error.details).toEqual([{ path: 'body.n', message: 'n = 1 cannot come with a standard deviation (sd_diff); an SD needs at least 2 observations' }]);
+  });
+
+  it('p = 1 and F = 0 are accepted as an effect of 0 (no direction needed) and the sheet submits', async () => {
+    const ref = await insertReference(t.ctx.db, { firstAuthor: 'Tiwari', year: 2020 });
+    const claimed = await coder.post('/api/extractions').send({ referenceId: ref });
+    const sheet = sheetWith([
+      { form: 'smd', reported: { p: 1, n1: 20, n2: 20 } },
+      { form: 'smd', reported: { F: 0, n1: 20, n2: 20 } },
+    ]);
+    const saved = await coder.put(`/api/extractions/${claimed.body.id}`).send({ version: 1, sheet });
+    expect(saved.status).toBe(200);
+    for (const e of saved.body.studies[0].effects) {
+      expect(e.computed).toMatchObject({ metric: 'g_s', effect: 0 });
+      expect(e.computed.variance).toBeCloseTo(0.1, 12);
+    }
+    const res = await coder.post(`/api/extractions/${claimed.body.id}/submit`).send({ version: saved.body.version });
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    const route = await anonymous(t.app).post('/api/compute/effect').send({ measure: 'smd', F: 0, n1: 20, n2: 20 });
+    expect(route.body).toMatchObject({ metric: 'g_s', effect: 0 });
   });
 });
