@@ -1,11 +1,11 @@
-import { Router } from 'express';
+import { Router, type Request } from 'express';
 import type { AppContext } from '../context.js';
-import { chargeCaller, costs } from '../lib/caller-budget.js';
+import { callerKey, chargeCaller, costs } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
-import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, synthesisTableRequestSchema, type SynthesisAnswer, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
-import { answerRows, rowsPage } from '../../shared/synthesis/answer-rows.js';
-import { liveSynthesisExport, registrySynthesis, synthesisFacets, synthesisRowsView, synthesisSize } from '../services/synthesis.js';
+import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, synthesisTableRequestSchema, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { liveSynthesisExport, synthesisFacets, synthesisSize, synthesisSizeGuess } from '../services/synthesis.js';
 import { RegistryCache, RegistryMemo } from '../services/registry-cache.js';
+import { SynthesisPool } from '../services/synthesis-pool.js';
 import { flowSvg, liveSynthesisFlow } from '../services/flow.js';
 
 /** Syntheses over the settled registry: anyone may run one (saving it is a snapshot, for reviewers). */
@@ -14,35 +14,44 @@ export function synthesesRouter(ctx: AppContext) {
   const facetsCache = new RegistryCache(4);
   // A synthesis is a pure function of the request and the settled registry, so answers are kept per
   // registry version (any settled change retires them all); the header says whether this one was computed.
-  const answers = new RegistryCache(64);
-  // The whole outputs (every row) of recent syntheses, which ?rows=page and the rows route page: at most 200,000 rows in all.
-  const outputs = new RegistryMemo<SynthesisAnswer>(16, 200_000, (o) => o.rows.length);
-  const fullOutput = (request: SynthesisRequest) => outputs.get(ctx.db, JSON.stringify(request), () => registrySynthesis(ctx.db, request));
+  const answers = new RegistryMemo<string>(64, 32 * 1024 * 1024, (text) => text.length);
+  // The pooling and the JSON are done off the event loop, one synthesis at a time, callers taking turns.
+  const pool = new SynthesisPool(ctx.db);
+  // a running server loads the settled effects at start rather than on the first synthesis (tests start many apps)
+  if (ctx.env.NODE_ENV !== 'test') pool.warm().catch((err) => console.error('[synthesis warm-up]', err));
 
-  // Each synthesis is paid from the caller's budget by the number of effects it covers (a kept answer costs less).
+  // Each synthesis is paid from the caller's budget by the number of effects it covers (a kept answer costs less):
+  // first by the registry as last loaded, before any query, so a caller out of budget costs the database nothing;
+  // then topped up to the exact cost.
+  const charge = async (req: Request, request: SynthesisRequest, what: string) => {
+    const key = JSON.stringify(request);
+    const guess = synthesisSizeGuess(ctx.db, request);
+    chargeCaller(req, costs.synthesis(guess, answers.peek(key)), `${what} of ${guess} effects`);
+    const [k, kept] = await Promise.all([synthesisSize(ctx.db, request), answers.has(ctx.db, key)]);
+    chargeCaller(req, costs.synthesis(k, kept), `${what} of ${k} effects`);
+  };
+
   router.post('/syntheses', async (req, res) => {
     const request = parseInput(synthesisRequestSchema, req.body);
     const view = parseInput(synthesisRowsQuerySchema, req.query, 'query');
-    const key = JSON.stringify(request);
-    const [k, kept] = await Promise.all([synthesisSize(ctx.db, request), answers.has(ctx.db, key)]);
-    chargeCaller(req, costs.synthesis(k, kept), `A synthesis of ${k} effects`);
+    await charge(req, request, 'A synthesis');
+    const caller = callerKey(req);
     let computed = false;
-    const body = await answers.get(ctx.db, key, () => {
+    const body = await answers.get(ctx.db, JSON.stringify(request), () => {
       computed = true;
-      return fullOutput(request).then(answerRows);
+      return pool.run(caller, { kind: 'answer', request });
     });
     res
       .set('X-Synthesis-Cache', computed ? 'miss' : 'hit')
       .type('application/json')
-      .send(view.rows === 'all' ? body : JSON.stringify(synthesisRowsView(await fullOutput(request), view)));
+      .send(view.rows === 'all' ? body : await pool.run(caller, { kind: 'view', request, view }));
   });
 
   // The pooled rows of a synthesis, a page at a time, sorted on the server (an answer carries only the first page of a long list).
   router.post('/syntheses/rows', async (req, res) => {
     const q = parseInput(synthesisTableRequestSchema, req.body);
-    const [k, kept] = await Promise.all([synthesisSize(ctx.db, q.request), outputs.has(ctx.db, JSON.stringify(q.request))]);
-    chargeCaller(req, costs.synthesis(k, kept), `The rows of a synthesis of ${k} effects`);
-    res.json(rowsPage((await fullOutput(q.request)).rows, q));
+    await charge(req, q.request, 'The rows of a synthesis');
+    res.type('application/json').send(await pool.run(callerKey(req), { kind: 'rows', query: q }));
   });
 
   // A link (GET) so a browser downloads it as it is and a script can fetch it; the name carries the registry version.

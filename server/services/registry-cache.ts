@@ -37,6 +37,11 @@ export class RegistryMemo<T> {
     return key === this.key && this.entries.has(name);
   }
 
+  /** Whether a value for `name` is kept for the registry version last read, without reading it again (an estimate). */
+  peek(name: string): boolean {
+    return this.entries.has(name);
+  }
+
   async get(db: Knex, name: string, compute: () => Promise<T>): Promise<T> {
     const key = await this.versionKey(db);
     if (key !== this.key) {

@@ -4,7 +4,7 @@ import { currentRegistryVersion, readRegistryVersion } from '../repositories/reg
 import { querySynthesisRows } from '../repositories/effects.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 
-interface Loaded {
+export interface Loaded {
   version: number;
   stamp: string;
   effects: SettledEffect[];
@@ -12,7 +12,7 @@ interface Loaded {
   byManipulation: Map<string, SettledEffect[]>;
 }
 
-function indexByManipulation(effects: SettledEffect[]) {
+export function indexByManipulation(effects: SettledEffect[]) {
   const by = new Map<string, SettledEffect[]>();
   for (const e of effects) {
     const list = by.get(e.manipulation);
@@ -85,11 +85,21 @@ export async function settledEffectsFor(db: Knex | Knex.Transaction, filters: Se
     return { registryVersion, effects };
   }
   const loaded = await settledEffectsAt(db as Knex);
-  return { registryVersion: loaded.version, effects: filterSettledEffects(candidates(loaded, filters), filters) };
+  return { registryVersion: loaded.version, effects: filterLoaded(loaded, filters) };
+}
+
+/** The effects of a loaded set that match the filters. */
+export function filterLoaded(loaded: Pick<Loaded, 'effects' | 'byManipulation'>, filters: SettledEffectFilters): SettledEffect[] {
+  return filterSettledEffects(candidates(loaded, filters), filters);
+}
+
+/** The set loaded last, without asking PostgreSQL whether it is still current (for estimates only). */
+export function lastLoaded(db: Knex): Loaded | undefined {
+  return slots.get(db)?.loaded;
 }
 
 /** Only the manipulations asked for, merged back into id order, instead of every settled effect. */
-function candidates(loaded: Loaded, filters: SettledEffectFilters): readonly SettledEffect[] {
+function candidates(loaded: Pick<Loaded, 'effects' | 'byManipulation'>, filters: SettledEffectFilters): readonly SettledEffect[] {
   if (filters.manipulation === undefined) return loaded.effects;
   const terms = [...new Set(Array.isArray(filters.manipulation) ? filters.manipulation : [filters.manipulation])];
   const lists = terms.map((t) => loaded.byManipulation.get(t) ?? []);

@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { settledEffectsAt, settledEffectsFor } from './settled-effects-cache.js';
+import { filterLoaded, lastLoaded, settledEffectsAt, settledEffectsFor } from './settled-effects-cache.js';
 import { UnprocessableError, ValidationError } from '../lib/errors.js';
 import type { SettledEffectFilters } from '../repositories/settled-effects.js';
 import { querySettledEffects } from '../repositories/effects.js';
@@ -47,6 +47,12 @@ export async function synthesizeRegistry(db: Knex | Knex.Transaction, request: S
 /** How many settled effects a request covers (what its computation costs grows with). */
 export async function synthesisSize(db: Knex, request: SynthesisRequest): Promise<number> {
   return (await settledEffectsFor(db, requestFilters(request))).effects.length;
+}
+
+/** The same count from the settled effects as last loaded, without a query (0 before the first load): an estimate. */
+export function synthesisSizeGuess(db: Knex, request: SynthesisRequest): number {
+  const loaded = lastLoaded(db);
+  return loaded ? filterLoaded(loaded, requestFilters(request)).length : 0;
 }
 
 /** What POST /api/syntheses answers: the synthesis and the registry version it was computed on. */

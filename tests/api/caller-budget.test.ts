@@ -93,6 +93,28 @@ describe('one cost-weighted budget per caller', () => {
     expect((await flooder.get('/api/health')).status).toBe(200);
   }, 60_000);
 
+  it('refuses a synthesis the caller cannot pay for before any database query', async () => {
+    const flooder = from('198.51.100.5');
+    let queries = 0;
+    const count = () => queries++;
+    t.ctx.db.on('query', count);
+    try {
+      // every request a different level, so none is kept: 1 + 2 units each (600 effects) until one is refused
+      let refused: request.Response | undefined;
+      for (let i = 0; i < 120 && !refused; i++) {
+        queries = 0;
+        const res = await flooder.post('/api/syntheses').send({ filters: { manipulation: 'numerosity' }, level: 0.9 + (i + 1) / 1000 });
+        if (res.status === 429 && /A request costs/.test(res.body.error.message)) await new Promise((r) => setTimeout(r, 600)); // out of even the entry unit: wait for some
+        else if (res.status === 429) refused = res;
+        else expect(res.status).toBe(200);
+      }
+      expect(refused?.body.error.message).toMatch(/^Too many requests from you: A synthesis of 600 effects costs 2 units/);
+      expect(queries).toBe(0);
+    } finally {
+      t.ctx.db.off('query', count);
+    }
+  }, 60_000);
+
   it('charges an import by its size before the body is read', async () => {
     const contributor = await signIn(t.app, 'coder1');
     const text = Array.from({ length: 150 }, (_, i) =>
