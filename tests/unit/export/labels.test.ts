@@ -4,7 +4,7 @@ import { valueLabel } from '../../../shared/synthesis/labels.js';
 import { metricDigits as plotDigits } from '../../../shared/plots/theme.js';
 import { digitsFor } from '../../../src/lib/format.js';
 import { defaultTitle } from '../../../server/services/snapshots.js';
-import { MODERATOR_LABELS, synthesisRequestSchema } from '../../../shared/schemas/synthesis.js';
+import { MODERATOR_LABELS, REGRESSION_MODERATORS, synthesisRequestSchema } from '../../../shared/schemas/synthesis.js';
 import { METRICS } from '../../../shared/stats/metrics.js';
 
 describe('the one label table', () => {
@@ -15,7 +15,8 @@ describe('the one label table', () => {
         expect(label.trim().length, `${kind}.${code}`).toBeGreaterThan(0);
       }
     for (const m of METRICS) expect(labelOf('metric', m)).not.toBe(m);
-    expect(LABELS.moderator).toEqual(MODERATOR_LABELS);
+    expect(LABELS.moderator).toMatchObject(MODERATOR_LABELS);
+    expect(Object.keys(LABELS.moderator).sort()).toEqual([...REGRESSION_MODERATORS].sort());
   });
 
   it('answers screens and exports alike, SMD families included, and never shows a raw key', () => {
