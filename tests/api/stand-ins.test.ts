@@ -66,5 +66,12 @@ describe('the start scripts keep the parts apart', () => {
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
+    // npm start and npm run dev both start every stand-in under it
+    for (const script of ['scripts/start.sh', 'scripts/dev.sh']) {
+      const text = readFileSync(script, 'utf8');
+      expect(text, script).toMatch(/^source scripts\/supervise\.sh$/m);
+      expect(text, script).toMatch(/for fake in oauth search doi mail; do\n\s+supervise "\$fake stand-in" "[^"]+" node_modules\/\.bin\/tsx server\/fakes\/run\.ts "\$fake"\ndone/);
+      expect(text, script).not.toMatch(/run\.ts "\$fake" &/);
+    }
   }, 30_000);
 });
