@@ -10,7 +10,11 @@ export interface Loaded {
   effects: SettledEffect[];
   /** the same effects by manipulation term, each list in id order */
   byManipulation: Map<string, SettledEffect[]>;
+  /** recent filter results on this version (a synthesis asks for its effects twice: its size, then its run) */
+  filtered: Map<string, SettledEffect[]>;
 }
+
+const FILTERED_KEPT = 8;
 
 export function indexByManipulation(effects: SettledEffect[]) {
   const by = new Map<string, SettledEffect[]>();
@@ -41,7 +45,7 @@ export async function settledEffectsAt(db: Knex): Promise<Loaded> {
   if (slot.loaded?.stamp === stamp) return slot.loaded;
   if (slot.loading?.stamp !== stamp) {
     const promise = querySynthesisRows(db, {}).then((effects) => {
-      const loaded = { version, stamp, effects, byManipulation: indexByManipulation(effects) };
+      const loaded = { version, stamp, effects, byManipulation: indexByManipulation(effects), filtered: new Map<string, SettledEffect[]>() };
       if (!slot.loaded || slot.loaded.version <= version) slot.loaded = loaded;
       return loaded;
     });
@@ -88,9 +92,19 @@ export async function settledEffectsFor(db: Knex | Knex.Transaction, filters: Se
   return { registryVersion: loaded.version, effects: filterLoaded(loaded, filters) };
 }
 
-/** The effects of a loaded set that match the filters. */
-export function filterLoaded(loaded: Pick<Loaded, 'effects' | 'byManipulation'>, filters: SettledEffectFilters): SettledEffect[] {
-  return filterSettledEffects(candidates(loaded, filters), filters);
+/** The effects of a loaded set that match the filters (kept for the set's recent filters when it holds `filtered`). */
+export function filterLoaded(loaded: Pick<Loaded, 'effects' | 'byManipulation'> & { filtered?: Loaded['filtered'] }, filters: SettledEffectFilters): SettledEffect[] {
+  const kept = loaded.filtered;
+  const key = kept ? JSON.stringify(filters) : '';
+  let effects = kept?.get(key);
+  if (!effects) {
+    effects = filterSettledEffects(candidates(loaded, filters), filters);
+    if (kept) {
+      if (kept.size >= FILTERED_KEPT) kept.delete(kept.keys().next().value!);
+      kept.set(key, effects);
+    }
+  }
+  return effects;
 }
 
 /** The set loaded last, without asking PostgreSQL whether it is still current (for estimates only). */

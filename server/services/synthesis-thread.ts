@@ -9,7 +9,7 @@ import type { SynthesisAnswer, SynthesisRequest } from '../../shared/schemas/syn
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 import type { SynthesisTask, ThreadReply, ThreadRequest } from './synthesis-pool.js';
 
-let held: { stamp: string; version: number; effects: SettledEffect[]; byManipulation: Map<string, SettledEffect[]> } | undefined;
+let held: { stamp: string; version: number; effects: SettledEffect[]; byManipulation: Map<string, SettledEffect[]>; filtered: Map<string, SettledEffect[]> } | undefined;
 // whole outputs of this registry version: at most 16, and 200,000 rows in all
 let outputs = new Map<string, SynthesisAnswer>();
 let rowsKept = 0;
@@ -38,7 +38,7 @@ parentPort!.on('message', (msg: ThreadRequest) => {
   let reply: ThreadReply;
   try {
     if (msg.effects) {
-      held = { stamp: msg.stamp, version: msg.version, effects: msg.effects, byManipulation: indexByManipulation(msg.effects) };
+      held = { stamp: msg.stamp, version: msg.version, effects: msg.effects, byManipulation: indexByManipulation(msg.effects), filtered: new Map() };
       outputs = new Map();
       rowsKept = 0;
     }

@@ -16,14 +16,46 @@ export interface FunnelInput {
 export const FUNNEL_MAX_POINTS = 2000;
 const Z95 = 1.959963984540054;
 
-/** Evenly spaced subset by SE order (ties in input order), so a huge funnel keeps its shape. */
+/**
+ * Evenly spaced subset by SE order (ties in input order), so a huge funnel keeps its shape. The keys are
+ * sorted natively; the picked ranks name a value and a place among its ties, found in one pass over the items.
+ */
 function thin<T>(items: T[], max: number, key: (t: T) => number): T[] {
   if (items.length <= max) return items;
   const keys = Float64Array.from(items, key);
-  // indices, not the items, are sorted: a numeric comparator over typed arrays
-  const order = new Uint32Array(items.length).map((_, i) => i).sort((a, b) => keys[a] - keys[b] || a - b);
-  const step = order.length / max;
-  return Array.from({ length: max }, (_, i) => items[order[Math.floor(i * step)]]);
+  const sorted = keys.slice().sort();
+  const step = items.length / max;
+  const values: number[] = []; // distinct picked values, increasing
+  const wanted: number[][] = []; // per value: the picked places among its ties, increasing
+  const slots: number[][] = []; // per value: which pick each place fills
+  let first = 0;
+  for (let i = 0; i < max; i++) {
+    const r = Math.floor(i * step);
+    const q = sorted[r];
+    if (values[values.length - 1] !== q) {
+      while (sorted[first] < q) first++;
+      values.push(q);
+      wanted.push([]);
+      slots.push([]);
+    }
+    wanted[values.length - 1].push(r - first);
+    slots[values.length - 1].push(i);
+  }
+  const seen = new Int32Array(values.length);
+  const next = new Int32Array(values.length);
+  const out = new Array<T>(max);
+  for (let i = 0; i < keys.length; i++) {
+    let lo = 0, hi = values.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (values[mid] < keys[i]) lo = mid + 1;
+      else hi = mid;
+    }
+    if (values[lo] !== keys[i]) continue;
+    const place = seen[lo]++;
+    if (wanted[lo][next[lo]] === place) out[slots[lo][next[lo]++]] = items[i];
+  }
+  return out;
 }
 
 /**

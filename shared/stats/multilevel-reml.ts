@@ -31,6 +31,27 @@ export interface RemlDerivatives extends RemlPoint {
   information: Float64Array;
 }
 
+/**
+ * Σ log x over many positive factors with one log per ~hundred: factors in [1e-100, 1e100] are multiplied
+ * (the running product kept within 1e±200, so nothing under- or overflows), others logged directly.
+ */
+class LogSum {
+  private prod = 1;
+  private sum = 0;
+  add(x: number): void {
+    if (x > 1e-100 && x < 1e100) {
+      const q = this.prod * x;
+      if (q > 1e200 || q < 1e-200) {
+        this.sum += Math.log(q);
+        this.prod = 1;
+      } else this.prod = q;
+    } else this.sum += Math.log(x);
+  }
+  value(): number {
+    return this.sum + Math.log(this.prod);
+  }
+}
+
 export class MultilevelReml {
   private readonly constant: number;
   private readonly xbar: Float64Array;
@@ -72,7 +93,7 @@ export class MultilevelReml {
     const wxx = new Float64Array(pp);
     const wxy = new Float64Array(p);
     let wyy = 0;
-    let logDiag = 0;
+    const logDiagSum = new LogSum();
     const omega = this.omega;
     for (let j = 0; j < J; j++) {
       const lo = start[j];
@@ -83,7 +104,7 @@ export class MultilevelReml {
         const a = v[i] + sw;
         const om = 1 / a;
         omega[i - lo] = om;
-        logDiag += Math.log(a);
+        logDiagSum.add(a);
         sum += om;
         sy += om * y[i];
         for (let q = 0; q < p; q++) xbar[j * p + q] += om * x[i * p + q];
@@ -103,14 +124,15 @@ export class MultilevelReml {
         }
       }
     }
+    const logDiag = logDiagSum.value();
     return bs.map((sb) => {
       const xtvx = Float64Array.from(wxx);
       const xtvy = Float64Array.from(wxy);
       let yvy = wyy;
-      let logDetV = logDiag;
+      const logDen = new LogSum();
       for (let j = 0; j < J; j++) {
         const den = 1 + sb * sums[j];
-        logDetV += Math.log(den);
+        logDen.add(den);
         const sd = sums[j] / den;
         yvy += sd * ybar[j] * ybar[j];
         for (let q = 0; q < p; q++) {
@@ -125,6 +147,7 @@ export class MultilevelReml {
       const h = choleskyInverse(l, p);
       let fitted = 0;
       for (let q = 0; q < p; q++) for (let r = 0; r < p; r++) fitted += xtvy[q] * h[q * p + r] * xtvy[r];
+      const logDetV = logDiag + logDen.value();
       return this.constant - 0.5 * logDetV - 0.5 * choleskyLogDet(l, p) - 0.5 * Math.max(0, yvy - fitted);
     });
   }
@@ -143,7 +166,7 @@ export class MultilevelReml {
     const omega = this.omega;
     const xtvx = new Float64Array(p * p);
     const xtvy = new Float64Array(p);
-    let logDetV = 0;
+    const logDet = new LogSum();
     for (let j = 0; j < J; j++) {
       const lo = start[j];
       const hi = start[j + 1];
@@ -154,7 +177,7 @@ export class MultilevelReml {
         const a = v[i] + sw;
         const om = 1 / a;
         omega[i - lo] = om;
-        logDetV += Math.log(a);
+        logDet.add(a);
         s += om;
         sy += om * y[i];
         for (let q = 0; q < p; q++) xbar[q] += om * x[i * p + q];
@@ -162,7 +185,7 @@ export class MultilevelReml {
       const ybar = sy / s;
       for (let q = 0; q < p; q++) xbar[q] /= s;
       const den = 1 + sb * s;
-      logDetV += Math.log(den);
+      logDet.add(den);
       const sd = s / den;
       for (let i = lo; i < hi; i++) {
         const om = omega[i - lo];
@@ -188,7 +211,7 @@ export class MultilevelReml {
       for (let r = 0; r < p; r++) t += vcov[q * p + r] * xtvy[r];
       beta[q] = t;
     }
-    return { logDetV, logDetXtVX: choleskyLogDet(l, p), vcov, beta };
+    return { logDetV: logDet.value(), logDetXtVX: choleskyLogDet(l, p), vcov, beta };
   }
 
   /** Pass 2 for ℓ alone: yᵀPy = eᵀV⁻¹e = Σ_j [Σ ω(e − ē)² + (s/den) ē²]. */

@@ -41,12 +41,13 @@ const NOT_UNDER_MULTILEVEL = 'assumes independent effects; not run under the thr
  */
 export function multilevelPart(effects: readonly SettledEffect[], request: MultilevelRequest, metric: string, mLabel: string, { unavailable, attempt }: AnalysisLog): ModelPart {
   const sg = request.subgroup;
-  const items = inRowOrder(effects, sg);
-  const k = items.length;
+  const { order, groups } = inRowOrder(effects, sg);
+  const k = order.length;
   const y = new Float64Array(k);
   const v = new Float64Array(k);
   const cluster = new Float64Array(k);
-  items.forEach(({ e }, i) => {
+  order.forEach((at, i) => {
+    const e = effects[at];
     y[i] = e.effect;
     v[i] = e.variance;
     cluster[i] = e.referenceId;
@@ -64,7 +65,9 @@ export function multilevelPart(effects: readonly SettledEffect[], request: Multi
 
   const papers = new Map<number, PaperInfo>();
   const byPaper = new Map<number, number[]>();
-  const rows: PooledRow[] = items.map(({ e, group }, i) => {
+  const rows: PooledRow[] = Array.from(order, (at, i) => {
+    const e = effects[at];
+    const group = groups?.[at];
     const idx = byPaper.get(e.referenceId);
     if (idx) idx.push(i);
     else {
@@ -163,26 +166,51 @@ export function multilevelPart(effects: readonly SettledEffect[], request: Multi
 }
 
 /**
- * Effects in row order: subgroup, paper year, paper label, paper, study, effect. The strings are ranked once
- * (code-point order) so the sort compares numbers only.
+ * Effects in row order: subgroup, paper year, paper label, paper, study, effect. The effects are gathered by
+ * subgroup and paper first (year and label are the paper's), so only those groups are sorted, strings ranked
+ * once in code-point order; a group's effects keep their order when it is already by study and id. Returns
+ * the effects' indices in that order and each effect's subgroup value.
  */
 function inRowOrder(effects: readonly SettledEffect[], sg: MultilevelRequest['subgroup']) {
-  const n = effects.length;
   const groups = sg ? effects.map((e) => String(e[sg] ?? 'not reported')) : null;
-  const rankOf = (values: string[]) => {
-    const distinct = [...new Set(values)].sort(cmp);
-    const rank = new Map(distinct.map((x, i) => [x, i]));
-    return Float64Array.from(values, (x) => rank.get(x)!);
-  };
-  const g = groups ? rankOf(groups) : new Float64Array(n);
-  const label = rankOf(effects.map((e) => e.referenceLabel));
-  const year = Float64Array.from(effects, (e) => e.year ?? 9999);
-  const order = new Uint32Array(n).map((_, i) => i).sort((a, b) => {
-    const x = effects[a];
-    const y = effects[b];
-    return g[a] - g[b] || year[a] - year[b] || label[a] - label[b] || x.referenceId - y.referenceId || x.studyId - y.studyId || x.id - y.id;
+  const gRank = new Map<string, number>();
+  if (groups) [...new Set(groups)].sort(cmp).forEach((x, i) => gRank.set(x, i));
+  const slot = new Map<number, number>();
+  const firsts: number[] = [];
+  const members: number[][] = [];
+  const stride = 2 ** 31;
+  effects.forEach((e, i) => {
+    const key = groups ? gRank.get(groups[i])! * stride + e.referenceId : e.referenceId;
+    const at = slot.get(key);
+    if (at === undefined) {
+      slot.set(key, members.length);
+      firsts.push(i);
+      members.push([i]);
+    } else members[at].push(i);
   });
-  return Array.from(order, (i) => ({ e: effects[i], group: groups ? groups[i] : undefined }));
+  const labels = [...new Set(firsts.map((i) => effects[i].referenceLabel))].sort(cmp);
+  const labelRank = new Map(labels.map((x, i) => [x, i]));
+  const G = firsts.length;
+  const gOf = new Float64Array(G), year = new Float64Array(G), label = new Float64Array(G), ref = new Float64Array(G);
+  firsts.forEach((i, m) => {
+    const e = effects[i];
+    gOf[m] = groups ? gRank.get(groups[i])! : 0;
+    year[m] = e.year ?? 9999;
+    label[m] = labelRank.get(e.referenceLabel)!;
+    ref[m] = e.referenceId;
+  });
+  const order = Array.from({ length: G }, (_, m) => m).sort((a, b) => gOf[a] - gOf[b] || year[a] - year[b] || label[a] - label[b] || ref[a] - ref[b]);
+  const within = (a: number, b: number) => effects[a].studyId - effects[b].studyId || effects[a].id - effects[b].id;
+  const out = new Int32Array(effects.length);
+  let n = 0;
+  for (const m of order) {
+    const idx = members[m];
+    let sorted = true;
+    for (let t = 1; t < idx.length && sorted; t++) sorted = within(idx[t - 1], idx[t]) < 0;
+    if (!sorted) idx.sort(within);
+    for (const i of idx) out[n++] = i;
+  }
+  return { order: out, groups };
 }
 
 /** Indices (in row order) of the `max` rows with the largest weights. */
