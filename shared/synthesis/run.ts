@@ -156,7 +156,7 @@ export function runSynthesis(effects: readonly SettledEffect[], request: Synthes
   if (regression?.fewPerCovariate)
     finished.cautions.splice(finished.cautions.length - 1, 0, {
       code: 'few_per_covariate',
-      text: `The meta-regression on several moderators has ${regression.k} studies for ${regression.terms.length - 1} coefficients: fewer than 10 studies per coefficient (common practice), so its estimates are unstable.`,
+      text: `The meta-regression on several moderators has ${regression.k} studies for ${regression.terms.length - 1} ${regression.terms.length === 2 ? 'coefficient' : 'coefficients'}: fewer than 10 studies per coefficient (common practice), so its estimates are unstable.`,
     });
 
   return {

@@ -45,6 +45,49 @@ export const specs: Spec[] = [
     },
   },
   {
+    name: 'the Analyses section: several moderators with Knapp–Hartung, one shared τ² in subgroups, I² by estimator, Begg with its p, all in words',
+    async run(page) {
+      await page.goto(appUrl('/synthesis'));
+      await page.getByLabel('Manipulation').selectOption(['luminance']);
+      await page.getByLabel('Outcome kind').selectOption('duration_distortion');
+      await page.getByLabel('Standardized mean differences').selectOption('raw_score');
+      await page.getByLabel('Estimator').selectOption('REML');
+      await page.getByLabel('Hartung–Knapp–Sidik–Jonkman').check();
+      await page.getByLabel('Subgroups by').selectOption('design');
+      await page.getByLabel('Between-study variance in subgroups').selectOption('pooled');
+      await page.getByRole('group', { name: 'Meta-regression on several moderators' }).getByLabel(labelOf('moderator', 'year')).check();
+      await page.getByRole('button', { name: 'Run synthesis' }).click();
+      const section = page.locator('section[aria-labelledby="analyses-heading"]');
+      await section.getByRole('heading', { name: 'Analyses', level: 2 }).waitFor({ timeout: 40_000 });
+      assert.ok(page.url().includes('subgroupTau2=pooled') && page.url().includes('moderators=year'), page.url());
+
+      // the pooled row and every refit row use the estimator's own I² definition
+      await page.getByRole('rowheader', { name: `I² (${labelOf('i2Definition', 'tau')})` }).waitFor();
+      // τ² and I² by every estimator, the one used marked
+      const estimators = section.getByRole('table', { name: /pooled by each estimator/ });
+      assert.equal(await estimators.locator('tbody tr').count(), 4);
+      assert.match((await estimators.locator('tbody tr').nth(2).textContent()) ?? '', /^◆ REML/);
+      // subgroups with one shared τ², tested by the factor's F
+      const subgroupTest = (await section.getByTestId('subgroup-test').textContent()) ?? '';
+      assert.ok(subgroupTest.includes(labelOf('subgroupTau2', 'pooled')), subgroupTest);
+      // the several-moderator fit: its terms in words, QM as F on (1, k − 2)
+      const summary = (await section.getByTestId('regression-summary').textContent()) ?? '';
+      assert.match(summary, /Test of the moderators: F\(1, \d+\) = \d+\.\d{2}/);
+      const terms = section.getByRole('table').filter({ has: page.getByTestId('regression-summary') }).locator('tbody tr td:first-child');
+      assert.deepEqual(await terms.allTextContents(), ['Intercept', labelOf('moderator', 'year')]);
+      // Begg's p says which distribution it comes from
+      const begg = (await section.getByTestId('begg-p').textContent()) ?? '';
+      assert.ok([labelOf('pMethod', 'exact'), labelOf('pMethod', 'normal')].some((w) => begg.includes(w)), begg);
+      // no stored code on the section
+      const text = (await section.textContent()) ?? '';
+      assert.doesNotMatch(text, /standardMs|chisq|subgroupTau2|p_method|I2_tau|_/);
+
+      await page.reload();
+      await section.getByTestId('regression-summary').waitFor({ timeout: 40_000 });
+      assert.equal(await page.getByLabel('Between-study variance in subgroups').inputValue(), 'pooled');
+    },
+  },
+  {
     name: 'signed out, the atlas shows a manipulation with its forest plot and opens it as a synthesis without a save button',
     async run(page) {
       await page.goto(appUrl('/atlas'));

@@ -88,8 +88,9 @@ export function SnapshotPage() {
         <dt className="text-ink-soft">Options</dt>
         <dd>
           {modelLabel(q)}, {Math.round(q.level * 1000) / 10}% intervals
-          {q.subgroup ? `; subgroups by ${labelOf('subgroup', q.subgroup).toLowerCase()}` : ''}
+          {q.subgroup ? `; subgroups by ${labelOf('subgroup', q.subgroup).toLowerCase()} (${labelOf('subgroupTau2', q.subgroupTau2 ?? 'separate').toLowerCase()})` : ''}
           {q.moderator ? `; meta-regression on ${labelOf('moderator', q.moderator).toLowerCase()}` : ''}
+          {q.moderators ? `; meta-regression on ${q.moderators.map((m) => labelOf('moderator', m).toLowerCase()).join(', ')} at once` : ''}
         </dd>
         <dt className="text-ink-soft">Software</dt>
         <dd>{s.software}</dd>

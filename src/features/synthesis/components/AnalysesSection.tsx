@@ -155,13 +155,13 @@ export function AnalysesSection({ data, Figure, fileStem }: { data: SynthesisOut
           <h3>Meta-regression on several moderators</h3>
           {reg.fewPerCovariate && (
             <p role="note" className="text-sm text-caution-dark">
-              ⚠ {reg.k} studies for {reg.terms.length - 1} coefficients: fewer than 10 studies per coefficient (common practice), so these estimates are unstable.
+              ⚠ {reg.k} studies for {reg.terms.length - 1} {reg.terms.length === 2 ? 'coefficient' : 'coefficients'}: fewer than 10 studies per coefficient (common practice), so these estimates are unstable.
             </p>
           )}
           <table className="max-w-3xl">
             <caption className="caption-top pb-1 text-left text-sm text-ink-soft" data-testid="regression-summary">
               {reg.moderators.map((m) => m.label).join(', ')}; k = {reg.k}
-              {reg.missing ? ` (${reg.missing} without a value left out)` : ''}. Test of the moderators: {testText(reg.QM_test, reg.QM, reg.QM_df, reg.QM_df2)}, {pEquals(reg.QM_p)}. Residual Q_E({reg.QE_df}) ={' '}
+              {reg.missing ? ` (${reg.missing} without a value left out)` : ''}. Test of the moderators: {testText(reg.QM_test, reg.QM, reg.QM_df, reg.QM_df2)}, {pEquals(reg.QM_p)}. Residual heterogeneity Q({reg.QE_df}) ={' '}
               {fixed(reg.QE, 2)}, {pEquals(reg.QE_p)}; residual τ² {fixed(reg.tau2, 4)}; R² {reg.R2 == null ? '—' : `${fixed(reg.R2 * 100, 1)}%`}.
               {reg.moderators.filter((m) => m.referenceLabel).map((m) => ` ${m.label} compared with ${m.referenceLabel}.`).join('')}
             </caption>
