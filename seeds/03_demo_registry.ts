@@ -4,7 +4,7 @@ import { sheetDraftSchema } from '../shared/schemas/extraction.js';
 import { compareSheets, mergeSheets } from '../server/services/comparison.js';
 import { ensureVocabulary } from '../server/services/manipulations.js';
 import { createReference } from '../server/services/references.js';
-import { decide } from '../server/services/screening.js';
+import { includeThroughFullText } from '../server/services/screening.js';
 import { createSettledRecord, saveSheet } from '../server/services/settlement.js';
 import { mulberry32 } from '../tests/support/random.js';
 
@@ -249,7 +249,7 @@ export async function seed(knex: Knex): Promise<void> {
       { source: 'seed', createdBy: curator },
     );
     if (!ref.created) continue;
-    await decide(knex, ref.id, { decision: 'included', version: 1 }, { id: curator, roles: ['curator'] });
+    await includeThroughFullText(knex, ref.id, { id: curator, roles: ['curator'] });
     if (role === 'direct') {
       await knex.transaction((trx) => createSettledRecord(trx, { referenceId: ref.id, sheet, actorId: curator, kind: 'direct', rationale: 'Entered from the published tables by a curator.' }));
     } else if (role === 'paired') {
@@ -268,7 +268,7 @@ export async function seed(knex: Knex): Promise<void> {
       { type: 'article-journal', title: w.title, DOI: `10.5555/chrono.demo.waiting.${i + 1}`, 'container-title': 'Journal of Invented Psychophysics', issued: { 'date-parts': [[w.year]] }, author: [{ family: w.family, given: w.given }] } as any,
       { source: 'seed', createdBy: curator },
     );
-    if (ref.created) await decide(knex, ref.id, { decision: 'included', version: 1 }, { id: curator, roles: ['curator'] });
+    if (ref.created) await includeThroughFullText(knex, ref.id, { id: curator, roles: ['curator'] });
   }
 }
 

@@ -2,7 +2,7 @@ import type { Knex } from 'knex';
 import type { Sheet } from '../shared/schemas/extraction.js';
 import { claimReference, saveDraft } from '../server/services/coding.js';
 import { createReference } from '../server/services/references.js';
-import { decide } from '../server/services/screening.js';
+import { includeThroughFullText } from '../server/services/screening.js';
 import { runFitJob, startFits, uploadTrialSet } from '../server/services/trials.js';
 import { countsCsv, inventTrials, ORDER_SOAS, SJ_SOAS, trialsCsv } from '../tests/support/trials.js';
 
@@ -26,7 +26,7 @@ export async function seed(knex: Knex): Promise<void> {
     { source: 'seed', createdBy: curator },
   );
   if (!ref.created) return;
-  await decide(knex, ref.id, { decision: 'included', version: 1 }, { id: curator, roles: ['curator'] });
+  await includeThroughFullText(knex, ref.id, { id: curator, roles: ['curator'] });
   const actor = { id: coder, roles: ['contributor' as const] };
   const sheet = await claimReference(knex, coder, ref.id);
   const order = inventTrials({ task: 'order', participants: 12, conditions: { baseline: 0, after_lag: 35 }, levels: ORDER_SOAS, trialsPerLevel: 20, seed: 61001 });

@@ -144,11 +144,11 @@ export async function listRefs(db: Db, f: RefListFilters & PageRequest & { sort:
   return { total, rows };
 }
 
-/** The oldest unscreened live references (optionally those one import batch created), and how many there are. */
-export async function unscreenedRefs(db: Db, q: { limit: number; batch?: number }) {
+/** The oldest live references with a screening status (optionally those one import batch created), and how many there are. */
+export async function refsAwaiting(db: Db, q: { limit: number; batch?: number; status: ScreeningStatus }) {
   const base = db<RefRow>('refs')
     .whereNull('merged_into')
-    .where('screening_status', 'unscreened')
+    .where('screening_status', q.status)
     .modify((qb) => {
       if (q.batch) qb.whereIn('id', db('import_entries').where({ batch_id: q.batch, status: 'imported' }).select('reference_id'));
     });

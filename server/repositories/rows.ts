@@ -54,7 +54,7 @@ export interface ApiTokenRow {
   minted_by_token_id: number | null;
 }
 
-export type ScreeningStatus = 'unscreened' | 'included' | 'excluded';
+export type ScreeningStatus = 'unscreened' | 'awaiting_full_text' | 'included' | 'excluded';
 
 export interface RefRow {
   id: number;
@@ -102,6 +102,9 @@ export interface ScreeningDecisionRow {
   id: number;
   ref_id: number;
   decision: 'included' | 'excluded';
+  stage: 'title_abstract' | 'full_text';
+  /** a title/abstract inclusion the two-stage migration added for a decision made before */
+  carried_over: boolean;
   reason: string | null;
   note: string | null;
   decided_by: number | null;

@@ -47,7 +47,7 @@ export async function claimReference(db: Knex, actorId: number, referenceId: num
     const ref = await lockRef(trx, referenceId);
     if (!ref) throw new NotFoundError(`No reference ${referenceId}.`);
     if (ref.merged_into) throw new UnprocessableError(`Reference ${referenceId} was merged into ${ref.merged_into}; claim that one.`);
-    if (ref.screening_status !== 'included') throw new UnprocessableError('Only included references are coded; screen it in first.');
+    if (ref.screening_status !== 'included') throw new UnprocessableError(ref.screening_status === 'awaiting_full_text' ? 'This reference passed title and abstract screening; it is coded once its full text is included.' : 'Only references included at full-text screening are coded; screen it in first.');
     const active = await activeAssignmentOf(trx, referenceId);
     if (active) throw new ConflictError(`Reference ${referenceId} is already being double coded (assignment ${active.id}).`);
     const mine = await openSheetOf(trx, referenceId, actorId);

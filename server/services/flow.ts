@@ -6,7 +6,7 @@ import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { filterSettledEffects } from './settled-effects-cache.js';
 import { prismaCounts } from './screening.js';
 import { requestFilters } from './synthesis.js';
-import { EXCLUSION_REASON_LABELS } from '../../shared/vocabulary/screening.js';
+import { EXCLUSION_COUNT_LABELS } from '../../shared/vocabulary/screening.js';
 import { enteringCounts, filterAttribution, NO_MANIPULATION_REASON, synthesisFlow, type SynthesisFlow } from '../../shared/synthesis/flow.js';
 import { prismaFlowSvg } from '../../shared/plots/prisma-flow.js';
 import type { SynthesisFlowAnswer, SynthesisRequest } from '../../shared/schemas/synthesis.js';
@@ -32,7 +32,7 @@ export async function flowIn(db: Db, request: SynthesisRequest): Promise<Synthes
     screened: c.screened,
     notYetScreened: c.awaitingScreening,
     excludedByReason: c.excluded.byReason,
-    reasonLabels: EXCLUSION_REASON_LABELS,
+    reasonLabels: EXCLUSION_COUNT_LABELS,
     included: c.included,
     coded,
     settled,

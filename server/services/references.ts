@@ -15,6 +15,7 @@ import {
   repointMergedInto, updateRef, type RefColumns, type RefSummaryRow,
 } from '../repositories/refs.js';
 import { decisionsOf, latestDecision } from '../repositories/screening.js';
+import { statusAfter } from '../../shared/vocabulary/screening.js';
 import { settledEffectCountOf } from '../repositories/settled-effects.js';
 import { authorKey, cleanCsl, cslAuthors, refColumns, richness, type Csl } from './reference-fields.js';
 
@@ -126,6 +127,7 @@ export async function getReference(db: Knex, id: number): Promise<ReferenceDetai
     },
     screening: screening.map((s) => ({
       id: s.id,
+      stage: s.stage,
       decision: s.decision,
       reason: s.reason,
       note: s.note,
@@ -251,7 +253,7 @@ export async function mergeReferences(db: Knex, input: { a: number; b: number; k
     const takesDoi = !survivor.doi ? loser.doi : null;
     await updateRef(trx, survivor.id, {
       version: survivor.version + 1,
-      screening_status: latest?.decision ?? 'unscreened',
+      screening_status: latest ? statusAfter(latest.stage, latest.decision) : 'unscreened',
       ...(takesDoi ? { doi: takesDoi, csl: { ...survivor.csl, DOI: takesDoi } } : {}),
     });
     await recordAudit(trx, {

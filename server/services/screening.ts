@@ -3,12 +3,14 @@ import type {
   PrismaFlow, ScreeningBatchDecisionInput, ScreeningBatchResult, ScreeningBatchUndoInput, ScreeningBatchUndoResult, ScreeningDecisionInput, ScreeningQueue, ScreeningResult, ScreeningUndoInput, ScreeningUndoResult,
 } from '../../shared/schemas/references.js';
 import { hasRole, type Role } from '../../shared/roles.js';
-import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../shared/vocabulary/screening.js';
-import { ConflictError, ForbiddenError, NotFoundError } from '../lib/errors.js';
+import {
+  EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, NO_REASON, SCREENING_STAGES, type ScreeningStatus, STAGE_REASONS, stageOf, statusAfter, type ExclusionReason, type ScreeningStage,
+} from '../../shared/vocabulary/screening.js';
+import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
 import { creatingBatchesOf, duplicateEntriesByFormat } from '../repositories/imports.js';
-import { attachmentsOfRefs, lockRef, refCounts, unscreenedRefs, updateRef } from '../repositories/refs.js';
+import { attachmentsOfRefs, lockRef, refCounts, refsAwaiting, updateRef } from '../repositories/refs.js';
 import { decisionsOf, exclusionReasonCounts, insertDecision, markUndone } from '../repositories/screening.js';
 import { lockSettledRecordsOf } from '../repositories/settled-effects.js';
 import type { Actor } from './coding.js';
@@ -28,33 +30,67 @@ async function decideIn(trx: Knex.Transaction, refId: number, input: ScreeningDe
   const r = await lockRef(trx, refId);
   if (!r) throw new NotFoundError(`There is no reference ${refId}.`);
   if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; screen that one.`, { mergedInto: r.merged_into });
+  const [last] = await decisionsOf(trx, refId);
   if (r.version !== input.version) {
-    const [last] = await decisionsOf(trx, refId);
-    const now = last ? `, now ${last.decision} by ${last.login ?? 'someone'} at ${iso(last.decided_at).slice(0, 16).replace('T', ' ')} UTC` : '';
+    const now = last ? `, now ${last.decision} at ${STAGE_WORD[last.stage]} by ${last.login ?? 'someone'} at ${iso(last.decided_at).slice(0, 16).replace('T', ' ')} UTC` : '';
     throw new ConflictError(`Reference ${refId} changed since you opened it (version ${r.version}${now}); reload it before deciding.`, {
       currentVersion: r.version,
       screeningStatus: r.screening_status,
     });
   }
+  const stage = stageOf(r.screening_status, last?.stage ?? null);
+  if (input.stage && input.stage !== stage)
+    throw new ConflictError(`Reference ${refId} is at the ${STAGE_WORD[stage]} stage now, not ${STAGE_WORD[input.stage]}; reload it before deciding.`, {
+      currentVersion: r.version,
+      screeningStatus: r.screening_status,
+      stage,
+    });
+  checkReason(refId, stage, input);
   const withdrawnRecords = input.decision === 'excluded' ? await lockSettledRecordsOf(trx, refId) : [];
   if (withdrawnRecords.length && !hasRole(actor.roles, 'curator'))
     throw new ForbiddenError(`Reference ${refId} has settled effects; only a curator may exclude it (that withdraws them).`);
-  const row = await insertDecision(trx, { ref_id: refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id, withdrawn_records: withdrawnRecords });
-  await updateRef(trx, refId, { screening_status: input.decision, version: r.version + 1 });
+  const row = await insertDecision(trx, { ref_id: refId, stage, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decided_by: actor.id, withdrawn_records: withdrawnRecords });
+  const screeningStatus = statusAfter(stage, input.decision);
+  await updateRef(trx, refId, { screening_status: screeningStatus, version: r.version + 1 });
   let registryVersion: number | null = null;
-  const why = `Excluded at screening: ${input.reason ? EXCLUSION_REASON_LABELS[input.reason] : ''}${input.note ? ` (${input.note})` : ''}`;
+  const why = `Excluded at ${STAGE_WORD[stage]} screening: ${input.reason ? EXCLUSION_REASON_LABELS[input.reason] : 'no reason given'}${input.note ? ` (${input.note})` : ''}`;
   for (const id of withdrawnRecords) registryVersion = (await withdrawRecordIn(trx, actor.id, id, why)).registryVersion;
   await recordAudit(trx, {
     actorId: actor.id,
     action: 'screening.decide',
     entityType: 'reference',
     entityId: refId,
-    details: { decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, previous: r.screening_status, withdrawnRecords },
+    details: { stage, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, previous: r.screening_status, withdrawnRecords },
   });
   return {
-    id: row.id, refId, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
-    screeningStatus: input.decision, version: r.version + 1, withdrawnRecords, registryVersion,
+    id: row.id, refId, stage, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
+    screeningStatus, version: r.version + 1, withdrawnRecords, registryVersion,
   };
+}
+
+/** A stage as it reads inside a sentence. */
+const STAGE_WORD: Record<ScreeningStage, string> = { title_abstract: 'title and abstract', full_text: 'full-text' };
+
+const reasonList = (stage: ScreeningStage) => STAGE_REASONS[stage].map((x) => `“${EXCLUSION_REASON_LABELS[x]}”`).join(', ');
+
+/** Each stage's own reasons (PRISMA 2020 item 16: reports excluded at full text, each with its reason). */
+function checkReason(refId: number, stage: ScreeningStage, input: { decision: string; reason?: ExclusionReason }) {
+  if (input.decision !== 'excluded') return;
+  if (!input.reason && stage === 'full_text')
+    throw new UnprocessableError(`Reference ${refId} is at the full-text stage, where an exclusion needs a reason: pick one of ${reasonList(stage)}.`, { field: 'reason', stage });
+  if (input.reason && !STAGE_REASONS[stage].includes(input.reason))
+    throw new UnprocessableError(
+      `“${EXCLUSION_REASON_LABELS[input.reason]}” is not a reason at the ${STAGE_WORD[stage]} stage of reference ${refId}; pick one of ${reasonList(stage)}.`,
+      { field: 'reason', stage },
+    );
+}
+
+/** Includes a reference at title/abstract and then at full text (the demo seed's papers, which are coded). */
+export async function includeThroughFullText(db: Knex, refId: number, actor: Actor, version = 1): Promise<ScreeningResult> {
+  return db.transaction(async (trx) => {
+    const first = await decideIn(trx, refId, { decision: 'included', stage: 'title_abstract', version }, actor);
+    return decideIn(trx, refId, { decision: 'included', stage: 'full_text', version: first.version }, actor);
+  });
 }
 
 /**
@@ -106,7 +142,7 @@ async function undoIn(trx: Knex.Transaction, refId: number, input: ScreeningUndo
   if (restoredRecords.length && !hasRole(actor.roles, 'curator'))
     throw new ForbiddenError(`Undoing the exclusion of reference ${refId} settles its withdrawn effects again; only a curator may.`);
   await markUndone(trx, last.id, actor.id);
-  const screeningStatus = before?.decision ?? 'unscreened';
+  const screeningStatus = before ? statusAfter(before.stage, before.decision) : 'unscreened';
   await updateRef(trx, refId, { screening_status: screeningStatus, version: r.version + 1 });
   const registryVersion = restoredRecords.length
     ? await restoreWithdrawnRecordsIn(trx, actor.id, refId, restoredRecords, `Exclusion undone at screening (decision ${last.id})`)
@@ -116,9 +152,9 @@ async function undoIn(trx: Knex.Transaction, refId: number, input: ScreeningUndo
     action: 'screening.undo',
     entityType: 'reference',
     entityId: refId,
-    details: { undoneDecision: last.id, decision: last.decision, reason: last.reason, now: screeningStatus, restoredRecords },
+    details: { undoneDecision: last.id, stage: last.stage, decision: last.decision, reason: last.reason, now: screeningStatus, restoredRecords },
   });
-  return { refId, undone: { id: Number(last.id), decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1, restoredRecords, registryVersion };
+  return { refId, undone: { id: Number(last.id), stage: last.stage, decision: last.decision, reason: last.reason }, screeningStatus, version: r.version + 1, restoredRecords, registryVersion };
 }
 
 /** CSL-JSON keeps keywords as one string ("a, b; c") or, from some sources, a list. */
@@ -128,19 +164,20 @@ export function cslKeywords(csl: Record<string, unknown> | null | undefined): st
   return [...new Set(parts.map((k) => k.trim()).filter(Boolean))];
 }
 
-/** The next unscreened references, oldest first, with what a screener reads (abstract, keywords, attachments), why each is here, and how many are left. */
-export async function queue(db: Knex, q: { limit: number; batch?: number }): Promise<ScreeningQueue> {
-  const { total, rows } = await unscreenedRefs(db, q);
+/** The next references waiting for a stage (unscreened, or awaiting full text), oldest first, with what a screener reads (abstract, keywords, attachments), why each is here, and how many are left. */
+export async function queue(db: Knex, q: { limit: number; batch?: number; stage: ScreeningStage }): Promise<ScreeningQueue> {
+  const { total, rows } = await refsAwaiting(db, { ...q, status: q.stage === 'title_abstract' ? 'unscreened' : 'awaiting_full_text' });
   const ids = rows.map((r) => r.id);
   const [batches, attachments] = await Promise.all([creatingBatchesOf(db, ids), attachmentsOfRefs(db, ids)]);
   return {
+    stage: q.stage,
     items: rows.map((r) => ({
       ...summary(r),
       abstract: typeof r.csl?.abstract === 'string' ? r.csl.abstract : null,
       version: r.version,
       keywords: cslKeywords(r.csl),
       attachments: attachments.filter((a) => a.ref_id === r.id).map((a) => ({ id: a.id, filename: a.filename, sizeBytes: a.size_bytes, mime: a.mime })),
-      why: { kind: 'new' as const, batch: batches.get(r.id) ?? null },
+      why: { kind: q.stage === 'title_abstract' ? ('new' as const) : ('passed_title_abstract' as const), batch: batches.get(r.id) ?? null },
     })),
     remaining: total,
   };
@@ -156,18 +193,31 @@ export async function prismaCounts(db: Db): Promise<PrismaFlow> {
   const identified: Record<string, number> = {};
   for (const r of [...refs.bySource, ...dupEntries]) identified[r.source] = (identified[r.source] ?? 0) + r.n;
   const duplicateEntries = dupEntries.reduce((s, r) => s + r.n, 0);
-  const st: Record<string, number> = { unscreened: 0, included: 0, excluded: 0 };
+  const st: Record<ScreeningStatus, number> = { unscreened: 0, awaiting_full_text: 0, included: 0, excluded: 0 };
   for (const s of refs.byStatus) st[s.status] = s.n;
+  const byStage = Object.fromEntries(SCREENING_STAGES.map((g) => [g, Object.fromEntries(STAGE_REASONS[g].map((r) => [r, 0]))])) as Record<ScreeningStage, Record<string, number>>;
   const excludedByReason = Object.fromEntries(EXCLUSION_REASONS.map((r) => [r, 0])) as Record<string, number>;
-  for (const r of reasons) excludedByReason[r.reason] = r.n;
-  const identifiedTotal = Object.values(identified).reduce((s, n) => s + n, 0);
+  for (const r of reasons) {
+    const key = r.reason ?? NO_REASON;
+    byStage[r.stage][key] = (byStage[r.stage][key] ?? 0) + r.n;
+    excludedByReason[key] = (excludedByReason[key] ?? 0) + r.n;
+  }
+  const sum = (o: Record<string, number>) => Object.values(o).reduce((s, n) => s + n, 0);
+  const identifiedTotal = sum(identified);
   const removed = refs.merged + duplicateEntries;
+  const ftExcluded = sum(byStage.full_text);
+  const taExcluded = st.excluded - ftExcluded;
+  const reachedFullText = st.awaiting_full_text + st.included + ftExcluded;
   return {
+    stages: {
+      title_abstract: { decided: reachedFullText + taExcluded, waiting: st.unscreened, included: reachedFullText, excluded: taExcluded, excludedByReason: byStage.title_abstract },
+      full_text: { decided: st.included + ftExcluded, waiting: st.awaiting_full_text, included: st.included, excluded: ftExcluded, excludedByReason: byStage.full_text },
+    },
     identified: { total: identifiedTotal, bySource: identified },
     duplicatesRemoved: { total: removed, importDuplicates: duplicateEntries, merged: refs.merged },
     afterDuplicates: identifiedTotal - removed,
     screened: st.included + st.excluded,
-    awaitingScreening: st.unscreened,
+    awaitingScreening: st.unscreened + st.awaiting_full_text,
     excluded: { total: st.excluded, byReason: excludedByReason },
     included: st.included,
   };

@@ -13,7 +13,7 @@ import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows, lockSnapsh
 import { requestFilters, synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { flowIn, flowSvg } from './flow.js';
-import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../shared/vocabulary/screening.js';
+import { EXCLUSION_COUNT_LABELS } from '../../shared/vocabulary/screening.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import { METHOD_LABELS, type CreatedSnapshot, type SnapshotCitation, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
@@ -36,7 +36,7 @@ export async function prismaForMethods(db: Db): Promise<PrismaCounts | null> {
     const reasons = Object.entries(c.excluded.byReason)
       .filter(([, n]) => n > 0)
       .sort((a, b) => b[1] - a[1])
-      .map(([reason, count]) => ({ reason: EXCLUSION_REASON_LABELS[reason as ExclusionReason] ?? reason, count }));
+      .map(([reason, count]) => ({ reason: EXCLUSION_COUNT_LABELS[reason] ?? reason, count }));
     return { identified: c.identified.total, duplicatesRemoved: c.duplicatesRemoved.total, screened: c.screened, excluded: c.excluded.total, excludedReasons: reasons, included: c.included, notYetScreened: c.awaitingScreening, coded, settled };
   } catch {
     return null;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { EXCLUSION_REASONS, SCREENING_DECISIONS, SCREENING_STATUSES } from '../vocabulary/screening.js';
+import { EXCLUSION_REASONS, SCREENING_DECISIONS, SCREENING_STAGES, SCREENING_STATUSES } from '../vocabulary/screening.js';
 import { idParam, actorSchema, pageSchema, pagingSchema, timestamp } from './common.js';
 
 export const IMPORT_FORMATS = ['bibtex', 'ris', 'doi'] as const;
@@ -103,13 +103,15 @@ export const referenceEditSchema = z.object({
 });
 export type ReferenceEdit = z.infer<typeof referenceEditSchema>;
 
+const stageField = z.enum(SCREENING_STAGES, { message: 'stage must be title_abstract or full_text' });
 const decisionFields = z.object({
   decision: z.enum(SCREENING_DECISIONS, { message: 'decision must be included or excluded' }),
   reason: z.enum(EXCLUSION_REASONS, { message: 'pick a reason from the list' }).optional(),
   note: z.string().trim().max(2000).optional(),
+  /** The stage the screener decided at (the reference's current one; another answers 409). Which reasons a stage takes, and that a full-text exclusion needs one, the server checks (422). */
+  stage: stageField.optional(),
 });
 const decisionRules = (v: z.infer<typeof decisionFields>, ctx: z.RefinementCtx) => {
-  if (v.decision === 'excluded' && !v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'an exclusion needs a reason' });
   if (v.decision === 'included' && v.reason) ctx.addIssue({ code: 'custom', path: ['reason'], message: 'an inclusion takes no exclusion reason' });
   if (v.reason === 'other' && !v.note) ctx.addIssue({ code: 'custom', path: ['note'], message: 'say why, when the reason is "other"' });
 };
@@ -125,6 +127,7 @@ export type ScreeningDecisionInput = z.infer<typeof screeningDecisionSchema>;
 
 export const screeningQueueQuerySchema = z.object({
   limit: z.coerce.number().int().min(1).max(100).default(20),
+  stage: stageField.default('title_abstract'),
   batch: idParam.optional(),
 });
 
@@ -185,6 +188,7 @@ export type ReferencePage = z.infer<typeof referencePageSchema>;
 
 export const screeningEntrySchema = z.object({
   id: z.number().int(),
+  stage: z.enum(SCREENING_STAGES),
   decision: z.enum(SCREENING_DECISIONS),
   reason: z.string().nullable(),
   note: z.string().nullable(),
@@ -229,7 +233,7 @@ export type ReferenceEditResult = z.infer<typeof referenceEditResultSchema>;
 
 /** POST /api/references/:id/screening */
 export const screeningResultSchema = screeningEntrySchema.omit({ decidedBy: true }).extend({
-  screeningStatus: z.enum(SCREENING_DECISIONS),
+  screeningStatus: z.enum(SCREENING_STATUSES),
   /** The reference's new version. */
   version: z.number().int(),
   /** Settled records a curator's exclusion withdrew (their effects leave every analysis), and the registry version it made. */
@@ -246,7 +250,7 @@ export type ScreeningUndoInput = z.infer<typeof screeningUndoSchema>;
 export const screeningUndoResultSchema = z.object({
   refId: z.number().int(),
   /** The decision taken back. */
-  undone: z.object({ id: z.number().int(), decision: z.enum(SCREENING_DECISIONS), reason: z.string().nullable() }),
+  undone: z.object({ id: z.number().int(), stage: z.enum(SCREENING_STAGES), decision: z.enum(SCREENING_DECISIONS), reason: z.string().nullable() }),
   /** What the reference is now: the decision before it, or unscreened. */
   screeningStatus: z.enum(SCREENING_STATUSES),
   version: z.number().int(),
@@ -276,9 +280,13 @@ export const screeningBatchUndoResultSchema = z.object({ results: z.array(screen
 export type ScreeningBatchUndoResult = z.infer<typeof screeningBatchUndoResultSchema>;
 
 /** GET /api/screening/queue */
-/** Why a reference is in the queue: new (with the import batch that created it, null when it came another way). */
-export const queueReasonSchema = z.object({ kind: z.enum(['new']), batch: z.number().int().nullable() });
+/**
+ * Why a reference is in the queue: new (with the import batch that created it, null when it came another way), or,
+ * in the full-text queue, included on title and abstract.
+ */
+export const queueReasonSchema = z.object({ kind: z.enum(['new', 'passed_title_abstract']), batch: z.number().int().nullable() });
 export const screeningQueueSchema = z.object({
+  stage: z.enum(SCREENING_STAGES),
   items: z.array(
     referenceSummarySchema.extend({
       abstract: z.string().nullable(),
@@ -294,7 +302,19 @@ export type ScreeningQueue = z.infer<typeof screeningQueueSchema>;
 export type ScreeningQueueItem = ScreeningQueue['items'][number];
 
 /** GET /api/screening/counts: the PRISMA 2020 flow numbers. */
+const stageCountsSchema = z.object({
+  /** Records (title/abstract) or reports (full text) decided at this stage, and those waiting for it. */
+  decided: z.number().int(),
+  waiting: z.number().int(),
+  included: z.number().int(),
+  excluded: z.number().int(),
+  /** Exclusions by reason; at title/abstract those without one count under `none`. */
+  excludedByReason: z.record(z.string(), z.number().int()),
+});
+export type StageCounts = z.infer<typeof stageCountsSchema>;
 export const prismaCountsSchema = z.object({
+  /** PRISMA 2020 item 8: title/abstract, then full text. The totals below are over both (screened = decided at every stage it reached). */
+  stages: z.object({ title_abstract: stageCountsSchema, full_text: stageCountsSchema }),
   identified: z.object({ total: z.number().int(), bySource: z.record(z.string(), z.number().int()) }),
   duplicatesRemoved: z.object({ total: z.number().int(), importDuplicates: z.number().int(), merged: z.number().int() }),
   afterDuplicates: z.number().int(),

@@ -40,7 +40,7 @@ export const LABELS = {
     open: 'Open',
     resolved: 'Resolved',
   },
-  screening: { unscreened: 'Not yet screened', included: 'Included', excluded: 'Excluded' },
+  screening: { unscreened: 'Not yet screened', awaiting_full_text: 'Awaiting full text', included: 'Included', excluded: 'Excluded' },
   filter: {
     manipulation: 'Manipulation', outcome: 'Outcome kind', parameter: 'Parameter', unit: 'Unit', metric: 'Metric', population: 'Population',
     modality: 'Modality', task: 'Task', design: 'Design', yearFrom: 'From year', yearTo: 'To year',

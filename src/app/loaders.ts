@@ -11,7 +11,7 @@ import { pairQueryOptions } from '../features/reconciliation/api/get-pair';
 import { referenceQueryOptions } from '../features/references/api/get-reference';
 import { firstReferencesQuery, referencesQueryOptions } from '../features/references/api/get-references';
 import { countsQueryOptions } from '../features/screening/api/get-counts';
-import { QUEUE_LIMIT, queueQueryOptions } from '../features/screening/api/get-queue';
+import { QUEUE_LIMIT, queueQueryOptions, stageFromParam } from '../features/screening/api/get-queue';
 import { snapshotQueryOptions } from '../features/snapshots/api/get-snapshot';
 import { facetsQueryOptions } from '../features/synthesis/api/get-facets';
 import { synthesisQueryOptions } from '../features/synthesis/api/run-synthesis';
@@ -40,10 +40,11 @@ export function screenLoaders(qc: QueryClient) {
       return settled(me(), id !== null && qc.ensureQueryData(referenceQueryOptions(id)));
     },
     screening: ({ request }: LoaderFunctionArgs) => {
-      const batch = Number(new URL(request.url).searchParams.get('batch')) || undefined;
+      const params = new URL(request.url).searchParams;
+      const batch = Number(params.get('batch')) || undefined;
       return settled(
         me(),
-        qc.ensureQueryData(queueQueryOptions({ limit: QUEUE_LIMIT, batch })),
+        qc.ensureQueryData(queueQueryOptions({ limit: QUEUE_LIMIT, stage: stageFromParam(params.get('stage')), batch })),
         qc.ensureQueryData(countsQueryOptions()),
         qc.ensureQueryData(manipulationsQueryOptions(CURRENT_VOCABULARY)),
       );

@@ -54,10 +54,11 @@ describe('screening several references at once, and what the queue says of each'
     expect((await t.ctx.db('refs').where({ id: ids[5] }).first()).screening_status).toBe('unscreened');
   });
 
-  it('checks the batch: a reason for an exclusion, each reference once, at most 100', async () => {
-    const noReason = await coder.post('/api/screening/decisions').send({ items: [{ refId: ids[5], version: 1 }], decision: 'excluded' });
-    expect(noReason.status).toBe(400);
-    expect(noReason.body.error.details[0]).toEqual({ path: 'body.reason', message: 'an exclusion needs a reason' });
+  it('checks the batch: a reason of the stage, each reference once, at most 100', async () => {
+    const wrongStage = await coder.post('/api/screening/decisions').send({ items: [{ refId: ids[5], version: 1 }], decision: 'excluded', reason: 'full_text_unavailable' });
+    expect(wrongStage.status).toBe(422);
+    expect(wrongStage.body.error.message).toMatch(/^“Full text not available” is not a reason at the title and abstract stage/);
+    expect((await t.ctx.db('refs').where({ id: ids[5] }).first()).screening_status).toBe('unscreened');
     const twice = await coder.post('/api/screening/decisions').send({ items: [{ refId: ids[5], version: 1 }, { refId: ids[5], version: 1 }], decision: 'included' });
     expect(twice.body.error.details[0].message).toBe('each reference once');
     const empty = await coder.post('/api/screening/decisions').send({ items: [], decision: 'included' });

@@ -62,7 +62,7 @@ describe('screening: undo of the last decision', () => {
     const v = await version(ids[2]);
     const stale = await coder.post(`/api/references/${ids[2]}/screening/undo`).send({ version: v - 1 });
     expect(stale.status).toBe(409);
-    expect(stale.body.error.details).toMatchObject({ currentVersion: v, screeningStatus: 'included' });
+    expect(stale.body.error.details).toMatchObject({ currentVersion: v, screeningStatus: 'awaiting_full_text' });
     const other = await undo(coder2, ids[2]);
     expect(other.status).toBe(403);
     expect(other.body.error.message).toMatch(/coder1/);

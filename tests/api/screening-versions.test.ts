@@ -22,13 +22,13 @@ describe('screening decisions carry a version; excluding settled effects is a cu
     const seen = (await coder.get(`/api/references/${refId}`)).body.reference.version;
     const first = await coder.post(`/api/references/${refId}/screening`).send({ decision: 'included', version: seen });
     expect(first.status).toBe(201);
-    expect(first.body).toMatchObject({ screeningStatus: 'included', version: seen + 1, withdrawnRecords: [], registryVersion: null });
+    expect(first.body).toMatchObject({ stage: 'title_abstract', screeningStatus: 'awaiting_full_text', version: seen + 1, withdrawnRecords: [], registryVersion: null });
     const stale = await coder2.post(`/api/references/${refId}/screening`).send({ decision: 'excluded', reason: 'wrong_population', version: seen });
     expect(stale.status).toBe(409);
-    expect(stale.body.error.message).toMatch(/changed since you opened it .*now included by coder1/);
-    expect(stale.body.error.details).toEqual({ currentVersion: seen + 1, screeningStatus: 'included' });
+    expect(stale.body.error.message).toMatch(/changed since you opened it .*now included at title and abstract by coder1/);
+    expect(stale.body.error.details).toEqual({ currentVersion: seen + 1, screeningStatus: 'awaiting_full_text' });
     const after = await coder.get(`/api/references/${refId}`);
-    expect(after.body.reference.screeningStatus).toBe('included');
+    expect(after.body.reference.screeningStatus).toBe('awaiting_full_text');
     expect(after.body.screening).toHaveLength(1);
     // A missing version is a field error.
     const none = await coder2.post(`/api/references/${refId}/screening`).send({ decision: 'included' });
@@ -68,7 +68,7 @@ describe('screening decisions carry a version; excluding settled effects is a cu
     const record = await t.ctx.db('extractions').where({ id: s.recordId }).first();
     expect(record.state).toBe('withdrawn');
     const settlement = await t.ctx.db('settlements').where({ record_id: s.recordId, kind: 'withdrawn' }).first();
-    expect(settlement.rationale).toBe('Excluded at screening: Review article (a narrative review after all)');
+    expect(settlement.rationale).toBe('Excluded at full-text screening: Review article (a narrative review after all)');
     const audit = await t.ctx.db('audit_log').where({ action: 'screening.decide', entity_id: String(id) }).orderBy('id', 'desc').first();
     expect(audit.details).toMatchObject({ decision: 'excluded', withdrawnRecords: [s.recordId] });
     // Nothing settled is left, so a contributor's later decisions need no curator.

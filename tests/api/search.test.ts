@@ -46,11 +46,11 @@ describe('search', () => {
     expect(years.body.hits.map((h: { id: number }) => h.id).sort()).toEqual([id.d, id.e].sort());
     expect(years.body.facets.year).toEqual({ '2022': 2 });
     await coder.post(`/api/references/${id.a}/screening`).send({ decision: 'included', version: 1 });
-    const incl = await search('q=&status=included');
+    const incl = await search('q=&status=awaiting_full_text');
     expect(incl.body.hits.map((h: { id: number }) => h.id)).toEqual([id.a]);
     const all = await search('q=');
     expect(all.body.total).toBe(5);
-    expect(all.body.facets.screening_status).toEqual({ included: 1, unscreened: 4 });
+    expect(all.body.facets.screening_status).toEqual({ awaiting_full_text: 1, unscreened: 4 });
     const bad = await search('yearFrom=abc');
     expect(bad.status).toBe(400);
   });

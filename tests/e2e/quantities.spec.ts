@@ -77,7 +77,10 @@ export const specs: Spec[] = [
       assert.equal(imported.status(), 201);
       const ref = { id: ((await imported.json()) as { entries: { referenceId: number }[] }).entries[0].referenceId };
       const { version } = ((await (await page.request.get(appUrl(`/api/references/${ref.id}`))).json()) as { reference: { version: number } }).reference;
-      const included = await page.request.post(appUrl(`/api/references/${ref.id}/screening`), { headers, data: { decision: 'included', version } });
+      // Included on title and abstract, then at full text: only then is it coded.
+      const passed = await page.request.post(appUrl(`/api/references/${ref.id}/screening`), { headers, data: { decision: 'included', version } });
+      assert.equal(passed.status(), 201, await passed.text());
+      const included = await page.request.post(appUrl(`/api/references/${ref.id}/screening`), { headers, data: { decision: 'included', version: version + 1 } });
       assert.equal(included.status(), 201, await included.text());
       const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: ref.id } });
       assert.equal(claimed.status(), 201);

@@ -78,17 +78,17 @@ export const specs: Spec[] = [
       const reader = page.getByRole('article', { name: 'Record being read' });
       const first = await reader.getByRole('heading', { level: 2 }).innerText();
       await decideByKeys(page, 'inc');
-      await page.getByText(`Last: ✓ Included: ${first}`).waitFor();
+      await page.getByText(`Last: ✓ Included on title and abstract: ${first}`).waitFor();
       await page.getByText('1 record waiting from batch').waitFor();
-      await decideByKeys(page, 'no us');
-      await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
+      await decideByKeys(page, 'not ab');
+      await page.getByText(/Last: ✕ Excluded \(Not about time perception\)/).waitFor();
       await page.getByText('0 records waiting from batch').waitFor();
       // Taking the exclusion back returns the reference to the queue; deciding again empties it.
       await page.getByRole('button', { name: '↶ Take back (U)' }).click();
       await page.getByText(/↶ Taken back: #\d+ is waiting again/).waitFor();
       await page.getByText('1 record waiting from batch').waitFor();
-      await decideByKeys(page, 'nus');
-      await page.getByText(/Last: ✕ Excluded \(No usable statistics\)/).waitFor();
+      await decideByKeys(page, 'natp');
+      await page.getByText(/Last: ✕ Excluded \(Not about time perception\)/).waitFor();
       await page.getByText('0 records waiting from batch').waitFor();
       await page.getByText('Nothing is waiting from this batch.').waitFor();
 
@@ -99,7 +99,7 @@ export const specs: Spec[] = [
       await page.getByRole('link', { name: `Chronostasis ${stamp} after saccades` }).waitFor();
       await page.getByLabel('Words in title, authors, journal or DOI').fill('probe');
       await page.getByText(/^2 references for “probe”/).waitFor();
-      await page.getByRole('radio', { name: /included/ }).check();
+      await page.getByRole('radio', { name: /awaiting full text/ }).check();
       await page.getByText(/^1 reference for “probe”/).waitFor();
       await signOut(page);
     },

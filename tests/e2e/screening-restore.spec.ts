@@ -36,16 +36,16 @@ export const specs: Spec[] = [
       const n = effects.items.filter((e) => e.referenceId === target.referenceId).length;
       const refId = target.referenceId;
 
-      // The seed included it; taking that back (API) puts it in the screening queue with its effects still settled.
+      // The seed included it at full text; taking that back (API) puts it in the full-text queue with its effects still settled.
       const back = await page.request.post(appUrl(`/api/references/${refId}/screening/undo`), { headers: origin(), data: { version: await versionOf(page, refId) } });
       assert.equal(back.status(), 200);
-      assert.equal(((await back.json()) as { screeningStatus: string }).screeningStatus, 'unscreened');
+      assert.equal(((await back.json()) as { screeningStatus: string }).screeningStatus, 'awaiting_full_text');
       assert.equal((await apiJson<{ total: number }>(page, `/api/effects?referenceId=${refId}`)).total, n);
 
       const atlas = await page.context().newPage();
       assert.equal(await (await atlasRow(atlas, target.title)).count(), 1, 'in the atlas before the exclusion');
 
-      await page.goto(appUrl('/screening'));
+      await page.goto(appUrl('/screening?stage=full_text'));
       const list = page.getByRole('listbox', { name: 'Records to screen' });
       await list.getByRole('option').filter({ hasText: target.title }).click();
       await page.getByRole('article', { name: 'Record being read' }).getByRole('heading', { name: target.title }).waitFor();

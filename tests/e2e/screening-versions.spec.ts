@@ -45,13 +45,13 @@ export const specs: Spec[] = [
       assert.equal(await page.getByRole('textbox', { name: /^Note/ }).inputValue(), 'children only');
 
       await decide(stale, 'Include');
-      await stale.getByRole('alert').getByText(/changed since you opened it .*now excluded by coder1/).waitFor();
+      await stale.getByRole('alert').getByText(/changed since you opened it .*now excluded at title and abstract by coder1/).waitFor();
       // The stale tab now shows the decision that won, and a second try goes through.
       await stale.getByRole('cell', { name: 'children only' }).waitFor();
       await decide(stale, 'Include', undefined, 'adults after all');
       await stale.getByText('✓ Recorded.').waitFor();
       const detail = await apiJson<{ reference: { screeningStatus: string; version: number }; screening: unknown[] }>(page, `/api/references/${refId}`);
-      assert.equal(detail.reference.screeningStatus, 'included');
+      assert.equal(detail.reference.screeningStatus, 'awaiting_full_text');
       assert.equal(detail.screening.length, 2);
       await page.reload();
       await page.getByRole('button', { name: 'Record decision' }).waitFor();

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { hasRole } from '../../../shared/roles';
-import { EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../../shared/vocabulary/screening';
+import { EXCLUSION_REASON_LABELS, SCREENING_STAGE_LABELS, stageOf, type ExclusionReason } from '../../../shared/vocabulary/screening';
 import { Button } from '../../components/ui/Button';
 import { Caution, EmptyState, ErrorNote, Loading } from '../../components/ui/Notice';
 import { useMe } from '../../features/auth/api/get-me';
@@ -63,7 +63,7 @@ export function ReferencePage() {
       )}
 
       <h2>Screening</h2>
-      {contributor && !r.mergedInto && <DecisionForm key={r.id} refId={r.id} version={r.version} current={data.screening[0]} settledEffects={r.settledEffects} curator={curator} />}
+      {contributor && !r.mergedInto && <DecisionForm key={r.id} refId={r.id} stage={stageOf(r.screeningStatus, data.screening[0]?.stage ?? null)} version={r.version} current={data.screening[0]} settledEffects={r.settledEffects} curator={curator} />}
       {data.screening.length === 0 ? (
         <EmptyState>No decision yet.{contributor ? ' Record one above, or work through the screening queue.' : ''}</EmptyState>
       ) : (
@@ -71,6 +71,7 @@ export function ReferencePage() {
           <thead>
             <tr>
               <th className="num">When (UTC)</th>
+              <th>Stage</th>
               <th>Decision</th>
               <th>Reason</th>
               <th>Note</th>
@@ -81,6 +82,7 @@ export function ReferencePage() {
             {data.screening.map((s) => (
               <tr key={s.id}>
                 <td className="num">{s.decidedAt.slice(0, 16).replace('T', ' ')}</td>
+                <td>{SCREENING_STAGE_LABELS[s.stage]}</td>
                 <td>
                   <ScreeningStatusWord status={s.decision} />
                 </td>

@@ -1,12 +1,17 @@
-import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, type ExclusionReason } from '../../../shared/vocabulary/screening';
+import { EXCLUSION_REASON_LABELS, STAGE_REASONS, type ExclusionReason, type ScreeningStage } from '../../../shared/vocabulary/screening';
 
-/** One line of the decision chooser: include, or exclude for one reason. */
-export type Choice = { decision: 'included' } | { decision: 'excluded'; reason: ExclusionReason };
+/** One line of the decision chooser: include, or exclude for one reason (at title and abstract, also without one). */
+export type Choice = { decision: 'included' } | { decision: 'excluded'; reason?: ExclusionReason };
 
-export const CHOICES: Choice[] = [{ decision: 'included' }, ...EXCLUSION_REASONS.map((reason) => ({ decision: 'excluded' as const, reason }))];
+/** A stage's lines: include, its own reasons, and at title and abstract an exclusion without a reason. */
+export const choicesFor = (stage: ScreeningStage): Choice[] => [
+  { decision: 'included' },
+  ...STAGE_REASONS[stage].map((reason) => ({ decision: 'excluded' as const, reason })),
+  ...(stage === 'title_abstract' ? [{ decision: 'excluded' as const }] : []),
+];
 
-export const choiceLabel = (c: Choice) => (c.decision === 'included' ? 'Include' : EXCLUSION_REASON_LABELS[c.reason]);
-export const choiceKey = (c: Choice) => (c.decision === 'included' ? 'include' : c.reason);
+export const choiceLabel = (c: Choice) => (c.decision === 'included' ? 'Include' : c.reason ? EXCLUSION_REASON_LABELS[c.reason] : 'Without a reason');
+export const choiceKey = (c: Choice) => (c.decision === 'included' ? 'include' : (c.reason ?? 'no-reason'));
 
 const words = (s: string) => s.toLowerCase().match(/[a-z0-9]+/g) ?? [];
 
@@ -26,11 +31,12 @@ export function matchesTyped(label: string, typed: string): boolean {
   return inOrder || (!/\s/.test(t) && w.map((x) => x[0]).join('').startsWith(t));
 }
 
-/** The chooser's lines for what was typed; an exclusion typed as "ex…" keeps every reason. */
-export function filterChoices(typed: string): Choice[] {
+/** The chooser's lines of a stage for what was typed; an exclusion typed as "ex…" keeps every reason. */
+export function filterChoices(typed: string, stage: ScreeningStage = 'title_abstract'): Choice[] {
   const t = typed.trim().toLowerCase();
-  if (t.length >= 2 && 'exclude'.startsWith(t)) return CHOICES.filter((c) => c.decision === 'excluded');
-  return CHOICES.filter((c) => matchesTyped(choiceLabel(c), t));
+  const all = choicesFor(stage);
+  if (t.length >= 2 && 'exclude'.startsWith(t)) return all.filter((c) => c.decision === 'excluded');
+  return all.filter((c) => matchesTyped(choiceLabel(c), t));
 }
 
 /** Text cut into plain parts and parts that name one of `terms` (whole words, a plural allowed, any case). */

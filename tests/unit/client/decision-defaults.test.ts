@@ -12,7 +12,7 @@ describe('the screening form starts from the current decision', () => {
     const reason = EXCLUSION_REASONS[1];
     const start = decisionDefaults({ decision: 'excluded', reason, note: 'adults only' });
     expect(start).toEqual({ decision: 'excluded', reason, note: 'adults only' });
-    expect(decisionFormSchema.parse(start)).toEqual({ decision: 'excluded', reason, note: 'adults only' });
+    expect(decisionFormSchema('title_abstract').parse(start)).toEqual({ decision: 'excluded', reason, note: 'adults only', stage: 'title_abstract' });
   });
 
   it('keeps an inclusion with its note and no reason', () => {

@@ -83,13 +83,16 @@ describe('the reference edit form', () => {
 
 describe('the screening decision form', () => {
   it('an inclusion drops a reason left from an earlier choice; a note only when written', () => {
-    expect(decisionFormSchema.parse({ decision: 'included', reason: 'wrong_population', note: '  ' })).toEqual({ decision: 'included' });
+    expect(decisionFormSchema('title_abstract').parse({ decision: 'included', reason: 'wrong_population', note: '  ' })).toEqual({ decision: 'included', stage: 'title_abstract' });
   });
 
-  it('an exclusion needs a reason, and "other" needs a note (the server schema’s rules)', () => {
-    expect(messages(decisionFormSchema, { decision: 'excluded', reason: '', note: '' })).toEqual({ reason: 'an exclusion needs a reason' });
-    expect(messages(decisionFormSchema, { decision: 'excluded', reason: 'other', note: '' })).toEqual({ note: 'say why, when the reason is "other"' });
-    expect(decisionFormSchema.parse({ decision: 'excluded', reason: 'other', note: ' no timing task ' })).toEqual({ decision: 'excluded', reason: 'other', note: 'no timing task' });
+  it('a full-text exclusion needs a reason of its stage, and "other" needs a note (the server’s rules)', () => {
+    const fullText = decisionFormSchema('full_text');
+    expect(messages(fullText, { decision: 'excluded', reason: '', note: '' })).toEqual({ reason: 'a full-text exclusion needs a reason' });
+    expect(messages(fullText, { decision: 'excluded', reason: 'other', note: '' })).toEqual({ note: 'say why, when the reason is "other"' });
+    expect(fullText.parse({ decision: 'excluded', reason: 'other', note: ' no timing task ' })).toEqual({ decision: 'excluded', reason: 'other', note: 'no timing task', stage: 'full_text' });
+    expect(decisionFormSchema('title_abstract').parse({ decision: 'excluded', reason: '', note: '' })).toEqual({ decision: 'excluded', stage: 'title_abstract' });
+    expect(messages(decisionFormSchema('title_abstract'), { decision: 'excluded', reason: 'no_usable_statistics', note: '' })).toEqual({ reason: 'pick a reason of this stage' });
   });
 });
 

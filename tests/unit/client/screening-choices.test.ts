@@ -15,9 +15,12 @@ describe('the decision chooser picks a line by its first letters', () => {
 
   it('filters the lines as a screener types', () => {
     expect(labels('')).toHaveLength(7);
+    expect(filterChoices('', 'full_text').map(choiceLabel)).toEqual(['Include', 'No usable statistics', 'Wrong population', 'Not about time perception', 'Review article', 'Duplicate publication', 'Full text not available', 'Other (explained)']);
     expect(labels('inc')).toEqual(['Include']);
     expect(labels('wr')).toEqual(['Wrong population']);
-    expect(labels('no')).toEqual(['Not about time perception', 'No usable statistics']);
+    expect(labels('no')).toEqual(['Not about time perception']);
+    expect(filterChoices('no', 'full_text').map(choiceLabel)).toEqual(['No usable statistics', 'Not about time perception', 'Full text not available']);
+    expect(labels('wi')).toEqual(['Without a reason']);
     expect(labels('rev')).toEqual(['Review article']);
     expect(labels('dp')).toEqual(['Duplicate publication']);
     expect(labels('ex')).toHaveLength(6);

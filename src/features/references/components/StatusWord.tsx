@@ -1,5 +1,6 @@
 const LOOK: Record<string, { symbol: string; word: string; className: string }> = {
   unscreened: { symbol: '○', word: 'Unscreened', className: 'text-ink-soft' },
+  awaiting_full_text: { symbol: '◐', word: 'Awaiting full text', className: 'text-ink-soft' },
   included: { symbol: '✓', word: 'Included', className: 'text-ink' },
   excluded: { symbol: '✕', word: 'Excluded', className: 'text-ink-soft' },
 };

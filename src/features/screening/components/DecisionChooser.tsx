@@ -1,6 +1,7 @@
 import { useId, useState, type KeyboardEvent } from 'react';
 import { Button } from '../../../components/ui/Button';
 import { ErrorNote } from '../../../components/ui/Notice';
+import type { ScreeningStage } from '../../../../shared/vocabulary/screening';
 import { choiceKey, choiceLabel, filterChoices, type Choice } from '../choices';
 
 const line = (c: Choice) => (c.decision === 'included' ? `✓ ${choiceLabel(c)}` : `✕ Exclude: ${choiceLabel(c)}`);
@@ -10,6 +11,7 @@ const line = (c: Choice) => (c.decision === 'included' ? `✓ ${choiceLabel(c)}`
  * with ↑ ↓ and Enter, add a note if wanted (required for "Other"), Enter saves. Esc steps back, then closes.
  */
 export function DecisionChooser({
+  stage,
   count,
   marked,
   pending,
@@ -17,6 +19,8 @@ export function DecisionChooser({
   onSave,
   onClose,
 }: {
+  /** The stage decided at: its own reasons are offered. */
+  stage: ScreeningStage;
   count: number;
   /** The decision is for the marked records (else for the one being read). */
   marked: boolean;
@@ -31,7 +35,7 @@ export function DecisionChooser({
   const [picked, setPicked] = useState<Choice | null>(null);
   const [note, setNote] = useState('');
   const [noteMissing, setNoteMissing] = useState(false);
-  const lines = filterChoices(typed);
+  const lines = filterChoices(typed, stage);
   const at = Math.min(active, Math.max(lines.length - 1, 0));
   const needsNote = picked?.decision === 'excluded' && picked.reason === 'other';
 

@@ -1,6 +1,7 @@
-import { useForm, useWatch } from 'react-hook-form';
+import { useRef } from 'react';
+import { useForm, useWatch, type Resolver } from 'react-hook-form';
 import type { ScreeningDecisionInput } from '../../../../shared/schemas/references';
-import { EXCLUSION_REASONS, EXCLUSION_REASON_LABELS } from '../../../../shared/vocabulary/screening';
+import { EXCLUSION_REASON_LABELS, SCREENING_STAGE_LABELS, STAGE_REASONS, type ScreeningStage } from '../../../../shared/vocabulary/screening';
 import { Button } from '../../../components/ui/Button';
 import { FieldError } from '../../../components/ui/Field';
 import { Caution, ErrorNote } from '../../../components/ui/Notice';
@@ -14,6 +15,7 @@ type DecisionFields = Omit<ScreeningDecisionInput, 'version'>;
 /** Include, or exclude with a reason (and a note when the reason is "other"), for one reference; starts from its current decision. */
 export function DecisionForm({
   refId,
+  stage,
   version,
   current,
   settledEffects = 0,
@@ -21,6 +23,8 @@ export function DecisionForm({
   onDecided,
 }: {
   refId: number;
+  /** The stage the reference is decided at now. */
+  stage: ScreeningStage;
   version: number;
   current?: Parameters<typeof decisionDefaults>[0];
   settledEffects?: number;
@@ -28,7 +32,11 @@ export function DecisionForm({
   onDecided?: () => void;
 }) {
   const mutation = useDecide();
-  const form = useForm<DecisionValues, unknown, DecisionFields>({ resolver: formResolver(decisionFormSchema), defaultValues: decisionDefaults(current) });
+  // The stage moves on after a title/abstract inclusion; the form stays (with its "recorded" line) and checks the new stage's rules.
+  const stageNow = useRef(stage);
+  stageNow.current = stage;
+  const resolver: Resolver<DecisionValues, unknown, DecisionFields> = (values, context, options) => formResolver(decisionFormSchema(stageNow.current))(values, context, options);
+  const form = useForm<DecisionValues, unknown, DecisionFields>({ resolver, defaultValues: decisionDefaults(current) });
   const { errors } = form.formState;
   const [decision, reason] = useWatch({ control: form.control, name: ['decision', 'reason'] });
   const submit = form.handleSubmit((input) =>
@@ -39,8 +47,9 @@ export function DecisionForm({
   );
   return (
     <form className="grid max-w-2xl gap-2 text-sm" onSubmit={submit} noValidate>
-      <fieldset className="flex gap-4">
+      <fieldset className="flex flex-wrap gap-4">
         <legend className="sr-only">Decision</legend>
+        <span className="text-ink-soft">{SCREENING_STAGE_LABELS[stage]}:</span>
         <label className="flex items-center gap-1">
           <input type="radio" value="included" {...form.register('decision')} /> ✓ Include
         </label>
@@ -57,8 +66,8 @@ export function DecisionForm({
             aria-invalid={!!errors.reason}
             aria-describedby={`reason-${refId}-error`}
           >
-            <option value="">choose…</option>
-            {EXCLUSION_REASONS.map((r) => (
+            <option value="">{stage === 'title_abstract' ? 'none (optional here)' : 'choose…'}</option>
+            {STAGE_REASONS[stage].map((r) => (
               <option key={r} value={r}>
                 {EXCLUSION_REASON_LABELS[r]}
               </option>

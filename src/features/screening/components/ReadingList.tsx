@@ -1,6 +1,6 @@
 import { useEffect, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { EXCLUSION_REASON_LABELS, referenceSourceLabel } from '../../../../shared/vocabulary/screening';
+import { EXCLUSION_REASON_LABELS, referenceSourceLabel, type ScreeningStage } from '../../../../shared/vocabulary/screening';
 import { Button } from '../../../components/ui/Button';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import type { Choice } from '../choices';
@@ -10,7 +10,12 @@ import { useUndoMany } from '../api/undo-many';
 import { DecisionChooser } from './DecisionChooser';
 import { RecordReader } from './RecordReader';
 
-const whyHere = (it: QueueItem) => (it.why.batch ? `new in batch ${it.why.batch}` : `new (${referenceSourceLabel(it.source).toLowerCase()})`);
+const whyHere = (it: QueueItem) =>
+  it.why.kind === 'passed_title_abstract'
+    ? 'included on title and abstract'
+    : it.why.batch
+      ? `new in batch ${it.why.batch}`
+      : `new (${referenceSourceLabel(it.source).toLowerCase()})`;
 
 /** Keys the list answers when nothing that takes typing has the focus. */
 const typingIn = (el: EventTarget | null) => el instanceof HTMLElement && (el.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(el.tagName));
@@ -25,8 +30,8 @@ type Last = { text: string; items: { refId: number; version: number }[] };
  * chooser beside its abstract. ↑ ↓ move, Space marks records for one decision together, Enter opens the chooser,
  * U takes back the last decision (a whole batch at once), Esc clears the marks.
  */
-export function ReadingList({ batch, terms }: { batch?: number; terms: string[] }) {
-  const { data, error, isLoading } = useQueue({ limit: QUEUE_LIMIT, batch });
+export function ReadingList({ stage, batch, terms }: { stage: ScreeningStage; batch?: number; terms: string[] }) {
+  const { data, error, isLoading } = useQueue({ limit: QUEUE_LIMIT, stage, batch });
   const decide = useDecideMany();
   const undo = useUndoMany();
   const [cursorId, setCursorId] = useState<number | null>(null);
@@ -61,10 +66,15 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
     // The cursor moves on to the next record not decided now (or back, at the end of the list).
     const next = items.slice(lastAt + 1).find((i) => !inBatch.has(i.id)) ?? [...items.slice(0, lastAt)].reverse().find((i) => !inBatch.has(i.id));
     decide.mutate(
-      { items: targets.map((t) => ({ refId: t.id, version: t.version })), ...choice, ...(note ? { note } : {}) },
+      { items: targets.map((t) => ({ refId: t.id, version: t.version })), stage, ...choice, ...(note ? { note } : {}) },
       {
         onSuccess: (answer) => {
-          const what = choice.decision === 'included' ? '✓ Included' : `✕ Excluded (${EXCLUSION_REASON_LABELS[choice.reason]})`;
+          const what =
+            choice.decision === 'included'
+              ? stage === 'title_abstract'
+                ? '✓ Included on title and abstract'
+                : '✓ Included'
+              : `✕ Excluded${choice.reason ? ` (${EXCLUSION_REASON_LABELS[choice.reason]})` : ''}`;
           const withdrawn = answer.results.flatMap((r) => r.withdrawnRecords);
           const also = withdrawn.length ? `; settled ${records(withdrawn)} withdrawn` : '';
           setLast({ text: `${what}: ${targets.length === 1 ? targets[0].title : `${targets.length} records`}${also}`, items: answer.results.map((r) => ({ refId: r.refId, version: r.version })) });
@@ -138,7 +148,7 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
   return (
     <div>
       <p className="mb-2 text-sm" role="status">
-        {left} {left === 1 ? 'record' : 'records'} waiting{batch ? ` from batch ${batch}` : ''}
+        {left} {left === 1 ? 'record' : 'records'} waiting{stage === 'full_text' ? ' for full text' : ''}{batch ? ` from batch ${batch}` : ''}
         {left > items.length ? ` (the first ${items.length} listed)` : ''}
         {markedItems.length ? ` · ${markedItems.length} marked` : ''}
       </p>
@@ -158,7 +168,8 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
       <ErrorNote error={undo.error} />
       {!current ? (
         <EmptyState>
-          Nothing is waiting{batch ? ' from this batch' : ''}. <Link to="/import">Import more references</Link>, or see the{' '}
+          Nothing is waiting{stage === 'full_text' ? ' for full text' : ''}{batch ? ' from this batch' : ''}.{' '}
+          {stage === 'full_text' ? 'Records included on title and abstract come here.' : <Link to="/import">Import more references</Link>}, or see the{' '}
           <Link to="/screening/counts">PRISMA 2020 flow</Link>.
         </EmptyState>
       ) : (
@@ -210,7 +221,7 @@ export function ReadingList({ batch, terms }: { batch?: number; terms: string[] 
           </ul>
           <RecordReader item={current} terms={terms}>
             {chooserFor ? (
-              <DecisionChooser count={chooserFor.ids.length} marked={chooserFor.marked} pending={decide.isPending} error={decide.error} onSave={save} onClose={closeChooser} />
+              <DecisionChooser stage={stage} count={chooserFor.ids.length} marked={chooserFor.marked} pending={decide.isPending} error={decide.error} onSave={save} onClose={closeChooser} />
             ) : (
               <div className="rounded border border-dashed border-paper-edge p-3 text-sm">
                 <Button variant="primary" onClick={openChooser}>

@@ -10,7 +10,7 @@ import { useSearch } from '../api/search-references';
 import { pageFromParams, searchFormSchema, searchParams, searchValuesFromParams, type SearchFilters, type SearchValues } from '../forms/search-form';
 
 const input = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
-const STATUS_WORDS: Record<string, string> = { unscreened: '○ unscreened', included: '✓ included', excluded: '✕ excluded' };
+const STATUS_WORDS: Record<string, string> = { unscreened: '○ unscreened', awaiting_full_text: '◐ awaiting full text', included: '✓ included', excluded: '✕ excluded' };
 
 /** Search over the index, with the filters and counts in the address so a search can be shared. */
 export function SearchPanel() {
