@@ -86,8 +86,11 @@ export const specs: Spec[] = [
       assert.ok(effects.items.length, 'the demo data holds a settled record');
       await fitsThePhone(page, `/records/${effects.items[0].recordId}`);
       const { version } = (await json<{ reference: { version: number } }>(page, `/api/references/${refId}`)).reference;
-      const included = await page.request.post(appUrl(`/api/references/${refId}/screening`), { headers, data: { decision: 'included', version } });
-      assert.equal(included.status(), 201);
+      // Included on title and abstract, then at full text: only then may it be claimed.
+      for (const v of [version, version + 1]) {
+        const included = await page.request.post(appUrl(`/api/references/${refId}/screening`), { headers, data: { decision: 'included', version: v } });
+        assert.equal(included.status(), 201);
+      }
       const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: refId } });
       assert.equal(claimed.status(), 201);
       await fitsThePhone(page, `/extractions/${((await claimed.json()) as { id: number }).id}`);
