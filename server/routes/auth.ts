@@ -2,6 +2,7 @@ import { Router } from 'express';
 import type { createPassport } from '../auth/passport.js';
 import type { AppContext } from '../context.js';
 import { perMinuteLimit } from '../lib/rate-limit.js';
+import { providerDownPage, providerProbe } from '../auth/provider-probe.js';
 
 /**
  * Where to go after sign-in: only a path on this site. Parsed with `new URL` against the app's origin, so
@@ -24,8 +25,15 @@ export function authRouter(ctx: AppContext, passport: ReturnType<typeof createPa
   const router = Router();
   router.use(perMinuteLimit(ctx.env.AUTH_RATE_LIMIT_PER_MINUTE, 'Too many sign-in attempts; wait a minute and try again.'));
 
-  router.get('/github', (req, res, next) => {
+  const providerUp = providerProbe(ctx.env.GITHUB_AUTHORIZATION_URL);
+
+  // A provider that does not answer gets a page that says so, not a redirect to an error (and no session).
+  router.get('/github', async (req, res, next) => {
     const returnTo = safeReturnTo(req.query.returnTo, ctx.env.APP_ORIGIN);
+    if (!(await providerUp())) {
+      res.status(503).set('Retry-After', '30').type('html').send(providerDownPage(returnTo ?? '/'));
+      return;
+    }
     if (returnTo && req.session) (req.session as { returnTo?: string }).returnTo = returnTo;
     passport.authenticate('github')(req, res, next);
   });

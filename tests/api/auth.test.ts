@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
+import { freePorts } from '../support/ports.js';
 import { createTestApp, origin, resetDb, signIn, type TestApp } from '../support/test-app.js';
 
 describe('sign-in through the OAuth protocol', () => {
@@ -114,5 +115,24 @@ describe('sign-in through the OAuth protocol', () => {
     } finally {
       await limited.close();
     }
+  });
+
+  it('says sign-in is unavailable when the provider does not answer, instead of sending the browser there', async () => {
+    const [closed] = await freePorts(1);
+    const down = await createTestApp({ env: { GITHUB_AUTHORIZATION_URL: `http://127.0.0.1:${closed}/login/oauth/authorize` } });
+    try {
+      const res = await request(down.app).get('/auth/github?returnTo=/atlas');
+      expect(res.status).toBe(503);
+      expect(res.headers.location).toBeUndefined();
+      expect(res.headers['set-cookie']).toBeUndefined();
+      expect(res.headers['retry-after']).toBe('30');
+      expect(res.type).toBe('text/html');
+      expect(res.text).toContain('The GitHub sign-in service cannot be reached, so you cannot sign in at the moment. Try again in a minute.');
+      expect(res.text).toContain('<a href="/atlas">Back to Chronometa</a>');
+    } finally {
+      await down.close();
+    }
+    // the stand-in that answers still gets the redirect
+    expect((await request(t.app).get('/auth/github')).status).toBe(302);
   });
 });
