@@ -4,13 +4,13 @@ export const ROLES = ['reader', 'contributor', 'curator', 'reviewer', 'admin'] a
 export const roleSchema = z.enum(ROLES);
 export type Role = z.infer<typeof roleSchema>;
 
-/** Roles a held role also grants (the brief's table: a curator can do all a contributor can, and so on). */
+/** Roles a held role also grants (a curator can do all a contributor can; an admin holds every role). */
 const IMPLIED: Record<Role, Role[]> = {
   reader: [],
   contributor: ['reader'],
   curator: ['contributor', 'reader'],
   reviewer: ['reader'],
-  admin: ['reader'],
+  admin: ['curator', 'reviewer', 'contributor', 'reader'],
 };
 
 export function effectiveRoles(held: readonly Role[]): Role[] {
@@ -20,6 +20,11 @@ export function effectiveRoles(held: readonly Role[]): Role[] {
     for (const i of IMPLIED[r]) all.add(i);
   }
   return ROLES.filter((r) => all.has(r));
+}
+
+/** Every role whose holder also holds `role` (itself included): who counts as a curator, and so on. */
+export function rolesImplying(role: Role): Role[] {
+  return ROLES.filter((r) => effectiveRoles([r]).includes(role));
 }
 
 export function hasRole(held: readonly Role[], needed: Role): boolean {

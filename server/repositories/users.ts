@@ -1,4 +1,4 @@
-import type { Role } from '../../shared/roles.js';
+import { rolesImplying, type Role } from '../../shared/roles.js';
 import { countRows, pageOf, type Db, type PageRequest } from './db.js';
 import type { UserRoleRow, UserRow } from './rows.js';
 
@@ -84,7 +84,7 @@ export async function contactsOf(db: Db, userIds: number[]): Promise<Map<number,
 
 /** Addresses of everyone holding a role (for "a pair became disputed"). */
 export async function emailsWithRole(db: Db, role: Role): Promise<string[]> {
-  const rows: { email: string }[] = await db('users as u').join('user_roles as r', 'r.user_id', 'u.id').where('r.role', role).whereNotNull('u.email').distinct('u.email');
+  const rows: { email: string }[] = await db('users as u').join('user_roles as r', 'r.user_id', 'u.id').whereIn('r.role', rolesImplying(role)).whereNotNull('u.email').distinct('u.email');
   return rows.map((r) => r.email);
 }
 
@@ -112,16 +112,16 @@ export async function usersWithRoles(db: Db, ids: number[]): Promise<UserWithRol
 
 /** Who holds the curator role (and so may reconcile). */
 export async function curatorIds(db: Db): Promise<number[]> {
-  const rows: { user_id: number }[] = await db('user_roles').where('role', 'curator').distinct('user_id');
+  const rows: { user_id: number }[] = await db('user_roles').whereIn('role', rolesImplying('curator')).distinct('user_id');
   return rows.map((r) => r.user_id);
 }
 
-/** Everyone who may code: contributors and curators. */
+/** Everyone who may code: whoever holds a role that implies contributor. */
 export async function listCoders(db: Db): Promise<Array<Pick<UserRow, 'id' | 'login' | 'name'> & { curator: boolean }>> {
   return db('users as u')
     .join('user_roles as r', 'r.user_id', 'u.id')
-    .whereIn('r.role', ['contributor', 'curator'])
+    .whereIn('r.role', rolesImplying('contributor'))
     .groupBy('u.id')
-    .select('u.id', 'u.login', 'u.name', db.raw(`bool_or(r.role = 'curator') as curator`))
+    .select('u.id', 'u.login', 'u.name', db.raw(`bool_or(r.role = any(?)) as curator`, [rolesImplying('curator')]))
     .orderBy('u.login');
 }

@@ -53,4 +53,20 @@ describe('admin: users and roles', () => {
     await expect(t.ctx.db('audit_log').update({ action: 'tampered' })).rejects.toThrow(/append-only/);
     await expect(t.ctx.db('audit_log').delete()).rejects.toThrow(/append-only/);
   });
+
+  it('an admin holds every role: curator, reviewer and contributor routes let them in, /api/me says so, and they count as a curator and a coder', async () => {
+    const me = (await admin.get('/api/me')).body as { user: { roles: string[]; effectiveRoles: string[] } };
+    expect(me.user.roles).toEqual(expect.arrayContaining(['admin']));
+    expect(me.user.roles).not.toContain('curator');
+    expect(me.user.effectiveRoles).toEqual(['reader', 'contributor', 'curator', 'reviewer', 'admin']);
+    for (const path of ['/api/assignments/candidates', '/api/extractions/claimable']) expect((await admin.get(path)).status, path).toBe(200);
+    expect((await admin.post('/api/syntheses').send({})).status).not.toBe(403);
+    const coders = await admin.get('/api/assignments/coders');
+    expect(coders.status).toBe(200);
+    const listed = JSON.stringify(coders.body);
+    expect(listed).toContain('"admin"');
+    // a reader is still refused
+    const reader = await signIn(t.app, 'reader');
+    expect((await reader.get('/api/assignments/candidates')).status).toBe(403);
+  });
 });

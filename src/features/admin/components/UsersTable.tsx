@@ -2,7 +2,7 @@ import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { roleChangeParamsSchema } from '../../../../shared/schemas/users';
-import { ROLES, ROLE_LABELS, type Role } from '../../../../shared/roles';
+import { ROLES, ROLE_LABELS, effectiveRoles, type Role } from '../../../../shared/roles';
 import { ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { SortHeader } from '../../../components/ui/SortHeader';
@@ -24,6 +24,8 @@ const roleChangeSchema = (userId: number, role: Role) =>
 function RoleCell({ user, role }: { user: AdminUser; role: Role }) {
   const mutation = useSetRole();
   const held = user.roles.includes(role);
+  // a role held through another (an admin is also a curator, reviewer and contributor)
+  const via = held ? [] : user.roles.filter((r) => r !== role && effectiveRoles([r]).includes(role));
   const schema = useMemo(() => roleChangeSchema(user.id, role), [user.id, role]);
   const form = useForm({ resolver: formResolver(schema), values: { granted: held } });
   const save = form.handleSubmit(({ id, granted }) =>
@@ -35,6 +37,7 @@ function RoleCell({ user, role }: { user: AdminUser; role: Role }) {
         <input type="checkbox" aria-label={ROLE_LABELS[role]} {...form.register('granted')} disabled={mutation.isPending} />
         {mutation.isSuccess && <span className="text-xs text-ink-soft">Saved</span>}
       </form>
+      {via.length > 0 && <div className="text-xs text-ink-soft">✓ through {via.map((r) => ROLE_LABELS[r]).join(', ')}</div>}
       {mutation.error && <ErrorNote error={mutation.error} />}
     </td>
   );
