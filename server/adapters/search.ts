@@ -8,7 +8,7 @@ const INDEX_SETTINGS: Record<string, { primaryKey: string; settings: Record<stri
     primaryKey: 'id',
     settings: {
       searchableAttributes: ['title', 'authors', 'container', 'doi', 'abstract'],
-      filterableAttributes: ['year', 'screening_status', 'source', 'id'],
+      filterableAttributes: ['year', 'screening_status', 'source', 'id', 'manipulations', 'outcomes', 'tasks'],
       sortableAttributes: ['year', 'created_at', 'title_sort'],
     },
   },

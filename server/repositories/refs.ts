@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { Csl } from '../adapters/citations.js';
 import { countRows, pageOf, type Db, type PageRequest } from './db.js';
+import { whereSettledCovers } from './settled-effects.js';
 import type { AttachmentRow, DuplicateCandidateRow, RefRow, ScreeningStatus } from './rows.js';
 
 /** The columns computed from a reference's CSL-JSON (see services/reference-fields.ts). */
@@ -296,6 +297,9 @@ export interface RefSearchFilter {
   yearFrom?: number;
   yearTo?: number;
   status?: string;
+  manipulation?: string;
+  outcome?: string;
+  task?: string;
 }
 
 const likeEscape = (s: string) => s.replace(/[\\%_]/g, '\\$&');
@@ -313,7 +317,8 @@ function liveRefsMatching(db: Db, f: RefSearchFilter) {
       if (f.yearFrom !== undefined) qb.where('year', '>=', f.yearFrom);
       if (f.yearTo !== undefined) qb.where('year', '<=', f.yearTo);
       if (f.status) qb.where('screening_status', f.status);
-    });
+    })
+    .modify(whereSettledCovers(db, f));
 }
 
 /** Live references whose text holds every word (in any field the index searches), one page, with facet counts. */

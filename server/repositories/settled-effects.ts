@@ -71,3 +71,50 @@ export async function lockSettledRecordsOf(trx: Knex.Transaction, referenceId: n
     .select('id');
   return rows.map((r) => r.id);
 }
+
+/** What a reference's settled effects cover, for its search document: manipulations, outcome kinds, tasks, records. */
+export interface SettledCoverage {
+  manipulations: Array<{ term: string; label: string }>;
+  outcomes: string[];
+  tasks: string[];
+  records: number[];
+}
+
+export async function settledCoverageOf(db: Db, referenceIds: number[]): Promise<Map<number, SettledCoverage>> {
+  const out = new Map<number, SettledCoverage>();
+  if (!referenceIds.length) return out;
+  const rows = (await settledEffectsFrom(db)
+    .join('manipulations as m', 'm.id', 'f.manipulation_id')
+    .whereIn('x.reference_id', referenceIds)
+    .distinct('x.reference_id as ref', 'x.id as record', 'm.term', 'm.label', 'f.outcome', 's.task')
+    .orderBy(['x.reference_id', 'x.id'])) as Array<{ ref: number; record: number; term: string; label: string; outcome: string; task: string | null }>;
+  for (const r of rows) {
+    let c = out.get(r.ref);
+    if (!c) out.set(r.ref, (c = { manipulations: [], outcomes: [], tasks: [], records: [] }));
+    if (!c.manipulations.some((m) => m.term === r.term)) c.manipulations.push({ term: r.term, label: r.label });
+    if (!c.outcomes.includes(r.outcome)) c.outcomes.push(r.outcome);
+    if (r.task && !c.tasks.includes(r.task)) c.tasks.push(r.task);
+    if (!c.records.includes(r.record)) c.records.push(r.record);
+  }
+  return out;
+}
+
+/** References that ever had a settled record (current, superseded or withdrawn): those whose coverage can change. */
+export async function referencesWithSettledRecords(db: Db): Promise<number[]> {
+  const rows = (await db('extractions').where({ kind: 'settled' }).distinct('reference_id')) as Array<{ reference_id: number }>;
+  return rows.map((r) => r.reference_id);
+}
+
+/**
+ * Restricts a query over `refs` (unaliased) to references whose settled effects cover this manipulation, this
+ * outcome kind and this task (each by some effect, as the search index's arrays match).
+ */
+export function whereSettledCovers(db: Db, f: { manipulation?: string; outcome?: string; task?: string }) {
+  const covers = (column: string, value: string) =>
+    settledEffectsFrom(db).join('manipulations as m', 'm.id', 'f.manipulation_id').whereRaw('x.reference_id = refs.id').where(column, value).select(db.raw('1'));
+  return (qb: Knex.QueryBuilder) => {
+    if (f.manipulation) qb.whereExists(covers('m.term', f.manipulation));
+    if (f.outcome) qb.whereExists(covers('f.outcome', f.outcome));
+    if (f.task) qb.whereExists(covers('s.task', f.task));
+  };
+}

@@ -6,6 +6,8 @@ import { AppError } from '../lib/errors.js';
 import { REFERENCES_INDEX, SearchUnavailableError, type SearchIndex } from '../adapters/search.js';
 import { countLiveRefs, liveRefsAfter, refsForIndex, searchLiveRefs, type RefSearchRow } from '../repositories/refs.js';
 import { markIndexStale, readIndexBuild, storeIndexBuild } from '../repositories/search-index-builds.js';
+import { readRegistryVersion } from '../repositories/registry-version.js';
+import { referencesWithSettledRecords, settledCoverageOf, type SettledCoverage } from '../repositories/settled-effects.js';
 import { cslAuthors } from './reference-fields.js';
 
 export class ServiceUnavailableError extends AppError {
@@ -14,7 +16,9 @@ export class ServiceUnavailableError extends AppError {
   }
 }
 
-export function referenceDocument(r: RefSearchRow) {
+const NO_COVERAGE: SettledCoverage = { manipulations: [], outcomes: [], tasks: [], records: [] };
+
+export function referenceDocument(r: RefSearchRow, c: SettledCoverage = NO_COVERAGE) {
   return {
     id: r.id,
     title: r.title,
@@ -27,11 +31,22 @@ export function referenceDocument(r: RefSearchRow) {
     screening_status: r.screening_status,
     source: r.source,
     created_at: Math.floor(new Date(r.created_at).getTime() / 1000),
+    manipulations: c.manipulations.map((m) => m.term),
+    manipulation_labels: c.manipulations.map((m) => m.label),
+    outcomes: c.outcomes,
+    tasks: c.tasks,
+    records: c.records,
   };
 }
 
+/** The documents of these rows, each with what its settled effects cover. */
+async function documentsOf(db: Knex, rows: RefSearchRow[]) {
+  const coverage = await settledCoverageOf(db, rows.map((r) => r.id));
+  return rows.map((r) => referenceDocument(r, coverage.get(r.id)));
+}
+
 /** The shape of the documents above: bump it when referenceDocument changes, and every index is rebuilt. */
-export const REFERENCE_DOCUMENT_SCHEMA = 1;
+export const REFERENCE_DOCUMENT_SCHEMA = 2;
 
 // This process's rebuild of an index, if one runs, and the references changed meanwhile (synced again after it).
 const rebuilds = new WeakMap<SearchIndex, Promise<void>>();
@@ -51,7 +66,7 @@ export async function syncReferences(ctx: SearchDeps, ids: number[]): Promise<vo
       const rows = await refsForIndex(ctx.db, ids.slice(i, i + 5000));
       const live = rows.filter((r) => r.merged_into == null);
       const gone = ids.slice(i, i + 5000).filter((id) => !live.some((r) => r.id === id));
-      await ctx.search.indexDocuments(REFERENCES_INDEX, live.map(referenceDocument));
+      await ctx.search.indexDocuments(REFERENCES_INDEX, await documentsOf(ctx.db, live));
       await ctx.search.deleteDocuments(REFERENCES_INDEX, gone);
     }
   } catch (err) {
@@ -73,7 +88,7 @@ export async function rebuildReferenceIndex(db: Knex, search: SearchIndex, onPro
   for (;;) {
     const rows = await liveRefsAfter(db, lastId, 5000);
     if (!rows.length) break;
-    await search.indexDocuments(REFERENCES_INDEX, rows.map(referenceDocument));
+    await search.indexDocuments(REFERENCES_INDEX, await documentsOf(db, rows));
     done += rows.length;
     lastId = rows[rows.length - 1].id;
     onProgress?.(done, count);
@@ -81,6 +96,24 @@ export async function rebuildReferenceIndex(db: Knex, search: SearchIndex, onPro
   const build = randomUUID();
   await search.writeBuild(REFERENCES_INDEX, build);
   await storeIndexBuild(db, REFERENCES_INDEX, { build, documentSchema: REFERENCE_DOCUMENT_SCHEMA, documents: done });
+  return done;
+}
+
+// The registry stamp each index's settled coverage was last brought up to, in this process.
+const coverageAt = new WeakMap<SearchIndex, { stamp: string; done: Promise<void> }>();
+
+/**
+ * Settling, reopening or withdrawing a record changes what a reference's settled effects cover: when the
+ * registry stamp moved since this process last looked, every reference that ever had a settled record is
+ * indexed again (once per stamp, however many searches ask).
+ */
+export async function syncSettledCoverage(ctx: SearchDeps & { search: SearchIndex }): Promise<void> {
+  const { stamp } = await readRegistryVersion(ctx.db);
+  const known = coverageAt.get(ctx.search);
+  if (known?.stamp === stamp) return known.done;
+  const done = referencesWithSettledRecords(ctx.db).then((ids) => syncReferences(ctx, ids));
+  coverageAt.set(ctx.search, { stamp, done });
+  done.catch(() => coverageAt.delete(ctx.search));
   return done;
 }
 
@@ -142,6 +175,11 @@ export async function searchReferences(ctx: SearchDeps, q: SearchQuery): Promise
   if (q.yearFrom !== undefined) filter.push(`year >= ${q.yearFrom}`);
   if (q.yearTo !== undefined) filter.push(`year <= ${q.yearTo}`);
   if (q.status) filter.push(`screening_status = ${quote(q.status)}`);
+  if (q.manipulation) filter.push(`manipulations = ${quote(q.manipulation)}`);
+  if (q.outcome) filter.push(`outcomes = ${quote(q.outcome)}`);
+  if (q.task) filter.push(`tasks = ${quote(q.task)}`);
+  // a settled-data change since the last search re-indexes what the references' settled effects cover
+  await syncSettledCoverage({ ...ctx, search }).catch((err) => console.error('[search] could not bring settled coverage up to date:', (err as Error).message));
   // The check and the search run together, so a current index costs no extra wait.
   const [current, found] = await Promise.allSettled([
     referenceIndexIsCurrent({ ...ctx, search }),
@@ -171,6 +209,10 @@ export async function searchReferences(ctx: SearchDeps, q: SearchQuery): Promise
       doi: h.doi ?? null,
       container: h.container ?? null,
       screeningStatus: h.screening_status,
+      manipulations: (h.manipulations ?? []).map((term, i) => ({ term, label: h.manipulation_labels?.[i] ?? term })),
+      outcomes: h.outcomes ?? [],
+      tasks: h.tasks ?? [],
+      records: h.records ?? [],
     })),
     total: res.estimatedTotalHits ?? (res as { totalHits?: number }).totalHits ?? res.hits.length,
     facets: { screening_status: facets.screening_status ?? {}, year: facets.year ?? {} },
@@ -182,11 +224,13 @@ export async function searchReferences(ctx: SearchDeps, q: SearchQuery): Promise
 async function searchDatabase(db: Knex, q: SearchQuery, note: string): Promise<SearchResult> {
   const t0 = performance.now();
   const words = q.q.split(/[^\p{L}\p{N}./-]+/u).filter(Boolean).slice(0, 20);
-  const { rows, total, facets } = await searchLiveRefs(db, { words, yearFrom: q.yearFrom, yearTo: q.yearTo, status: q.status }, q);
+  const { rows, total, facets } = await searchLiveRefs(db, { words, yearFrom: q.yearFrom, yearTo: q.yearTo, status: q.status, manipulation: q.manipulation, outcome: q.outcome, task: q.task }, q);
+  const coverage = await settledCoverageOf(db, rows.map((r) => r.id));
   return {
     hits: rows.map((r) => {
       const d = referenceDocument(r);
-      return { id: d.id, title: d.title, year: d.year ?? null, authors: d.authors, doi: d.doi ?? null, container: d.container ?? null, screeningStatus: d.screening_status };
+      const c = coverage.get(r.id) ?? NO_COVERAGE;
+      return { id: d.id, title: d.title, year: d.year ?? null, authors: d.authors, doi: d.doi ?? null, container: d.container ?? null, screeningStatus: d.screening_status, ...c };
     }),
     total,
     facets,

@@ -1,4 +1,6 @@
 import { z } from 'zod';
+import { OUTCOME_KINDS } from '../vocabulary/outcomes.js';
+import { TASKS } from '../vocabulary/tasks.js';
 import { EXCLUSION_REASONS, SCREENING_DECISIONS, SCREENING_STAGES, SCREENING_STATUSES } from '../vocabulary/screening.js';
 import { idParam, actorSchema, pageSchema, pagingSchema, timestamp } from './common.js';
 
@@ -141,6 +143,10 @@ export const searchQuerySchema = z.object({
   yearFrom: z.coerce.number().int().min(1000).max(3000).optional(),
   yearTo: z.coerce.number().int().min(1000).max(3000).optional(),
   status: z.enum(SCREENING_STATUSES).optional(),
+  /** references whose settled effects cover this manipulation (its term), outcome kind and task */
+  manipulation: z.string().trim().regex(/^[a-z0-9_]{1,80}$/, 'name the manipulation by its term from the vocabulary, e.g. luminance').optional(),
+  outcome: z.enum(OUTCOME_KINDS, { message: 'choose an outcome kind from the list' }).optional(),
+  task: z.enum(TASKS, { message: 'choose a task from the list' }).optional(),
   limit: z.coerce.number().int().min(1).max(100).default(20),
   offset: z.coerce.number().int().min(0).max(10_000).default(0),
 });
@@ -350,7 +356,14 @@ export type DismissResult = z.infer<typeof dismissResultSchema>;
 export const attachmentCreatedSchema = attachmentSchema.omit({ uploadedBy: true });
 export type AttachmentCreated = z.infer<typeof attachmentCreatedSchema>;
 
-export const searchHitSchema = referenceSummarySchema.pick({ id: true, title: true, year: true, authors: true, doi: true, container: true }).extend({ screeningStatus: z.string() });
+export const searchHitSchema = referenceSummarySchema.pick({ id: true, title: true, year: true, authors: true, doi: true, container: true }).extend({
+  screeningStatus: z.string(),
+  /** what its settled effects cover (empty before a record is settled): for the atlas and record links */
+  manipulations: z.array(z.object({ term: z.string(), label: z.string() })),
+  outcomes: z.array(z.string()),
+  tasks: z.array(z.string()),
+  records: z.array(z.number().int()),
+});
 export type SearchHit = z.infer<typeof searchHitSchema>;
 export const searchResultSchema = z.object({
   hits: z.array(searchHitSchema),

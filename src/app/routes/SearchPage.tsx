@@ -1,10 +1,12 @@
+import { CURRENT_VOCABULARY, useManipulations } from '../../features/manipulations/api/get-manipulations';
 import { SearchPanel } from '../../features/search/components/SearchPanel';
 
 export function SearchPage() {
+  const { data } = useManipulations(CURRENT_VOCABULARY);
   return (
     <>
       <h1>Search references</h1>
-      <SearchPanel />
+      <SearchPanel manipulations={data?.items.map((m) => ({ term: m.term, label: m.label })) ?? []} />
     </>
   );
 }

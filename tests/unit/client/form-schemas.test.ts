@@ -150,14 +150,15 @@ describe('the search and reference filters', () => {
   });
 
   it('a search address round-trips, and a bad status or page falls back', () => {
-    const v = { q: 'probe', status: 'included' as const, yearFrom: '2019', yearTo: '2021' };
+    const v = { q: 'probe', status: 'included' as const, yearFrom: '2019', yearTo: '2021', manipulation: 'luminance', outcome: 'temporal_order', task: 'bisection' };
     const p = searchParams(v, 3);
-    expect(p.toString()).toBe('q=probe&status=included&yearFrom=2019&yearTo=2021&page=3');
+    expect(p.toString()).toBe('q=probe&status=included&yearFrom=2019&yearTo=2021&manipulation=luminance&outcome=temporal_order&task=bisection&page=3');
     expect(searchValuesFromParams(p)).toEqual(v);
     expect(pageFromParams(p)).toBe(3);
     expect(searchValuesFromParams(new URLSearchParams('status=maybe')).status).toBe('');
     expect(pageFromParams(new URLSearchParams('page=-4'))).toBe(1);
     expect(pageFromParams(new URLSearchParams('page=two'))).toBe(1);
-    expect(searchParams({ q: '', status: '', yearFrom: '', yearTo: '' }, 1).toString()).toBe('');
+    expect(searchValuesFromParams(new URLSearchParams('outcome=length&task=guessing'))).toMatchObject({ outcome: '', task: '' });
+    expect(searchParams({ q: '', status: '', yearFrom: '', yearTo: '', manipulation: '', outcome: '', task: '' }, 1).toString()).toBe('');
   });
 });

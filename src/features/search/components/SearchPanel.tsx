@@ -2,6 +2,9 @@ import { useCallback, useEffect, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { Link, useSearchParams } from 'react-router-dom';
 import { SCREENING_STATUSES } from '../../../../shared/vocabulary/screening';
+import { OUTCOME_KINDS } from '../../../../shared/vocabulary/outcomes';
+import { TASKS } from '../../../../shared/vocabulary/tasks';
+import { labelOf } from '../../../../shared/vocabulary/labels';
 import { Field } from '../../../components/ui/Field';
 import { Caution, EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { formResolver } from '../../../lib/forms/resolver';
@@ -12,8 +15,17 @@ import { pageFromParams, searchFormSchema, searchParams, searchValuesFromParams,
 const input = 'rounded border border-paper-edge bg-white px-2 py-1 text-sm';
 const STATUS_WORDS: Record<string, string> = { unscreened: '○ unscreened', awaiting_full_text: '◐ awaiting full text', included: '✓ included', excluded: '✕ excluded' };
 
-/** Search over the index, with the filters and counts in the address so a search can be shared. */
-export function SearchPanel() {
+/** A manipulation to offer as a filter (the route page passes the vocabulary). */
+export interface ManipulationChoice {
+  term: string;
+  label: string;
+}
+
+/**
+ * Search over the index, with the filters and counts in the address so a search can be shared; a reference
+ * with settled effects links to its atlas pages and its settled records.
+ */
+export function SearchPanel({ manipulations = [] }: { manipulations?: ManipulationChoice[] }) {
   const [params, setParams] = useSearchParams();
   const form = useForm({ resolver: formResolver(searchFormSchema), defaultValues: searchValuesFromParams(params), mode: 'onChange' });
   const { errors } = form.formState;
@@ -62,6 +74,37 @@ export function SearchPanel() {
               <input className={`${input} block w-20`} inputMode="numeric" {...form.register('yearTo')} />
             </Field>
           </div>
+          <p className="mb-1 text-xs text-ink-soft">What its settled effects cover</p>
+          <Field label="Manipulation" error={errors.manipulation?.message} className="mb-2 block" labelClassName="block">
+            <select className={`${input} mt-0.5 w-full`} {...form.register('manipulation')}>
+              <option value="">any manipulation</option>
+              {manipulations.map((m) => (
+                <option key={m.term} value={m.term}>
+                  {m.label}
+                </option>
+              ))}
+            </select>
+          </Field>
+          <Field label="Outcome kind" error={errors.outcome?.message} className="mb-2 block" labelClassName="block">
+            <select className={`${input} mt-0.5 w-full`} {...form.register('outcome')}>
+              <option value="">any outcome kind</option>
+              {OUTCOME_KINDS.map((o) => (
+                <option key={o} value={o}>
+                  {labelOf('outcome', o)}
+                </option>
+              ))}
+            </select>
+          </Field>
+          <Field label="Task" error={errors.task?.message} className="mb-2 block" labelClassName="block">
+            <select className={`${input} mt-0.5 w-full`} {...form.register('task')}>
+              <option value="">any task</option>
+              {TASKS.map((k) => (
+                <option key={k} value={k}>
+                  {labelOf('task', k)}
+                </option>
+              ))}
+            </select>
+          </Field>
           <fieldset className="mb-3">
             <legend className="font-semibold">Screening</legend>
             <label className="flex items-center gap-1">
@@ -116,6 +159,21 @@ export function SearchPanel() {
                   {h.container ? ` · ${h.container}` : ''}
                   {h.doi ? ` · doi:${h.doi}` : ''} · {STATUS_WORDS[h.screeningStatus] ?? h.screeningStatus}
                 </div>
+                {h.records.length > 0 && (
+                  <div className="mt-0.5 flex flex-wrap gap-x-3 text-sm" aria-label={`Settled data of ${h.title}`}>
+                    {h.manipulations.map((m) => (
+                      <Link key={m.term} to={`/atlas/manipulations/${m.term}`}>
+                        Atlas: {m.label}
+                      </Link>
+                    ))}
+                    {h.records.map((r, i) => (
+                      <Link key={r} to={`/records/${r}`}>
+                        ✓ Settled record{h.records.length > 1 ? ` ${i + 1}` : ''}
+                      </Link>
+                    ))}
+                    <span className="text-ink-faint">{[...h.outcomes.map((o) => labelOf('outcome', o)), ...h.tasks.map((k) => labelOf('task', k))].join(' · ')}</span>
+                  </div>
+                )}
               </li>
             ))}
           </ol>
