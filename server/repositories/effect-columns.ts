@@ -8,7 +8,7 @@ import type { EffectRow } from './rows.js';
 
 export type EffectColumns = Pick<
   EffectRow,
-  'label' | 'outcome' | 'parameter' | 'unit' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'from_bound' | 'approximate' | 'page' | 'locator' | 'quote' | 'trial_set_id'
+  'label' | 'outcome' | 'parameter' | 'unit' | 'manipulation_id' | 'report_form' | 'metric' | 'effect' | 'variance' | 'formula' | 'assumed_r' | 'n_total' | 'from_bound' | 'approximate' | 'sign_reversed' | 'page' | 'locator' | 'quote' | 'trial_set_id'
 > & { reported: string; derivation: string | null };
 
 /**
@@ -34,6 +34,7 @@ export function effectColumns(e: EffectSheet, manipulationId: number | null, com
     n_total: computed?.n ?? null,
     from_bound: computed?.fromBound ?? false,
     approximate: computed?.approximate ?? false,
+    sign_reversed: computed?.signReversed ?? false,
     page: e.page ?? keep?.page ?? null,
     locator: e.locator ?? keep?.locator ?? null,
     quote: e.quote ?? keep?.quote ?? null,
@@ -66,6 +67,6 @@ export function storedEffect(f: EffectRow & { term: string | null }): StoredEffe
     computed:
       f.effect == null
         ? null
-        : { metric: f.metric!, effect: Number(f.effect), variance: Number(f.variance), formula: f.formula!, assumedR: f.assumed_r == null ? null : Number(f.assumed_r), n: f.n_total, fromBound: f.from_bound, approximate: f.approximate },
+        : { metric: f.metric!, effect: Number(f.effect), variance: Number(f.variance), formula: f.formula!, assumedR: f.assumed_r == null ? null : Number(f.assumed_r), n: f.n_total, fromBound: f.from_bound, approximate: f.approximate, signReversed: f.sign_reversed },
   };
 }

@@ -1,3 +1,4 @@
+import type { Task } from '../../shared/vocabulary/tasks.js';
 import type { Knex } from 'knex';
 import type { SettledEffectRow } from '../../shared/schemas/registry.js';
 import type { Metric } from '../../shared/stats/metrics.js';
@@ -217,6 +218,12 @@ export async function querySynthesisRows(db: Db, f: SettledEffectFilters): Promi
 
 export async function findEffect(db: Db, id: number): Promise<EffectRow | undefined> {
   return db<EffectRow>('effects').where({ id }).first();
+}
+
+/** The task of the study an effect belongs to (it decides whether the effect's sign is reversed). */
+export async function taskOfEffectStudy(db: Db, f: Pick<EffectRow, 'extraction_study_id'>): Promise<Task | null> {
+  const s = await db('extraction_studies').where({ id: f.extraction_study_id }).first('task');
+  return (s?.task ?? null) as Task | null;
 }
 
 export async function lockEffect(trx: Knex.Transaction, id: number): Promise<EffectRow | undefined> {

@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import type { Sheet } from '../../shared/schemas/extraction.js';
 import { tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
+import { orientAttempt } from '../../shared/extraction/orientation.js';
 import type { StoredStudy } from '../../shared/extraction/stored-sheet.js';
 import { countRows, pageOf, type Db, type PageRequest } from './db.js';
 import { effectColumns, storedEffect } from './effect-columns.js';
@@ -230,7 +231,7 @@ export async function writeSheet(trx: Knex.Transaction, extractionId: number, sh
     if (!s.effects.length) continue;
     await trx('effects').insert(
       s.effects.map((e, j) => {
-        const c = e.form ? tryComputeReported(e.form, e.reported as Reported, e.assumedR ?? null) : null;
+        const c = e.form ? orientAttempt(tryComputeReported(e.form, e.reported as Reported, e.assumedR ?? null), e, s.task) : null;
         const manipulationId = e.manipulation ? (opts.termIds.get(e.manipulation) ?? null) : null;
         return { extraction_id: extractionId, extraction_study_id: study.id, position: j + 1, updated_by: opts.actorId ?? null, ...effectColumns(e, manipulationId, c?.ok ? c.result! : null) };
       }),

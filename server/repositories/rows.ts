@@ -222,6 +222,7 @@ export interface EffectRow {
   n_total: number | null;
   from_bound: boolean;
   approximate: boolean;
+  sign_reversed: boolean;
   page: string | null;
   locator: string | null;
   quote: string | null;

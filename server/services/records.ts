@@ -6,6 +6,7 @@ import type { RecordHistory, RecordVersionResult, WithdrawnRecord } from '../../
 import type { EditedEffect, WithdrawnEffect } from '../../shared/schemas/registry.js';
 import { OUTCOMES, METRIC_LABELS } from '../../shared/vocabulary/outcomes.js';
 import { METRICS_OF_FORM, tryComputeReported, type Reported } from '../../shared/extraction/compute.js';
+import { orientAttempt } from '../../shared/extraction/orientation.js';
 import { toSheet } from '../../shared/extraction/stored-sheet.js';
 import type { MailingDeps } from './deps.js';
 import { ConflictError, NotFoundError, ValidationError } from '../lib/errors.js';
@@ -13,7 +14,7 @@ import { findAssignment } from '../repositories/assignments.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull } from '../repositories/db.js';
 import { effectColumns } from '../repositories/effect-columns.js';
-import { lockEffect, markEffectWithdrawn, updateEffect } from '../repositories/effects.js';
+import { lockEffect, markEffectWithdrawn, taskOfEffectStudy, updateEffect } from '../repositories/effects.js';
 import { findExtraction, insertExtraction, insertSettlement, lockExtraction, readSheet, recordsOf, settlementsOf, updateExtraction } from '../repositories/extractions.js';
 import { findRef } from '../repositories/refs.js';
 import { bumpRegistry } from '../repositories/registry-version.js';
@@ -160,7 +161,8 @@ export async function editSettledEffect(db: Knex, actorId: number, effectId: num
     if (!e.outcome) problems.push({ path: 'body.effect.outcome', message: 'choose an outcome kind' });
     if (!e.manipulation) problems.push({ path: 'body.effect.manipulation', message: 'choose a manipulation' });
     if (!e.form) problems.push({ path: 'body.effect.form', message: 'choose how the result was reported' });
-    const c = e.form ? tryComputeReported(e.form, e.reported as Reported, e.assumedR ?? null) : null;
+    const task = await taskOfEffectStudy(trx, f);
+    const c = e.form ? orientAttempt(tryComputeReported(e.form, e.reported as Reported, e.assumedR ?? null), e, task) : null;
     if (c && !c.ok) problems.push({ path: `body.effect.reported${c.field ? `.${c.field}` : ''}`, message: c.error! });
     const metrics = c?.ok ? [c.result!.metric] : e.form ? METRICS_OF_FORM[e.form] : [];
     if (e.outcome && metrics.length && !metrics.some((m) => OUTCOMES[e.outcome!].metrics.includes(m)))

@@ -136,6 +136,9 @@ export interface ComputedEffect {
   fromBound: boolean;
   /** rests on a mean and SD estimated from a median with quartiles or range (Wan et al. 2014) */
   approximate: boolean;
+  /** reversed to keep the outcome kind's sign convention (extraction/orientation.ts), with the reason */
+  signReversed?: boolean;
+  signReason?: string;
 }
 
 /**

@@ -198,6 +198,8 @@ export const computedSchema = z.object({
   fromBound: z.boolean().optional(),
   /** rests on a mean and SD estimated from a median (Wan et al. 2014); absent in older snapshots */
   approximate: z.boolean().optional(),
+  /** the sign was reversed to keep the outcome kind's convention (a lower PSE or bisection point means longer) */
+  signReversed: z.boolean().optional(),
 });
 
 /** A coded effect as stored and answered (the server's computation from what was reported, when it computes). */

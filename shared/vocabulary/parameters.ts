@@ -1,4 +1,5 @@
 import type { OutcomeKind } from './outcomes.js';
+import type { Task } from './tasks.js';
 
 /** What an effect measured (issue 11): each outcome kind allows some of these, each in some units. */
 export const PARAMETERS = [
@@ -69,6 +70,25 @@ export const SIGN_CONVENTIONS: Record<OutcomeKind, string> = {
   postdiction_window: 'positive = later information alters the earlier percept over a longer interval',
   positional_lag: 'positive = the moving object is seen further along its path',
 };
+
+/**
+ * Where a lower value means the manipulation lengthened perceived duration, so the sheet reverses the sign of the
+ * contrast (manipulation − control) to keep the outcome kind's convention: per outcome kind, parameter and the tasks it
+ * applies in. In two-interval comparison the PSE is taken as the manipulated stimulus's duration judged equal to the standard.
+ */
+export const LOWER_MEANS_LONGER: Partial<Record<OutcomeKind, Partial<Record<Parameter, readonly Task[]>>>> = {
+  duration_distortion: {
+    pse: ['bisection', 'two_interval_comparison'],
+    bisection_point: ['bisection', 'two_interval_comparison', 'reproduction', 'verbal_estimation', 'other'],
+  },
+};
+
+/** Why an effect's sign is reversed (null when it is not): its outcome kind, parameter and its study's task decide. */
+export function signReversal(e: { outcome?: OutcomeKind | null; parameter?: Parameter | null; unit?: Unit | null }, task: Task | null | undefined): string | null {
+  const q = effectQuantity(e);
+  if (!e.outcome || !q || !task || !LOWER_MEANS_LONGER[e.outcome]?.[q.parameter]?.includes(task)) return null;
+  return `for a ${PARAMETER_LABELS[q.parameter]} in ${task.replace(/_/g, ' ')} a lower value means the manipulation lengthened perceived duration (${SIGN_CONVENTIONS[e.outcome].split(' (')[0]})`;
+}
 
 export const quantityLabel = (parameter: string, unit: string) =>
   `${PARAMETER_LABELS[parameter as Parameter] ?? parameter} (${UNIT_LABELS[unit as Unit] ?? unit})`;

@@ -18,6 +18,8 @@ export interface InventedStudy {
   /** what was measured and its unit (blank: the outcome kind's usual ones) */
   parameter?: string;
   unit?: string;
+  /** the study's task (default reproduction) */
+  task?: string;
 }
 
 let counter = 0;
@@ -49,7 +51,7 @@ export async function settleInventedReference(db: Knex, manipulation: string, ye
       n2: s.n,
       population: 'healthy_adults',
       modality: s.modality ?? 'visual',
-      task: 'reproduction',
+      task: s.task ?? 'reproduction',
       standardMs: s.standardMs ?? 600,
       effects: [effect(s.mean1, s.mean2, s), ...(s.second ? [effect(s.second.mean1, s.second.mean2, s)] : [])],
     })),

@@ -27,6 +27,11 @@ export function EffectResult({ attempt, warnings, form }: { attempt: ComputeAtte
               </span>
             )}
           </p>
+          {attempt.result.signReversed && (
+            <p className="mt-1 text-xs text-ink-soft" data-testid="sign-reversed">
+              ⇄ The sheet reversed the sign: {attempt.result.signReason}. The reported values are kept as entered.
+            </p>
+          )}
           {attempt.result.fromBound && (
             <p className="mt-1 text-xs text-caution-dark" data-testid="bound-flag">
               ⚠ Computed from a bound (p below the value given): the effect is at least this far from 0. A reviewer may leave such effects out.

@@ -2,6 +2,7 @@ import { useCallback, useEffect, useRef, useState, type ReactNode } from 'react'
 import { useFieldArray, useForm, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form';
 import { DEFAULT_ASSUMED_R, REPORT_FIELDS, REPORT_FORMS, REPORT_FORM_LABELS, tryComputeReported, type Reported } from '../../../../shared/extraction/compute';
 import { effectWarnings, studyWarnings } from '../../../../shared/extraction/warnings';
+import { orientAttempt } from '../../../../shared/extraction/orientation';
 import { effectDraftSchema, sheetDraftSchema, sheetSubmitSchema, studyDraftSchema, type Sheet } from '../../../../shared/schemas/extraction';
 import { DESIGNS, DESIGN_LABELS } from '../../../../shared/vocabulary/designs';
 import { MODALITIES, MODALITY_LABELS } from '../../../../shared/vocabulary/modalities';
@@ -53,8 +54,9 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
   const study = useWatch({ control, name: `studies.${i}` });
   const parsed = effectDraftSchema.safeParse(effect ?? {});
   const e = parsed.success ? parsed.data : undefined;
-  const attempt = e?.form ? tryComputeReported(e.form, e.reported as Reported, e.assumedR) : null;
   const s = studyDraftSchema.safeParse(study ?? {});
+  // in the outcome kind's sign convention: reversed where a lower value means lengthening (the result says so)
+  const attempt = e?.form ? orientAttempt(tryComputeReported(e.form, e.reported as Reported, e.assumedR), e, s.success ? s.data.task : undefined) : null;
   const warnings = e ? effectWarnings(e, s.success ? s.data : undefined, attempt?.ok ? attempt.result! : null) : [];
   const fields = e?.form ? REPORT_FIELDS[e.form] : [];
   const needsR = e?.form === 'smd_paired' || e?.form === 'log_ratio_paired';
