@@ -5,29 +5,13 @@
 import { spawn } from 'node:child_process';
 import autocannon from 'autocannon';
 import { randomEffects } from '../support/random.js';
+import { percentile, waitFor } from './support/synthetic.js';
 
 const origin = process.env.APP_ORIGIN ?? `http://127.0.0.1:${process.env.APP_PORT}`;
 
 function body(k: number) {
   const { effects, variances } = randomEffects(12345, k, { mu: 0.3, tau2: 0.08, vmin: 0.005, vmax: 0.305 });
   return JSON.stringify({ effects, variances, method: 'DL' });
-}
-
-function percentile(xs: number[], p: number) {
-  const s = [...xs].sort((x, y) => x - y);
-  return s[Math.min(s.length - 1, Math.ceil((p / 100) * s.length) - 1)];
-}
-
-async function waitFor(u: string) {
-  for (let i = 0; i < 120; i++) {
-    try {
-      if ((await fetch(u)).ok) return;
-    } catch {
-      // not up yet
-    }
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error(`server did not come up at ${u}`);
 }
 
 const server = spawn('node_modules/.bin/tsx', ['server/index.ts'], {
