@@ -248,7 +248,13 @@ describe('trial data', () => {
     expect(up.status).toBe(403);
     expect(up.body.error.message).toMatch(/Only the coder of this sheet/);
     // non-contributors are refused by role, the same for an existing and a missing id
-    for (const agent of [reviewer, await signIn(t.app, 'reader'), await signIn(t.app, 'admin')]) {
+    // an admin holds the curator role: sees the trial data, may not upload
+    const admin = await signIn(t.app, 'admin');
+    expect((await admin.get(`/api/trial-sets/${setId}`)).status).toBe(200);
+    const adminUpload = await upload(admin, extraction, trialsCsv(ORDER));
+    expect(adminUpload.status).toBe(403);
+    expect(adminUpload.body.error.message).toMatch(/Only the coder of this sheet/);
+    for (const agent of [reviewer, await signIn(t.app, 'reader')]) {
       const seen = await agent.get(`/api/trial-sets/${setId}`);
       expect(seen.status).toBe(403);
       expect(seen.body).toEqual((await agent.get('/api/trial-sets/999999')).body);
