@@ -119,16 +119,16 @@ export const specs: Spec[] = [
     },
   },
   {
-    name: 'a lone curator is told they cannot code a pair themselves, and their own name cannot be chosen',
+    name: 'a curator is told who could reconcile a pair they code themselves (an admin counts as a curator), and may then choose their own name',
     async run(page) {
       await signInThroughPage(page, 'curator');
       await page.goto(appUrl('/assignments'));
-      await page.getByTestId('self-assign-note').getByText(/You cannot code a pair yourself: no other curator could reconcile it/).waitFor();
+      await page.getByTestId('self-assign-note').getByText(/You may code a pair yourself: .*@admin.* can then reconcile it/).waitFor();
       const select = page.getByRole('combobox', { name: /^First coder for / }).first();
       await select.waitFor();
       const own = select.locator('option', { hasText: '@curator' });
-      assert.equal(await own.isDisabled(), true);
-      assert.match((await own.textContent()) ?? '', /no other curator to reconcile/);
+      assert.equal(await own.isDisabled(), false);
+      assert.match((await own.textContent()) ?? '', /\(you\)/);
       // the queue opens a pair's page only for curators outside the pair; the server refuses the rest with 403
       const res = await page.request.get(appUrl('/api/reconciliation'));
       assert.equal(res.status(), 200);

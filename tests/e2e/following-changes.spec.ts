@@ -53,7 +53,7 @@ export const specs: Spec[] = [
         await setYear(cp, first.referenceId, year - 7);
 
         await page.goto(appUrl('/follows'));
-        const row = page.getByRole('row').filter({ hasText: `years ${year}–…` }).filter({ hasText: 'outcome: Duration distortion' });
+        const row = page.getByRole('row').filter({ hasText: `years ${year}–…` }).filter({ hasText: 'Outcome kind: Duration distortion' });
         await row.getByRole('link', { name: /^What changed/ }).click();
         await page.getByRole('heading', { name: 'What changed since' }).waitFor();
         // the comparison with today's registry shows at once; the news waits for the re-check job
@@ -77,7 +77,7 @@ export const specs: Spec[] = [
         await page.getByRole('link', { name: 'My follows' }).last().click();
         await page.getByRole('heading', { name: 'My follows' }).waitFor();
         await page.getByRole('table').or(page.getByText('You follow no synthesis.')).first().waitFor();
-        assert.equal(await page.getByRole('row').filter({ hasText: `years ${year}–…` }).filter({ hasText: 'outcome: Duration distortion' }).count(), 0);
+        assert.equal(await page.getByRole('row').filter({ hasText: `years ${year}–…` }).filter({ hasText: 'Outcome kind: Duration distortion' }).count(), 0);
       } finally {
         // the year back, for the specs that follow
         await setYear(cp, first.referenceId, year).catch(() => undefined);

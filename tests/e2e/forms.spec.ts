@@ -59,14 +59,25 @@ export const specs: Spec[] = [
       await row.getByRole('button', { name: 'Assign' }).click();
       await row.getByText('✕ choose two different coders').waitFor();
 
-      // Screening a reference: an exclusion needs a reason.
-      await page.goto(appUrl('/references'));
-      await page.getByRole('table').getByRole('link').first().click();
+      // Screening a reference: optional reason on title and abstract, required at full text.
+      const imported = await page.request.post(appUrl('/api/imports'), {
+        headers: { Origin: new URL(process.env.APP_ORIGIN!).origin },
+        data: { format: 'bibtex', text: `@article{forms${stamp}, title={Forms probe ${stamp} on empty intervals}, author={Formwright, Ida}, year={2019}, journal={Invented Timing Reports}, doi={10.5555/forms.${stamp}}}` },
+      });
+      assert.equal(imported.status(), 201);
+      const refId = ((await imported.json()) as { entries: { referenceId?: number }[] }).entries[0]!.referenceId!;
+      await page.goto(appUrl(`/references/${refId}`));
       await page.getByRole('button', { name: 'Record decision' }).waitFor();
       await page.getByRole('radio', { name: '✕ Exclude' }).check();
+      await page.getByRole('combobox', { name: 'Reason' }).locator('option', { hasText: 'none (optional here)' }).waitFor({ state: 'attached' });
+      await page.getByRole('radio', { name: '✓ Include' }).check();
+      await page.getByRole('button', { name: 'Record decision' }).click();
+      await page.getByText('✓ Recorded').waitFor();
+      await page.getByRole('radio', { name: '✕ Exclude' }).check();
+      await page.getByRole('combobox', { name: 'Reason' }).locator('option', { hasText: 'choose…' }).waitFor({ state: 'attached' });
       await page.getByRole('combobox', { name: 'Reason' }).selectOption({ value: '' });
       await page.getByRole('button', { name: 'Record decision' }).click();
-      await page.getByText('✕ an exclusion needs a reason').waitFor();
+      await page.getByText('✕ a full-text exclusion needs a reason').waitFor();
       await signOut(page);
     },
   },

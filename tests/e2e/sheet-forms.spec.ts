@@ -14,10 +14,13 @@ async function claimOwnReference(page: Page, title: string): Promise<number> {
   assert.equal(imported.status(), 201, await imported.text());
   const refId = ((await imported.json()) as { entries: { referenceId: number }[] }).entries[0].referenceId;
   const { version } = ((await (await page.request.get(appUrl(`/api/references/${refId}`))).json()) as { reference: { version: number } }).reference;
-  const included = await page.request.post(appUrl(`/api/references/${refId}/screening`), { headers, data: { decision: 'included', version } });
-  assert.equal(included.status(), 201, await included.text());
+  // two stages: title and abstract, then full text
+  for (const v of [version, version + 1]) {
+    const included = await page.request.post(appUrl(`/api/references/${refId}/screening`), { headers, data: { decision: 'included', version: v } });
+    assert.equal(included.status(), 201, await included.text());
+  }
   const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: refId } });
-  assert.equal(claimed.status(), 201);
+  assert.equal(claimed.status(), 201, await claimed.text());
   return ((await claimed.json()) as { id: number }).id;
 }
 
