@@ -62,7 +62,7 @@ export const specs: Spec[] = [
       // Screening a reference: optional reason on title and abstract, required at full text.
       const imported = await page.request.post(appUrl('/api/imports'), {
         headers: { Origin: new URL(process.env.APP_ORIGIN!).origin },
-        data: { format: 'bibtex', text: `@article{forms${stamp}, title={Forms probe ${stamp} on empty intervals}, author={Formwright, Ida}, year={2019}, journal={Invented Timing Reports}, doi={10.5555/forms.${stamp}}}` },
+        data: { format: 'bibtex', text: `@article{forms${stamp}, title={Forms check ${stamp} on empty intervals}, author={Formwright, Ida}, year={2019}, journal={Invented Timing Reports}, doi={10.5555/forms.${stamp}}}` },
       });
       assert.equal(imported.status(), 201);
       const refId = ((await imported.json()) as { entries: { referenceId?: number }[] }).entries[0]!.referenceId!;

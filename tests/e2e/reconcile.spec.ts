@@ -33,7 +33,7 @@ async function pageFits(page: Page, width: number) {
 async function openPair(page: Page, id: number, label: string) {
   await page.getByRole('banner').waitFor();
   // at phone width the navigation is folded into a menu
-  const menu = page.getByRole('button', { name: /^Menu/ });
+  const menu = page.getByRole('button', { name: /Menu/ });
   if (await menu.isVisible()) await menu.click();
   await page.getByRole('banner').getByRole('link', { name: 'Reconcile' }).click();
   await page.getByRole('heading', { name: 'Reconciliation queue' }).waitFor();
