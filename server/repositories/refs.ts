@@ -146,12 +146,13 @@ export async function listRefs(db: Db, f: RefListFilters & PageRequest & { sort:
 }
 
 /** The oldest live references with a screening status (optionally those one import batch created), and how many there are. */
-export async function refsAwaiting(db: Db, q: { limit: number; batch?: number; status: ScreeningStatus }) {
+export async function refsAwaiting(db: Db, q: { limit: number; batch?: number; status: ScreeningStatus; only?: (qb: Knex.QueryBuilder) => void }) {
   const base = db<RefRow>('refs')
     .whereNull('merged_into')
     .where('screening_status', q.status)
     .modify((qb) => {
       if (q.batch) qb.whereIn('id', db('import_entries').where({ batch_id: q.batch, status: 'imported' }).select('reference_id'));
+      q.only?.(qb);
     });
   const total = await countRows(base);
   const rows: RefRow[] = await base.clone().orderBy([{ column: 'created_at' }, { column: 'id' }]).limit(q.limit).select('*');

@@ -348,3 +348,26 @@ export interface TrialFitRow {
   converged: boolean;
   result: Json;
 }
+
+export interface ScreeningRuleRow {
+  id: 1;
+  screeners: 1 | 2;
+  updated_by: number | null;
+  updated_at: Timestamp;
+}
+
+/** One screener's blind decision at a stage under the two-screener rule. */
+export interface ScreeningVoteRow {
+  id: number;
+  ref_id: number;
+  stage: 'title_abstract' | 'full_text';
+  decision: 'included' | 'excluded';
+  reason: string | null;
+  note: string | null;
+  decided_by: number;
+  decided_at: Timestamp;
+  /** the decision (screening_decisions) that settled it: two agreeing votes, or a curator's settlement */
+  settled_by_decision: number | null;
+  /** taken back by its screener, superseded, or reopened by an undo of the settled decision */
+  withdrawn_at: Timestamp | null;
+}

@@ -4,9 +4,9 @@ import type {
 } from '../../shared/schemas/references.js';
 import { hasRole, type Role } from '../../shared/roles.js';
 import {
-  EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, NO_REASON, SCREENING_STAGES, type ScreeningStatus, STAGE_REASONS, stageOf, statusAfter, type ExclusionReason, type ScreeningStage,
+  EXCLUSION_REASONS, EXCLUSION_REASON_LABELS, NO_REASON, SCREENING_STAGES, type ScreeningStatus, STAGE_REASONS, stageOf, statusAfter, type ScreeningStage,
 } from '../../shared/vocabulary/screening.js';
-import { ConflictError, ForbiddenError, NotFoundError, UnprocessableError } from '../lib/errors.js';
+import { ConflictError, ForbiddenError, NotFoundError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, type Db } from '../repositories/db.js';
 import { creatingBatchesOf, duplicateEntriesByFormat } from '../repositories/imports.js';
@@ -16,6 +16,9 @@ import { lockSettledRecordsOf } from '../repositories/settled-effects.js';
 import type { Actor } from './coding.js';
 import { restoreWithdrawnRecordsIn, withdrawRecordIn } from './records.js';
 import { summary } from './references.js';
+import { checkReason, STAGE_WORD, WAITING_AT } from './screening-words.js';
+import { isCurator, recordVoteIn, reopenVotesOf, supersedeOpenVotes, takeBackOwnVote } from './screening-votes.js';
+import { openVoteSummary, awaitingScreener, screeningRule } from '../repositories/screening-votes.js';
 
 /**
  * Records a decision (the history keeps every one; the reference shows the latest) against the reference version
@@ -46,6 +49,14 @@ async function decideIn(trx: Knex.Transaction, refId: number, input: ScreeningDe
       stage,
     });
   checkReason(refId, stage, input);
+  const rule = await screeningRule(trx);
+  if (rule.screeners === 2 && r.screening_status === WAITING_AT[stage]) return recordVoteIn(trx, r, stage, input, actor);
+  if (rule.screeners === 2 && !isCurator(actor))
+    throw new ConflictError(`Reference ${refId} is settled at the ${STAGE_WORD[stage]} stage; under the two-screener rule only a curator may change a settled decision.`, {
+      currentVersion: r.version,
+      screeningStatus: r.screening_status,
+    });
+  await supersedeOpenVotes(trx, refId, stage);
   const withdrawnRecords = input.decision === 'excluded' ? await lockSettledRecordsOf(trx, refId) : [];
   if (withdrawnRecords.length && !hasRole(actor.roles, 'curator'))
     throw new ForbiddenError(`Reference ${refId} has settled effects; only a curator may exclude it (that withdraws them).`);
@@ -64,25 +75,8 @@ async function decideIn(trx: Knex.Transaction, refId: number, input: ScreeningDe
   });
   return {
     id: row.id, refId, stage, decision: input.decision, reason: input.reason ?? null, note: input.note ?? null, decidedAt: iso(row.decided_at),
-    screeningStatus, version: r.version + 1, withdrawnRecords, registryVersion,
+    screeningStatus, version: r.version + 1, withdrawnRecords, registryVersion, dual: null,
   };
-}
-
-/** A stage as it reads inside a sentence. */
-const STAGE_WORD: Record<ScreeningStage, string> = { title_abstract: 'title and abstract', full_text: 'full-text' };
-
-const reasonList = (stage: ScreeningStage) => STAGE_REASONS[stage].map((x) => `“${EXCLUSION_REASON_LABELS[x]}”`).join(', ');
-
-/** Each stage's own reasons (PRISMA 2020 item 16: reports excluded at full text, each with its reason). */
-function checkReason(refId: number, stage: ScreeningStage, input: { decision: string; reason?: ExclusionReason }) {
-  if (input.decision !== 'excluded') return;
-  if (!input.reason && stage === 'full_text')
-    throw new UnprocessableError(`Reference ${refId} is at the full-text stage, where an exclusion needs a reason: pick one of ${reasonList(stage)}.`, { field: 'reason', stage });
-  if (input.reason && !STAGE_REASONS[stage].includes(input.reason))
-    throw new UnprocessableError(
-      `“${EXCLUSION_REASON_LABELS[input.reason]}” is not a reason at the ${STAGE_WORD[stage]} stage of reference ${refId}; pick one of ${reasonList(stage)}.`,
-      { field: 'reason', stage },
-    );
 }
 
 /** Includes a reference at title/abstract and then at full text (the demo seed's papers, which are coded). */
@@ -134,10 +128,13 @@ async function undoIn(trx: Knex.Transaction, refId: number, input: ScreeningUndo
   if (r.merged_into) throw new ConflictError(`Reference ${refId} was merged into reference ${r.merged_into}; it has no decision to undo.`, { mergedInto: r.merged_into });
   if (r.version !== input.version)
     throw new ConflictError(`Reference ${refId} changed since you opened it (now version ${r.version}); reload it before undoing.`, { currentVersion: r.version, screeningStatus: r.screening_status });
+  const own = await takeBackOwnVote(trx, r, actor);
+  if (own) return own;
   const [last, before] = await decisionsOf(trx, refId);
   if (!last) throw new ConflictError(`Reference ${refId} has no decision to undo.`);
   if (last.decided_by !== actor.id && !hasRole(actor.roles, 'curator'))
     throw new ForbiddenError(`The last decision on reference ${refId} is ${last.login ?? 'someone else'}'s; only they or a curator may undo it.`);
+  await reopenVotesOf(trx, refId, last.id, actor);
   const restoredRecords = (last.withdrawn_records ?? []).map(Number);
   if (restoredRecords.length && !hasRole(actor.roles, 'curator'))
     throw new ForbiddenError(`Undoing the exclusion of reference ${refId} settles its withdrawn effects again; only a curator may.`);
@@ -165,10 +162,19 @@ export function cslKeywords(csl: Record<string, unknown> | null | undefined): st
 }
 
 /** The next references waiting for a stage (unscreened, or awaiting full text), oldest first, with what a screener reads (abstract, keywords, attachments), why each is here, and how many are left. */
-export async function queue(db: Knex, q: { limit: number; batch?: number; stage: ScreeningStage }): Promise<ScreeningQueue> {
-  const { total, rows } = await refsAwaiting(db, { ...q, status: q.stage === 'title_abstract' ? 'unscreened' : 'awaiting_full_text' });
+export async function queue(db: Knex, q: { limit: number; batch?: number; stage: ScreeningStage }, actor: Actor): Promise<ScreeningQueue> {
+  const dual = (await screeningRule(db)).screeners === 2;
+  // Two screeners: each sees what they have not decided yet; a curator also sees disagreements to settle.
+  const only = dual ? awaitingScreener(db, q.stage, actor.id, isCurator(actor)) : undefined;
+  const { total, rows } = await refsAwaiting(db, { ...q, status: WAITING_AT[q.stage], only });
   const ids = rows.map((r) => r.id);
-  const [batches, attachments] = await Promise.all([creatingBatchesOf(db, ids), attachmentsOfRefs(db, ids)]);
+  const [batches, attachments, votes] = await Promise.all([creatingBatchesOf(db, ids), attachmentsOfRefs(db, ids), dual ? openVoteSummary(db, ids, q.stage, actor.id) : new Map<number, { n: number }>()]);
+  const why = (id: number) => {
+    const n = votes.get(id)?.n ?? 0;
+    if (n >= 2) return 'conflict' as const;
+    if (n === 1) return 'second_screener_needed' as const;
+    return q.stage === 'title_abstract' ? ('new' as const) : ('passed_title_abstract' as const);
+  };
   return {
     stage: q.stage,
     items: rows.map((r) => ({
@@ -177,7 +183,7 @@ export async function queue(db: Knex, q: { limit: number; batch?: number; stage:
       version: r.version,
       keywords: cslKeywords(r.csl),
       attachments: attachments.filter((a) => a.ref_id === r.id).map((a) => ({ id: a.id, filename: a.filename, sizeBytes: a.size_bytes, mime: a.mime })),
-      why: { kind: q.stage === 'title_abstract' ? ('new' as const) : ('passed_title_abstract' as const), batch: batches.get(r.id) ?? null },
+      why: { kind: why(r.id), batch: batches.get(r.id) ?? null },
     })),
     remaining: total,
   };
@@ -210,8 +216,8 @@ export async function prismaCounts(db: Db): Promise<PrismaFlow> {
   const reachedFullText = st.awaiting_full_text + st.included + ftExcluded;
   return {
     stages: {
-      title_abstract: { decided: reachedFullText + taExcluded, waiting: st.unscreened, included: reachedFullText, excluded: taExcluded, excludedByReason: byStage.title_abstract },
-      full_text: { decided: st.included + ftExcluded, waiting: st.awaiting_full_text, included: st.included, excluded: ftExcluded, excludedByReason: byStage.full_text },
+      title_abstract: { decided: reachedFullText + taExcluded, waiting: st.unscreened, included: reachedFullText, excluded: taExcluded, excludedByReason: byStage.title_abstract},
+      full_text: { decided: st.included + ftExcluded, waiting: st.awaiting_full_text, included: st.included, excluded: ftExcluded, excludedByReason: byStage.full_text},
     },
     identified: { total: identifiedTotal, bySource: identified },
     duplicatesRemoved: { total: removed, importDuplicates: duplicateEntries, merged: refs.merged },

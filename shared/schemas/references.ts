@@ -245,6 +245,11 @@ export const screeningResultSchema = screeningEntrySchema.omit({ decidedBy: true
   /** Settled records a curator's exclusion withdrew (their effects leave every analysis), and the registry version it made. */
   withdrawnRecords: z.array(z.number().int()),
   registryVersion: z.number().int().nullable(),
+  /**
+   * Under the two-screener rule: how many screeners' decisions the record has at this stage now, and whether it is
+   * settled (two that agree, or a curator's settlement). null under the one-screener rule.
+   */
+  dual: z.object({ decisionsIn: z.number().int(), settled: z.boolean() }).nullable(),
 });
 export type ScreeningResult = z.infer<typeof screeningResultSchema>;
 
@@ -290,7 +295,12 @@ export type ScreeningBatchUndoResult = z.infer<typeof screeningBatchUndoResultSc
  * Why a reference is in the queue: new (with the import batch that created it, null when it came another way), or,
  * in the full-text queue, included on title and abstract.
  */
-export const queueReasonSchema = z.object({ kind: z.enum(['new', 'passed_title_abstract']), batch: z.number().int().nullable() });
+/**
+ * Under the two-screener rule also: `second_screener_needed` (another screener has decided it) and, on a curator's
+ * queue, `conflict` (both screeners decided and disagree; a curator settles it).
+ */
+export const QUEUE_REASON_KINDS = ['new', 'passed_title_abstract', 'second_screener_needed', 'conflict'] as const;
+export const queueReasonSchema = z.object({ kind: z.enum(QUEUE_REASON_KINDS), batch: z.number().int().nullable() });
 export const screeningQueueSchema = z.object({
   stage: z.enum(SCREENING_STAGES),
   items: z.array(

@@ -14,6 +14,7 @@ import {
   screeningQueueSchema,
   searchResultSchema,
 } from '../../shared/schemas/references.js';
+import { screeningAgreementSchema, screeningConflictsSchema, screeningRuleSchema } from '../../shared/schemas/screening.js';
 import { followChangesSchema, followListSchema, followSchema, snapshotDiffSchema, unsubscribeAnswerSchema } from '../../shared/schemas/following.js';
 import { manipulationPageSchema, settledEffectDetailSchema, settledEffectPageSchema } from '../../shared/schemas/registry.js';
 import {
@@ -63,6 +64,9 @@ describe('every JSON answer has the shape declared once in shared/schemas', () =
     expectShape(screeningBatchResultSchema, await as.coder1.post('/api/screening/decisions').send({ items, decision: 'included' }), 201);
     expectShape(screeningBatchUndoResultSchema, await as.coder1.post('/api/screening/decisions/undo').send({ items: [{ ...items[0], version: items[0].version + 1 }] }));
     expectShape(prismaCountsSchema, await anonymous(t.app).get('/api/screening/counts'));
+    expectShape(screeningRuleSchema, await as.coder1.get('/api/screening/rule'));
+    expectShape(screeningAgreementSchema, await anonymous(t.app).get('/api/screening/agreement'));
+    expectShape(screeningConflictsSchema, await as.curator.get('/api/screening/conflicts'));
     expectShape(duplicatePageSchema, await as.curator.get('/api/duplicates'));
     const imports = await as.coder1.get('/api/imports');
     expectShape(importPageSchema, imports);
