@@ -15,6 +15,7 @@ import { authRouter } from './routes/auth.js';
 import { healthRouter } from './routes/health.js';
 import { meRouter } from './routes/me.js';
 import { adminRouter } from './routes/admin.js';
+import { auditRouter } from './routes/audit.js';
 import { tokensRouter } from './routes/tokens.js';
 import { synthesesRouter } from './routes/syntheses.js';
 import { followsRouter } from './routes/follows.js';
@@ -127,6 +128,7 @@ const apiRouters: MountRouter[] = [
   healthRouter,
   meRouter,
   adminRouter,
+  auditRouter,
   tokensRouter,
   synthesesRouter,
   snapshotsRouter,

@@ -1,11 +1,11 @@
-import { listAudit as auditRows } from '../repositories/audit.js';
+import { listAudit as auditRows, type AuditFilter } from '../repositories/audit.js';
 import type { AuditPage } from '../../shared/schemas/admin.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { iso, type Db, type PageRequest } from '../repositories/db.js';
 
 export { recordAudit, type AuditEntry } from '../repositories/audit.js';
 
-export async function listAudit(db: Db, opts: PageRequest & { entityType?: string; entityId?: string; action?: string }): Promise<AuditPage> {
+export async function listAudit(db: Db, opts: PageRequest & AuditFilter): Promise<AuditPage> {
   const { total, rows } = await auditRows(db, opts);
   return pageOf(
     rows.map((r) => ({

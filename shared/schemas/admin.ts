@@ -1,11 +1,20 @@
 import { z } from 'zod';
 import { pageRequestSchema, pageSchema, timestamp } from './common.js';
 
-export const auditQuerySchema = pageRequestSchema(50).extend({
-  entityType: z.string().max(50).optional(),
-  entityId: z.string().max(50).optional(),
-  action: z.string().max(80).optional(),
-});
+const day = z.iso.date({ message: 'enter a date as year-month-day, e.g. 2026-12-04' });
+
+/** Filters of the audit log: who (login), what (action code), about which record, between two days (UTC, inclusive). */
+export const auditQuerySchema = pageRequestSchema(50)
+  .extend({
+    entityType: z.string().trim().max(50).optional(),
+    entityId: z.string().trim().max(50).optional(),
+    action: z.string().trim().max(80).optional(),
+    actor: z.string().trim().max(100).transform((s) => s.replace(/^@/, '')).optional(),
+    from: day.optional(),
+    to: day.optional(),
+  })
+  .refine((q) => !q.from || !q.to || q.from <= q.to, { message: 'the first day must not be after the last day', path: ['to'] });
+export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
 export const auditEntrySchema = z.object({
   id: z.number().int(),

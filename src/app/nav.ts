@@ -22,10 +22,10 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/assignments', label: 'Assign', role: 'curator' },
   { to: '/reconciliation', label: 'Reconcile', role: 'curator' },
   { to: '/agreement', label: 'Agreement', role: ['curator', 'reviewer'] },
+  { to: '/audit', label: 'Audit log', role: 'curator' },
   { to: '/manipulations', label: 'Vocabulary' },
   { to: '/follows', label: 'My follows', signedIn: true },
   { to: '/settings/tokens', label: 'API tokens', signedIn: true },
   { to: '/admin/people', label: 'People', role: 'admin' },
-  { to: '/admin/audit', label: 'Audit log', role: 'admin' },
   { to: '/admin/mail', label: 'Mail', role: 'admin' },
 ];

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { ComponentType } from 'react';
-import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { createBrowserRouter, redirect, type RouteObject } from 'react-router-dom';
 import { Loading } from '../components/ui/Notice';
 import { AppShell } from './AppShell';
 import { screenLoaders } from './loaders';
@@ -36,7 +36,7 @@ const ReconciliationPage = lazyScreen(() => import('./routes/ReconciliationPage'
 const ReconcilePairPage = lazyScreen(() => import('./routes/ReconcilePairPage'), (m) => m.ReconcilePairPage);
 const RecordPage = lazyScreen(() => import('./routes/RecordPage'), (m) => m.RecordPage);
 const AdminPeoplePage = lazyScreen(() => import('./routes/AdminPeoplePage'), (m) => m.AdminPeoplePage);
-const AdminAuditPage = lazyScreen(() => import('./routes/AdminAuditPage'), (m) => m.AdminAuditPage);
+const AuditPage = lazyScreen(() => import('./routes/AuditPage'), (m) => m.AuditPage);
 const AdminMailPage = lazyScreen(() => import('./routes/AdminMailPage'), (m) => m.AdminMailPage);
 
 /** Every screen; each feature adds its routes to this list. The main ones load their data before they render. */
@@ -71,7 +71,9 @@ export function screens(qc: QueryClient): RouteObject[] {
     { path: 'manipulations', element: <ManipulationsPage /> },
     { path: 'admin/mail', lazy: AdminMailPage },
     { path: 'admin/people', lazy: AdminPeoplePage },
-    { path: 'admin/audit', lazy: AdminAuditPage },
+    { path: 'audit', lazy: AuditPage },
+    // the log's earlier address, when only admins could read it
+    { path: 'admin/audit', loader: () => redirect('/audit') },
     { path: '*', element: <NotFoundPage /> },
   ];
 }

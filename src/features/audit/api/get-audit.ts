@@ -5,14 +5,21 @@ import { queryKeys } from '../../../lib/query/keys';
 
 export type { AuditEntry as AuditItem } from '../../../../shared/schemas/admin';
 
-export interface AuditQuery {
-  page: number;
-  pageSize: number;
-  entityType?: string;
+export interface AuditFilters {
+  actor?: string;
   action?: string;
+  entityType?: string;
+  entityId?: string;
+  from?: string;
+  to?: string;
 }
 
-export const getAudit = (q: AuditQuery) => api<AuditPage>(`/api/admin/audit${queryString({ ...q })}`);
+export interface AuditQuery extends AuditFilters {
+  page: number;
+  pageSize: number;
+}
+
+export const getAudit = (q: AuditQuery) => api<AuditPage>(`/api/audit${queryString({ ...q })}`);
 
 export const auditQueryOptions = (q: AuditQuery) =>
   queryOptions({ queryKey: queryKeys.audit.list(q), queryFn: () => getAudit(q), placeholderData: keepPreviousData });

@@ -1,58 +1,96 @@
-import { auditRecordText } from '../../../../shared/vocabulary/audit';
-import { labelOf } from '../../../../shared/vocabulary/labels';
+import { auditDetailsText, auditRecordText } from '../../../../shared/vocabulary/audit';
+import { LABELS, labelOf } from '../../../../shared/vocabulary/labels';
 import { useState } from 'react';
 import { EmptyState, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
-import { useAudit } from '../api/get-audit';
+import { useAudit, type AuditFilters } from '../api/get-audit';
 
+const inputClass = 'ml-1 rounded border border-paper-edge bg-white px-2 py-1';
+const byLabel = (table: Record<string, string>) => Object.entries(table).sort((a, b) => a[1].localeCompare(b[1]));
+
+/** The audit log with filters by person, action, record and a range of days; details said in words. */
 export function AuditTable() {
   const [page, setPage] = useState(1);
-  const [entityType, setEntityType] = useState('');
+  const [filters, setFilters] = useState<AuditFilters>({});
   const pageSize = 50;
-  const { data, error, isLoading } = useAudit({ page, pageSize, entityType: entityType || undefined });
+  const { data, error, isLoading } = useAudit({ page, pageSize, ...filters });
+  const set = (key: keyof AuditFilters) => (value: string) => {
+    setFilters((f) => ({ ...f, [key]: value.trim() || undefined }));
+    setPage(1);
+  };
   return (
     <div>
-      <label className="mb-2 block text-sm">
-        Only entries about{' '}
-        <input
-          className="ml-1 rounded border border-paper-edge bg-white px-2 py-1"
-          value={entityType}
-          placeholder="e.g. user, reference, extraction"
-          onChange={(e) => {
-            setEntityType(e.target.value.trim());
-            setPage(1);
-          }}
-        />
-      </label>
+      <form className="mb-3 flex flex-wrap gap-3 text-sm" aria-label="Filter the audit log" onSubmit={(e) => e.preventDefault()}>
+        <label>
+          Person
+          <input className={inputClass} aria-label="Person" value={filters.actor ?? ''} placeholder="login, or system" onChange={(e) => set('actor')(e.target.value)} />
+        </label>
+        <label>
+          Action
+          <select className={inputClass} aria-label="Action" value={filters.action ?? ''} onChange={(e) => set('action')(e.target.value)}>
+            <option value="">any</option>
+            {byLabel(LABELS.auditAction).map(([code, label]) => (
+              <option key={code} value={code}>
+                {label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label>
+          Record
+          <select className={inputClass} aria-label="Record" value={filters.entityType ?? ''} onChange={(e) => set('entityType')(e.target.value)}>
+            <option value="">any</option>
+            {byLabel(LABELS.record).map(([code, label]) => (
+              <option key={code} value={code}>
+                {label}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label>
+          Number
+          <input className={`${inputClass} w-24`} inputMode="numeric" aria-label="Number" value={filters.entityId ?? ''} onChange={(e) => set('entityId')(e.target.value)} />
+        </label>
+        <label>
+          From
+          <input className={inputClass} type="date" aria-label="From" value={filters.from ?? ''} onChange={(e) => set('from')(e.target.value)} />
+        </label>
+        <label>
+          To
+          <input className={inputClass} type="date" aria-label="To" value={filters.to ?? ''} onChange={(e) => set('to')(e.target.value)} />
+        </label>
+      </form>
       <ErrorNote error={error} />
       {isLoading && <Loading what="Loading the audit log" />}
       {data && data.total === 0 && <EmptyState>No audit entries match.</EmptyState>}
       {data && data.total > 0 && (
         <>
-          <table>
-            <thead>
-              <tr>
-                <th className="num">#</th>
-                <th>When (UTC)</th>
-                <th>Who</th>
-                <th>Action</th>
-                <th>About</th>
-                <th>Details</th>
-              </tr>
-            </thead>
-            <tbody>
-              {data.items.map((a) => (
-                <tr key={a.id}>
-                  <td className="num">{a.id}</td>
-                  <td className="num">{a.at.slice(0, 19).replace('T', ' ')}</td>
-                  <td>{a.actorLogin ? `@${a.actorLogin}` : 'system'}</td>
-                  <td>{labelOf('auditAction', a.action)}</td>
-                  <td>{auditRecordText(a.entityType, a.entityId)}</td>
-                  <td className="font-mono text-xs">{JSON.stringify(a.details)}</td>
+          <div className="overflow-x-auto">
+            <table>
+              <thead>
+                <tr>
+                  <th className="num">#</th>
+                  <th>When (UTC)</th>
+                  <th>Who</th>
+                  <th>Action</th>
+                  <th>About</th>
+                  <th>Details</th>
                 </tr>
-              ))}
-            </tbody>
-          </table>
+              </thead>
+              <tbody>
+                {data.items.map((a) => (
+                  <tr key={a.id}>
+                    <td className="num">{a.id}</td>
+                    <td className="num">{a.at.slice(0, 19).replace('T', ' ')}</td>
+                    <td>{a.actorLogin ? `@${a.actorLogin}` : 'system'}</td>
+                    <td>{labelOf('auditAction', a.action)}</td>
+                    <td>{auditRecordText(a.entityType, a.entityId)}</td>
+                    <td className="text-sm">{auditDetailsText(a.details) || '—'}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
           <Pager page={page} pageSize={pageSize} total={data.total} onPage={setPage} />
         </>
       )}
