@@ -6,7 +6,7 @@ import { currentRegistryVersion } from '../repositories/registry-version.js';
 import { filterSettledEffects } from './settled-effects-cache.js';
 import { prismaCounts } from './screening.js';
 import { requestFilters } from './synthesis.js';
-import { EXCLUSION_COUNT_LABELS } from '../../shared/vocabulary/screening.js';
+import { EXCLUSION_COUNT_LABELS, NO_REASON } from '../../shared/vocabulary/screening.js';
 import { enteringCounts, filterAttribution, NO_MANIPULATION_REASON, synthesisFlow, type SynthesisFlow } from '../../shared/synthesis/flow.js';
 import { prismaFlowSvg } from '../../shared/plots/prisma-flow.js';
 import type { SynthesisFlowAnswer, SynthesisRequest } from '../../shared/schemas/synthesis.js';
@@ -29,11 +29,9 @@ export async function flowIn(db: Db, request: SynthesisRequest): Promise<Synthes
   return synthesisFlow({
     identified: c.identified,
     duplicatesRemoved: c.duplicatesRemoved,
-    screened: c.screened,
-    notYetScreened: c.awaitingScreening,
-    excludedByReason: c.excluded.byReason,
-    reasonLabels: EXCLUSION_COUNT_LABELS,
-    included: c.included,
+    screeningStages: c.stages,
+    // each stage has its own box, so an exclusion without a reason needs no stage named
+    reasonLabels: { ...EXCLUSION_COUNT_LABELS, [NO_REASON]: 'No reason given' },
     coded,
     settled,
     outsideByStep,

@@ -13,7 +13,8 @@ import { findSnapshot, insertSnapshot, listSnapshots as snapshotRows, lockSnapsh
 import { requestFilters, synthesize } from './synthesis.js';
 import { prismaCounts } from './screening.js';
 import { flowIn, flowSvg } from './flow.js';
-import { EXCLUSION_COUNT_LABELS } from '../../shared/vocabulary/screening.js';
+import { EXCLUSION_COUNT_LABELS, NO_REASON } from '../../shared/vocabulary/screening.js';
+import type { StageCounts } from '../../shared/schemas/references.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import { METHOD_LABELS, type CreatedSnapshot, type SnapshotCitation, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
@@ -33,11 +34,24 @@ export async function prismaForMethods(db: Db): Promise<PrismaCounts | null> {
     const c = await prismaCounts(db);
     const coded = await codedReferenceCount(db);
     const settled = await settledReferenceCount(db);
-    const reasons = Object.entries(c.excluded.byReason)
-      .filter(([, n]) => n > 0)
-      .sort((a, b) => b[1] - a[1])
-      .map(([reason, count]) => ({ reason: EXCLUSION_COUNT_LABELS[reason] ?? reason, count }));
-    return { identified: c.identified.total, duplicatesRemoved: c.duplicatesRemoved.total, screened: c.screened, excluded: c.excluded.total, excludedReasons: reasons, included: c.included, notYetScreened: c.awaitingScreening, coded, settled };
+    const inWords = (byReason: Record<string, number>, noReason: string) =>
+      Object.entries(byReason)
+        .filter(([, n]) => n > 0)
+        .sort((a, b) => b[1] - a[1])
+        .map(([reason, count]) => ({ reason: reason === NO_REASON ? noReason : (EXCLUSION_COUNT_LABELS[reason] ?? reason), count }));
+    const stage = (s: StageCounts) => ({ decided: s.decided, excluded: s.excluded, excludedReasons: inWords(s.excludedByReason, 'no reason given'), waiting: s.waiting });
+    return {
+      identified: c.identified.total,
+      duplicatesRemoved: c.duplicatesRemoved.total,
+      screened: c.screened,
+      excluded: c.excluded.total,
+      excludedReasons: inWords(c.excluded.byReason, EXCLUSION_COUNT_LABELS[NO_REASON]),
+      included: c.included,
+      notYetScreened: c.awaitingScreening,
+      coded,
+      settled,
+      stages: { titleAbstract: stage(c.stages.title_abstract), fullText: stage(c.stages.full_text) },
+    };
   } catch {
     return null;
   }

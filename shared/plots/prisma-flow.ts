@@ -1,4 +1,4 @@
-import type { SynthesisFlow } from '../synthesis/flow.js';
+import type { FlowStage, FlowStageKey, SynthesisFlow } from '../synthesis/flow.js';
 import { referenceSourceLabel } from '../vocabulary/screening.js';
 import { PLOT_COLORS, UI_FONT } from './theme.js';
 
@@ -60,13 +60,14 @@ const lines = (items: Array<string | Line>, width: number): Line[] =>
   });
 
 function rows(flow: SynthesisFlow): Row[] {
-  const [screening, coding, reconciliation, synthesis] = flow.stages;
+  const stage = (key: FlowStageKey) => flow.stages.find((s) => s.stage === key);
+  const [coding, reconciliation, synthesis] = (['coding', 'reconciliation', 'synthesis'] as const).map((k) => stage(k)!);
   const sources = Object.entries(flow.identified.bySource)
     .filter(([, c]) => c > 0)
     .sort((a, b) => b[1] - a[1] || (a[0] < b[0] ? -1 : 1))
     .map(([s, c]) => ({ text: `${referenceSourceLabel(s)}: ${n(c)}`, indent: true }));
-  const reasonLines = (r: SynthesisFlow['stages'][number]) => r.excludedByReason.map((x) => ({ text: `${x.label}: ${n(x.count)}`, indent: true }));
-  const pending = (s: SynthesisFlow['stages'][number]) => ({ text: `${s.pendingLabel ? s.pendingLabel[0].toUpperCase() + s.pendingLabel.slice(1) : 'Waiting'} (n = ${n(s.pending)})`, bold: true });
+  const reasonLines = (r: FlowStage): Line[] => r.excludedByReason.map((x) => ({ text: `${x.label}: ${n(x.count)}`, indent: true }));
+  const pending = (s: FlowStage): Line => ({ text: `${s.pendingLabel ? s.pendingLabel[0].toUpperCase() + s.pendingLabel.slice(1) : 'Waiting'} (n = ${n(s.pending)})`, bold: true });
   const e = flow.entering;
   return [
     {
@@ -81,11 +82,7 @@ function rows(flow: SynthesisFlow): Row[] {
         SIDE_W,
       ),
     },
-    {
-      phase: 'Screening',
-      main: lines([{ text: `${screening.label} (n = ${n(screening.entered)})`, bold: true }], MAIN_W),
-      side: lines([{ text: `Records excluded (n = ${n(screening.excluded)})`, bold: true }, ...reasonLines(screening), pending(screening)], SIDE_W),
-    },
+    ...screeningRows(stage, reasonLines, pending),
     { phase: 'Screening', main: lines([{ text: `Reports included for coding (n = ${n(coding.entered)})`, bold: true }], MAIN_W), side: lines([pending(coding)], SIDE_W) },
     { phase: 'Screening', main: lines([{ text: `Reports coded twice and compared (n = ${n(reconciliation.entered)})`, bold: true }], MAIN_W), side: lines([pending(reconciliation)], SIDE_W) },
     {
@@ -105,6 +102,22 @@ function rows(flow: SynthesisFlow): Row[] {
       side: null,
     },
   ];
+}
+
+type StageOf = (key: FlowStageKey) => FlowStage | undefined;
+
+/** Title/abstract then full text, each with its exclusions by reason and what waits; a flow kept before the split has one screening box. */
+function screeningRows(stage: StageOf, reasonLines: (s: FlowStage) => Line[], pending: (s: FlowStage) => Line): Row[] {
+  const ta = stage('title_abstract');
+  const ft = stage('full_text');
+  const row = (s: FlowStage, main: string, excluded: string): Row => ({
+    phase: 'Screening',
+    main: lines([{ text: `${main} (n = ${n(s.entered)})`, bold: true }], MAIN_W),
+    side: lines([{ text: `${excluded} (n = ${n(s.excluded)})`, bold: true }, ...reasonLines(s), pending(s)], SIDE_W),
+  });
+  if (ta && ft) return [row(ta, 'Records screened on title and abstract', 'Records excluded'), row(ft, 'Reports assessed in full text', 'Reports excluded')];
+  const one = stage('screening');
+  return one ? [row(one, one.label, 'Records excluded')] : [];
 }
 
 function textBlock(x: number, y: number, ls: Line[]): string {

@@ -309,7 +309,7 @@ export const synthesisFlowSchema: z.ZodType<SynthesisFlow> = z.object({
   afterDuplicates: count,
   stages: z.array(
     z.object({
-      stage: z.enum(['screening', 'coding', 'reconciliation', 'synthesis']),
+      stage: z.enum(['title_abstract', 'full_text', 'screening', 'coding', 'reconciliation', 'synthesis']),
       label: z.string(),
       entered: count,
       passed: count,

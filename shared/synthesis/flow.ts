@@ -27,8 +27,11 @@ export interface FlowReason {
   count: number;
 }
 
+/** 'screening' (both screening stages in one) is how snapshots saved before the split keep their flow. */
+export type FlowStageKey = 'title_abstract' | 'full_text' | 'screening' | 'coding' | 'reconciliation' | 'synthesis';
+
 export interface FlowStage {
-  stage: 'screening' | 'coding' | 'reconciliation' | 'synthesis';
+  stage: FlowStageKey;
   label: string;
   /** references that reached this stage */
   entered: number;
@@ -45,11 +48,9 @@ export interface FlowStage {
 export interface SynthesisFlowCounts {
   identified: { total: number; bySource: Record<string, number> };
   duplicatesRemoved: { total: number; importDuplicates: number; merged: number };
-  screened: number;
-  notYetScreened: number;
-  excludedByReason: Record<string, number>;
+  /** each screening stage as the screening records count it: decided, waiting, included, excluded by reason */
+  screeningStages: Record<'title_abstract' | 'full_text', ScreeningStageCounts>;
   reasonLabels: Record<string, string>;
-  included: number;
   /** included references with a coding sheet past draft */
   coded: number;
   /** references with settled effects */
@@ -57,6 +58,14 @@ export interface SynthesisFlowCounts {
   /** settled references outside the filters, by filter step key (see filterAttribution) */
   outsideByStep: Record<string, number>;
   entering: { references: number; studies: number; effects: number };
+}
+
+export interface ScreeningStageCounts {
+  decided: number;
+  waiting: number;
+  included: number;
+  excluded: number;
+  excludedByReason: Record<string, number>;
 }
 
 export interface SynthesisFlow {
@@ -78,12 +87,16 @@ const nonNegative = (name: string, n: number) => {
   return n;
 };
 
-/** Arranges the counts into the four stages: screening, coding, reconciliation and this synthesis's filters. */
+/** Arranges the counts into the stages: title and abstract, full text, coding, reconciliation and this synthesis's filters. */
 export function synthesisFlow(c: SynthesisFlowCounts): SynthesisFlow {
-  for (const [k, v] of Object.entries({ screened: c.screened, notYetScreened: c.notYetScreened, included: c.included, coded: c.coded, settled: c.settled, ...c.entering }))
-    nonNegative(k, v);
-  const excludedAtScreening = c.screened - c.included;
-  const screenReasons = reasons(c.excludedByReason, (r) => c.reasonLabels[r] ?? r);
+  const { title_abstract: ta, full_text: ft } = c.screeningStages;
+  for (const [k, v] of Object.entries({ coded: c.coded, settled: c.settled, ...c.entering })) nonNegative(k, v);
+  for (const [stage, counts] of Object.entries(c.screeningStages))
+    for (const k of ['decided', 'waiting', 'included', 'excluded'] as const) nonNegative(`${stage}.${k}`, counts[k]);
+  if (ft.decided + ft.waiting !== ta.included)
+    throw new RangeError(`flow counts disagree: ${ta.included} passed title and abstract but ${ft.decided + ft.waiting} reached full text`);
+  const included = ft.included;
+  const label = (r: string) => c.reasonLabels[r] ?? r;
   const stepLabels: Record<string, string> = Object.fromEntries([...FLOW_FILTER_STEPS.map((s) => [s.key, s.label]), [NO_MANIPULATION_REASON.reason, NO_MANIPULATION_REASON.label]]);
   const filterReasons = reasons(c.outsideByStep, (r) => stepLabels[r] ?? r);
   const outside = c.settled - c.entering.references;
@@ -93,16 +106,26 @@ export function synthesisFlow(c: SynthesisFlowCounts): SynthesisFlow {
     afterDuplicates: c.identified.total - c.duplicatesRemoved.total,
     stages: [
       {
-        stage: 'screening',
+        stage: 'title_abstract',
         label: 'Titles and abstracts screened',
-        entered: c.screened + c.notYetScreened,
-        passed: c.included,
-        excluded: excludedAtScreening,
-        excludedByReason: screenReasons,
-        pending: c.notYetScreened,
+        entered: ta.decided + ta.waiting,
+        passed: ta.included,
+        excluded: ta.excluded,
+        excludedByReason: reasons(ta.excludedByReason, label),
+        pending: ta.waiting,
         pendingLabel: 'not yet screened',
       },
-      { stage: 'coding', label: 'Reports coded', entered: c.included, passed: c.coded, excluded: 0, excludedByReason: [], pending: c.included - c.coded, pendingLabel: 'not yet coded' },
+      {
+        stage: 'full_text',
+        label: 'Full texts assessed',
+        entered: ta.included,
+        passed: ft.included,
+        excluded: ft.excluded,
+        excludedByReason: reasons(ft.excludedByReason, label),
+        pending: ft.waiting,
+        pendingLabel: 'awaiting full-text screening',
+      },
+      { stage: 'coding', label: 'Reports coded', entered: included, passed: c.coded, excluded: 0, excludedByReason: [], pending: included - c.coded, pendingLabel: 'not yet coded' },
       { stage: 'reconciliation', label: 'Codings settled', entered: c.coded, passed: c.settled, excluded: 0, excludedByReason: [], pending: c.coded - c.settled, pendingLabel: 'not yet settled' },
       {
         stage: 'synthesis',

@@ -15,6 +15,30 @@ export interface PrismaCounts {
   notYetScreened?: number;
   coded?: number;
   settled?: number;
+  /** per screening stage (snapshots saved since the split): title and abstract, then full text */
+  stages?: { titleAbstract: PrismaStageCounts; fullText: PrismaStageCounts };
+}
+
+export interface PrismaStageCounts {
+  decided: number;
+  excluded: number;
+  /** exclusion reasons in words with counts, largest first */
+  excludedReasons: Array<{ reason: string; count: number }>;
+  waiting: number;
+}
+
+const reasonList = (rs: Array<{ reason: string; count: number }> | undefined) => (rs && rs.length ? ` (${rs.map((r) => `${r.reason}: ${r.count}`).join('; ')})` : '');
+
+/** The screening part of the study-flow sentence: per stage when the counts have stages, else over both. */
+function screeningClause(p: PrismaCounts): string {
+  if (p.stages) {
+    const { titleAbstract: ta, fullText: ft } = p.stages;
+    return (
+      `${ta.decided} records screened on title and abstract, ${ta.excluded} excluded${reasonList(ta.excludedReasons)}, ${ta.waiting} not yet screened; ` +
+      `${ft.decided} reports assessed in full text, ${ft.excluded} excluded${reasonList(ft.excludedReasons)}, ${ft.waiting} awaiting full-text screening;`
+    );
+  }
+  return `${p.screened} records screened, ${p.excluded} excluded${reasonList(p.excludedReasons)}${p.notYetScreened != null ? `, ${p.notYetScreened} not yet screened` : ''},`;
 }
 
 export interface MethodsInput {
@@ -125,9 +149,7 @@ export function methodsParagraph(m: MethodsInput): string {
   ].join('');
   const p = m.prisma;
   const prisma = p
-    ? ` Study flow (PRISMA 2020): ${p.identified} records identified in the registry, ${p.duplicatesRemoved} duplicates removed, ${p.screened} records screened, ${p.excluded} excluded${
-        p.excludedReasons && p.excludedReasons.length ? ` (${p.excludedReasons.map((r) => `${r.reason}: ${r.count}`).join('; ')})` : ''
-      }${p.notYetScreened != null ? `, ${p.notYetScreened} not yet screened` : ''}, ${p.included} included in the registry${
+    ? ` Study flow (PRISMA 2020): ${p.identified} records identified in the registry, ${p.duplicatesRemoved} duplicates removed, ${screeningClause(p)} ${p.included} included in the registry${
         p.coded != null && p.settled != null ? `, ${p.coded} coded and ${p.settled} with settled effects` : ''
       }; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
     : ` ${counts.references} references (${counts.studies} studies, ${counts.effects} effects) met this synthesis's filters; screening counts were not available.`;

@@ -93,9 +93,12 @@ describe('snapshots', () => {
     const coded = Number((await db('extractions').whereNot({ state: 'draft' }).countDistinct<{ n: string }[]>({ n: 'reference_id' }))[0].n);
     expect(coded).toBe(12);
     expect(methods.text).toMatch(
-      new RegExp(`12 records identified in the registry, 0 duplicates removed, 12 records screened, 0 excluded, ${unscreened} not yet screened, 12 included in the registry, ${coded} coded and 12 with settled effects; of these, 12 references`),
+      new RegExp(
+        `12 records identified in the registry, 0 duplicates removed, 12 records screened on title and abstract, 0 excluded, ${unscreened} not yet screened; ` +
+          `12 reports assessed in full text, 0 excluded, 0 awaiting full-text screening; 12 included in the registry, ${coded} coded and 12 with settled effects; of these, 12 references`,
+      ),
     );
-    expect(frozen.prisma).toMatchObject({ notYetScreened: unscreened, coded, settled: 12 });
+    expect(frozen.prisma).toMatchObject({ notYetScreened: unscreened, coded, settled: 12, stages: { titleAbstract: { decided: 12, waiting: unscreened }, fullText: { decided: 12, waiting: 0 } } });
     expect(methods.text).toMatch(/Chronometa \d+\.\d+\.\d+ on registry version \d+/);
   });
 

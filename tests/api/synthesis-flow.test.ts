@@ -22,6 +22,7 @@ describe('synthesis flow (PRISMA 2020 per synthesis) and its diagram', () => {
     await db('refs').insert([1, 2, 3, 4, 5].map((i) => plain(`Waiting paper ${i} on interval timing`, 'unscreened')));
     await db('refs').insert([1, 2].map((i) => plain(`Included paper ${i} on interval timing`, 'included')));
     const toExclude: Array<{ id: number }> = await db('refs').insert([1, 2, 3, 4].map((i) => plain(`Off-topic paper ${i}`, 'unscreened'))).returning('id');
+    const fullText: Array<{ id: number }> = await db('refs').insert([1, 2].map((i) => plain(`Full-text paper ${i} on interval timing`, 'awaiting_full_text'))).returning('id');
     const [kept] = await db('refs').where({ title: 'Waiting paper 1 on interval timing' }).select('id');
     await db('refs').insert({ ...plain('Waiting paper 1 on interval timing (copy)', 'unscreened'), merged_into: kept.id });
     reviewer = await signIn(t.app, 'reviewer');
@@ -30,6 +31,8 @@ describe('synthesis flow (PRISMA 2020 per synthesis) and its diagram', () => {
       const res = await curator.post(`/api/references/${r.id}/screening`).send({ decision: 'excluded', reason: i < 3 ? 'wrong_population' : 'not_time_perception', version: 1 });
       expect(res.status).toBe(201);
     }
+    const ftOut = await curator.post(`/api/references/${fullText[0].id}/screening`).send({ decision: 'excluded', stage: 'full_text', reason: 'no_usable_statistics', version: 1 });
+    expect(ftOut.status).toBe(201);
   });
   afterAll(() => t.close());
 
@@ -41,15 +44,23 @@ describe('synthesis flow (PRISMA 2020 per synthesis) and its diagram', () => {
     const all = n(await db('refs').count({ n: '*' }));
     const live = n(await db('refs').whereNull('merged_into').count({ n: '*' }));
     expect(flow.identified.total).toBe(all);
-    expect(flow.identified.bySource).toEqual({ manual: 18, bibtex: 12 });
+    expect(flow.identified.bySource).toEqual({ manual: 18, bibtex: 14 });
     expect(flow.duplicatesRemoved).toEqual({ total: 1, importDuplicates: 0, merged: 1 });
     expect(flow.afterDuplicates).toBe(live);
     const stage = Object.fromEntries(flow.stages.map((s: { stage: string }) => [s.stage, s]));
-    expect(stage.screening).toMatchObject({ entered: 29, passed: 20, excluded: 4, pending: 5, pendingLabel: 'not yet screened' });
-    expect(stage.screening.excludedByReason).toEqual([
+    // title and abstract: 5 waiting, 4 excluded, 22 passed (20 included, 2 sent to the full text); full text: 1 excluded, 1 waiting
+    expect(stage.screening).toBeUndefined();
+    expect(stage.title_abstract).toMatchObject({ entered: 31, passed: 22, excluded: 4, pending: 5, pendingLabel: 'not yet screened' });
+    expect(stage.title_abstract.excludedByReason).toEqual([
       { reason: 'wrong_population', label: 'Wrong population', count: 3 },
       { reason: 'not_time_perception', label: 'Not about time perception', count: 1 },
     ]);
+    expect(stage.full_text).toMatchObject({ entered: 22, passed: 20, excluded: 1, pending: 1, pendingLabel: 'awaiting full-text screening' });
+    expect(stage.full_text.excludedByReason).toEqual([{ reason: 'no_usable_statistics', label: 'No usable statistics', count: 1 }]);
+    // the same counts as the screening screen's, stage by stage
+    const counts = (await curator.get('/api/screening/counts')).body;
+    expect(stage.title_abstract.excluded).toBe(counts.stages.title_abstract.excluded);
+    expect(stage.full_text.passed).toBe(counts.stages.full_text.included);
     expect(stage.coding).toMatchObject({ entered: 20, passed: 18, pending: 2 });
     expect(stage.reconciliation).toMatchObject({ entered: 18, passed: 18, pending: 0 });
     expect(stage.synthesis).toMatchObject({ entered: 18, passed: 12, excluded: 6 });

@@ -48,6 +48,11 @@ export const specs: Spec[] = [
       assert.match(flow.text, /<svg [^>]*role="img"/);
       const entering = flow.text.match(/Entering this synthesis \(n = (\d+) references?\)/);
       assert.ok(entering, 'the diagram names what enters the synthesis');
+      // one box per screening stage, each with its exclusions and what still waits
+      assert.match(flow.text, /Records screened on title and abstract \(n = \d+\)/);
+      assert.match(flow.text, /Reports assessed in full text \(n = \d+\)/);
+      assert.match(flow.text, /Reports excluded \(n = \d+\)/);
+      assert.match(flow.text, /Awaiting full-text screening \(n = \d+\)/);
 
       await page.getByLabel('Snapshot title (optional)').fill('Luminance flow, browser check');
       await page.getByRole('button', { name: 'Save snapshot' }).click();
@@ -57,7 +62,7 @@ export const specs: Spec[] = [
       await page.goto(appUrl(href));
       const table = page.getByRole('table', { name: 'Flow of records into this synthesis' });
       await table.waitFor({ timeout: 40_000 });
-      for (const step of ['Records identified in the registry', 'Titles and abstracts screened', 'Not yet screened', 'Reports coded', 'Codings settled', 'Entering this synthesis'])
+      for (const step of ['Records identified in the registry', 'Titles and abstracts screened', 'Not yet screened', 'Full texts assessed', 'Awaiting full-text screening', 'Reports coded', 'Codings settled', 'Entering this synthesis'])
         await table.getByText(step, { exact: false }).first().waitFor();
       const lastRow = table.locator('tbody tr').last();
       assert.equal((await lastRow.locator('td.num').textContent())!.trim(), entering![1]);
