@@ -48,3 +48,14 @@ export const REPORTED_LABELS: Record<ReportedKey, string> = {
   events2: 'Group 2: count of the one response',
   nonevents2: 'Group 2: count of the other response',
 };
+
+/**
+ * A calculation message in the sheet's own field labels: every reported field the form uses, named by its key in
+ * the engine's message ("sd2 must be a positive finite number"), is said by its label ("SD 2 must be …").
+ */
+export function inSheetWords(message: string, fields: readonly ReportedKey[]): string {
+  const keys = [...fields].sort((a, b) => b.length - a.length);
+  if (!keys.length) return message;
+  const pattern = new RegExp(`(?<![\\w])(${keys.join('|')})(?![\\w])`, 'g');
+  return message.replace(pattern, (key) => `“${REPORTED_LABELS[key as ReportedKey]}”`);
+}

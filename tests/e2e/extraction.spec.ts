@@ -55,10 +55,16 @@ export const specs: Spec[] = [
       const again = page.getByRole('group', { name: 'Study 1, effect 1' }).getByTestId('computed-effect');
       await again.waitFor();
       assert.equal(await again.textContent(), expected.effect.toFixed(3));
-      // An impossible SD is flagged next to its field.
       const sd = page.getByRole('group', { name: 'Study 1, effect 1' }).getByLabel('SD 2', { exact: true });
       await sd.fill('-4');
-      await page.getByRole('group', { name: 'Study 1, effect 1' }).getByText(/sd2 must be a positive finite number/).first().waitFor();
+      // An impossible SD is flagged next to its field, said in the sheet's own label, never the engine's key.
+      const group = page.getByRole('group', { name: 'Study 1, effect 1' });
+      await group.getByText('“SD 2” must be a positive finite number').first().waitFor();
+      assert.doesNotMatch(await group.innerText(), /\bsd2\b/);
+      // a CI-based form without its interval says which values it needs, by their labels
+      await group.getByLabel('Reported as').selectOption('ratio_ci');
+      await group.getByText(/needs “Ratio \(e\.g\. perceived\/physical duration\)”, “CI lower”, “CI upper”/).first().waitFor();
+      assert.doesNotMatch(await group.innerText(), /\bci_lower\b/);
     },
   },
   {

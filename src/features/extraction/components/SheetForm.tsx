@@ -22,7 +22,7 @@ import { useSubmitExtraction } from '../api/submit-extraction';
 import type { ExtractionDetail, StoredStudy } from '../api/types';
 import { CsvImport } from './CsvImport';
 import { EffectResult } from './EffectResult';
-import { REPORTED_LABELS } from '../../../lib/reported-labels';
+import { inSheetWords, REPORTED_LABELS } from '../../../lib/reported-labels';
 
 export function toFormSheet(studies: StoredStudy[], notes: string): Sheet {
   return sheetDraftSchema.parse({
@@ -56,7 +56,9 @@ function EffectFields({ ctx, i, j, onRemove, terms }: { ctx: Ctx; i: number; j: 
   const e = parsed.success ? parsed.data : undefined;
   const s = studyDraftSchema.safeParse(study ?? {});
   // in the outcome kind's sign convention: reversed where a lower value means lengthening (the result says so)
-  const attempt = e?.form ? orientAttempt(tryComputeReported(e.form, e.reported as Reported, e.assumedR), e, s.success ? s.data.task : undefined) : null;
+  const computed = e?.form ? orientAttempt(tryComputeReported(e.form, e.reported as Reported, e.assumedR), e, s.success ? s.data.task : undefined) : null;
+  // the engine names fields by their keys (sd2); the sheet says its own labels (SD 2)
+  const attempt = computed && !computed.ok && computed.error && e?.form ? { ...computed, error: inSheetWords(computed.error, REPORT_FIELDS[e.form]) } : computed;
   const warnings = e ? effectWarnings(e, s.success ? s.data : undefined, attempt?.ok ? attempt.result! : null) : [];
   const fields = e?.form ? REPORT_FIELDS[e.form] : [];
   const needsR = e?.form === 'smd_paired' || e?.form === 'log_ratio_paired';
