@@ -17,6 +17,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/search', label: 'Search' },
   { to: '/import', label: 'Import', role: 'contributor' },
   { to: '/screening', label: 'Screening', role: 'contributor' },
+  { to: '/screening/disagreements', label: 'Screen rule', role: 'curator' },
   { to: '/duplicates', label: 'Duplicates', role: 'curator' },
   { to: '/extractions', label: 'My coding', role: 'contributor' },
   { to: '/assignments', label: 'Assign', role: 'curator' },

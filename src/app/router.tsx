@@ -19,6 +19,7 @@ import { ReferencePage } from './routes/ReferencePage';
 import { ReferencesPage } from './routes/ReferencesPage';
 import { RouteErrorPage } from './routes/RouteErrorPage';
 import { PrismaFlowPage } from './routes/PrismaFlowPage';
+import { ScreeningDisagreementsPage } from './routes/ScreeningDisagreementsPage';
 import { ScreeningPage } from './routes/ScreeningPage';
 import { SearchPage } from './routes/SearchPage';
 import { SnapshotsPage } from './routes/SnapshotsPage';
@@ -59,6 +60,7 @@ export function screens(qc: QueryClient): RouteObject[] {
     { path: 'references/:id', element: <ReferencePage />, loader: load.reference },
     { path: 'screening', element: <ScreeningPage />, loader: load.screening },
     { path: 'screening/counts', element: <PrismaFlowPage />, loader: load.prismaFlow },
+    { path: 'screening/disagreements', element: <ScreeningDisagreementsPage /> },
     { path: 'duplicates', element: <DuplicatesPage /> },
     { path: 'search', element: <SearchPage /> },
     { path: 'extractions', element: <MyExtractionsPage /> },

@@ -13,3 +13,13 @@ export async function decideByKeys(page: Page, letters: string, note?: string, h
   await page.keyboard.press('Enter');
   await chooser.waitFor({ state: 'detached' });
 }
+
+/** Marks the next `n` records from the cursor down (Space, ↓ …) and decides them together. */
+export async function batchByKeys(page: Page, n: number, letters: string, note?: string) {
+  for (let i = 0; i < n; i++) {
+    await page.keyboard.press('Space');
+    if (i < n - 1) await page.keyboard.press('ArrowDown');
+  }
+  await page.getByText(`· ${n} marked`).waitFor();
+  await decideByKeys(page, letters, note, `Decide the ${n} marked records`);
+}

@@ -2,7 +2,7 @@ import assert from 'node:assert/strict';
 import type { Page } from 'playwright-core';
 import type { Spec } from './run.js';
 import { appUrl, signInThroughPage } from './browser.js';
-import { decideByKeys } from './screening-keys.js';
+import { batchByKeys, decideByKeys } from './screening-keys.js';
 
 /** Imports `n` invented records as the signed-in person and answers the batch id. */
 async function importRecords(page: Page, n: number, tag: string): Promise<number> {
@@ -24,16 +24,6 @@ async function batchStatuses(page: Page, batch: number): Promise<Record<string, 
   const out: Record<string, number> = {};
   for (const r of ((await res.json()) as { items: { screeningStatus: string }[] }).items) out[r.screeningStatus] = (out[r.screeningStatus] ?? 0) + 1;
   return out;
-}
-
-/** Marks the next `n` records from the cursor down (Space, ↓ …) and decides them together. */
-async function batchByKeys(page: Page, n: number, letters: string, note?: string) {
-  for (let i = 0; i < n; i++) {
-    await page.keyboard.press('Space');
-    if (i < n - 1) await page.keyboard.press('ArrowDown');
-  }
-  await page.getByText(`· ${n} marked`).waitFor();
-  await decideByKeys(page, letters, note, `Decide the ${n} marked records`);
 }
 
 export const specs: Spec[] = [

@@ -1,5 +1,6 @@
 import { Link } from 'react-router-dom';
 import { PrismaCounts } from '../../features/screening/components/PrismaCounts';
+import { ScreenerAgreement } from '../../features/screening/components/ScreenerAgreement';
 
 /** The PRISMA 2020 flow numbers on a screen of their own, for anyone. */
 export function PrismaFlowPage() {
@@ -11,6 +12,8 @@ export function PrismaFlowPage() {
         reference’s latest decision counts; taken-back decisions do not).
       </p>
       <PrismaCounts />
+      <h2 className="mt-4">Agreement between screeners</h2>
+      <ScreenerAgreement />
       <p className="mt-3 text-sm">
         <Link to="/screening">← Back to screening</Link>
       </p>

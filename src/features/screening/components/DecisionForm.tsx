@@ -96,7 +96,8 @@ export function DecisionForm({
         </Button>
         {mutation.isSuccess && (
           <span className="ml-2">
-            ✓ Recorded{mutation.data.withdrawnRecords.length ? `; settled record ${mutation.data.withdrawnRecords.map((id) => `#${id}`).join(', ')} withdrawn` : ''}.
+            ✓ Recorded{mutation.data.withdrawnRecords.length ? `; settled record ${mutation.data.withdrawnRecords.map((id) => `#${id}`).join(', ')} withdrawn` : ''}
+            {mutation.data.dual && !mutation.data.dual.settled ? ' as your blind decision: the record is settled once two screeners’ decisions are in' : ''}.
           </span>
         )}
       </div>

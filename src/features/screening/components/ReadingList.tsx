@@ -11,11 +11,16 @@ import { DecisionChooser } from './DecisionChooser';
 import { RecordReader } from './RecordReader';
 
 const whyHere = (it: QueueItem) =>
-  it.why.kind === 'passed_title_abstract'
-    ? 'included on title and abstract'
-    : it.why.batch
-      ? `new in batch ${it.why.batch}`
-      : `new (${referenceSourceLabel(it.source).toLowerCase()})`;
+  it.why.kind === 'conflict'
+    ? '⚑ conflict: awaiting a curator’s settlement'
+    : it.why.kind === 'second_screener_needed'
+      ? '◐ second screener needed'
+      : it.why.kind === 'passed_title_abstract'
+        ? 'included on title and abstract'
+        : it.why.batch
+          ? `new in batch ${it.why.batch}`
+          : `new (${referenceSourceLabel(it.source).toLowerCase()})`;
+const isConflict = (it: QueueItem) => it.why.kind === 'conflict';
 
 /** Keys the list answers when nothing that takes typing has the focus. */
 const typingIn = (el: EventTarget | null) => el instanceof HTMLElement && (el.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(el.tagName));
@@ -44,12 +49,12 @@ export function ReadingList({ stage, batch, terms }: { stage: ScreeningStage; ba
   const items = data?.items ?? [];
   const at = Math.max(0, items.findIndex((i) => i.id === cursorId));
   const current = items[at] as QueueItem | undefined;
-  const markedItems = items.filter((i) => marked.has(i.id));
+  const markedItems = items.filter((i) => marked.has(i.id) && !isConflict(i));
 
   const moveTo = (i: number) => items[i] && setCursorId(items[i].id);
-  const toggle = (id: number) => setMarked((m) => (m.has(id) ? new Set([...m].filter((x) => x !== id)) : new Set([...m, id])));
+  const toggle = (id: number) => !items.find((i) => i.id === id && isConflict(i)) && setMarked((m) => (m.has(id) ? new Set([...m].filter((x) => x !== id)) : new Set([...m, id])));
   const openChooser = () => {
-    if (!current) return;
+    if (!current || (isConflict(current) && !markedItems.length)) return;
     decide.reset();
     setChooserFor(markedItems.length ? { ids: markedItems.map((i) => i.id), marked: true } : { ids: [current.id], marked: false });
   };
@@ -77,7 +82,12 @@ export function ReadingList({ stage, batch, terms }: { stage: ScreeningStage; ba
               : `✕ Excluded${choice.reason ? ` (${EXCLUSION_REASON_LABELS[choice.reason]})` : ''}`;
           const withdrawn = answer.results.flatMap((r) => r.withdrawnRecords);
           const also = withdrawn.length ? `; settled ${records(withdrawn)} withdrawn` : '';
-          setLast({ text: `${what}: ${targets.length === 1 ? targets[0].title : `${targets.length} records`}${also}`, items: answer.results.map((r) => ({ refId: r.refId, version: r.version })) });
+          const blind = answer.results.filter((r) => r.dual && !r.dual.settled).length;
+          const settled = answer.results.filter((r) => r.dual?.settled).length;
+          const dual = answer.results.some((r) => r.dual)
+            ? ` (your blind decision${blind ? `; ${blind} waiting for the other screener or a curator` : ''}${settled ? `; ${settled} settled, both screeners agreed` : ''})`
+            : '';
+          setLast({ text: `${what}: ${targets.length === 1 ? targets[0].title : `${targets.length} records`}${also}${dual}`, items: answer.results.map((r) => ({ refId: r.refId, version: r.version })) });
           setTold(null);
           setMarked(new Set());
           setCursorId(next?.id ?? null);
@@ -220,7 +230,12 @@ export function ReadingList({ stage, batch, terms }: { stage: ScreeningStage; ba
             })}
           </ul>
           <RecordReader item={current} terms={terms}>
-            {chooserFor ? (
+            {isConflict(current) && !chooserFor ? (
+              <div className="rounded border border-dashed border-caution p-3 text-sm" role="note">
+                ⚑ Both screeners have decided this record and disagree. It waits for a curator:{' '}
+                <Link to={`/screening/disagreements${stage === 'full_text' ? '?stage=full_text' : ''}`}>settle it in the disagreement queue</Link>.
+              </div>
+            ) : chooserFor ? (
               <DecisionChooser stage={stage} count={chooserFor.ids.length} marked={chooserFor.marked} pending={decide.isPending} error={decide.error} onSave={save} onClose={closeChooser} />
             ) : (
               <div className="rounded border border-dashed border-paper-edge p-3 text-sm">
