@@ -49,6 +49,7 @@ interface JoinedRow {
   unit: string | null;
   from_bound: boolean;
   approximate: boolean;
+  sign_reversed: boolean;
   metric: Metric;
   effect: number;
   variance: number;
@@ -97,6 +98,7 @@ function toRow(r: JoinedRow): SettledEffectRow {
     n: r.n_total ?? null,
     fromBound: r.from_bound,
     approximate: r.approximate,
+    signReversed: r.sign_reversed,
     design: r.design ?? null,
     population: r.population ?? null,
     diagnosis: r.diagnosis ?? null,
@@ -112,7 +114,7 @@ function toRow(r: JoinedRow): SettledEffectRow {
 }
 
 const COLUMNS = [
-  'f.id', 'f.outcome', 'f.parameter', 'f.unit', 'f.from_bound', 'f.approximate', 'f.metric', 'f.effect', 'f.variance', 'f.formula', 'f.assumed_r', 'f.n_total', 'f.label', 'f.extraction_id',
+  'f.id', 'f.outcome', 'f.parameter', 'f.unit', 'f.from_bound', 'f.approximate', 'f.sign_reversed', 'f.metric', 'f.effect', 'f.variance', 'f.formula', 'f.assumed_r', 'f.n_total', 'f.label', 'f.extraction_id',
   'x.reference_id', 'x.record_version', 's.study_id', 's.label as study_label', 's.position as study_position', 's.design', 's.population',
   's.diagnosis', 's.modality', 's.task', 's.standard_ms', 'r.first_author', 'r.year', 'r.doi', 'r.title', 'm.term', 'm.label as manipulation_label',
 ];

@@ -18,7 +18,7 @@ import type { StageCounts } from '../../shared/schemas/references.js';
 import { pageOf } from '../../shared/schemas/common.js';
 import { effectsCsv, studiesCsv } from '../../shared/export/synthesis-csv.js';
 import { METHOD_LABELS, type CreatedSnapshot, type SnapshotCitation, type SnapshotPage, type SnapshotView, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
-import { methodsParagraph, type PrismaCounts } from '../../shared/synthesis/methods.js';
+import { methodsParagraph, pooledQuantityOf, type PrismaCounts } from '../../shared/synthesis/methods.js';
 import { metricLabel } from '../../shared/synthesis/run.js';
 import { labelOf } from '../../shared/vocabulary/labels.js';
 import type { SynthesisOutput } from '../../shared/synthesis/types.js';
@@ -116,7 +116,10 @@ async function saveSnapshot(db: Knex, actorId: number, request: SynthesisRequest
       const refs = await refsForCitation(trx, refIds);
       const prisma = await prismaForMethods(trx);
       const flow = await flowIn(trx, request);
-      const methods = methodsParagraph({ request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma, notRun: output.unavailable.map((u) => u.analysis) });
+      const methods = methodsParagraph({
+        request, metricLabel: metricLabel(output.metric), counts: output.counts, software: SOFTWARE, registryVersion, prisma, notRun: output.unavailable.map((u) => u.analysis),
+        quantity: pooledQuantityOf(effects),
+      });
       const id = newId();
       await insertSnapshot(trx, {
         id,

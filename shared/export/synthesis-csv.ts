@@ -66,6 +66,10 @@ export function effectsCsv(effects: readonly SettledEffectRow[]): string {
     effect: e.effect,
     variance: e.variance,
     formula: e.formula,
+    // how the effect was computed: reversed to keep the outcome kind's sign convention, from a p bound, from medians
+    sign_reversed: e.signReversed ?? '',
+    from_bound: e.fromBound ?? '',
+    approximate: e.approximate ?? '',
     label: e.label,
   }));
   return toCsv(rows);

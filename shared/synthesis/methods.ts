@@ -1,5 +1,7 @@
 import { METHOD_LABELS, ONE_PER_STUDY_LABELS, SENSITIVITY_RS, type Dependence, type SynthesisRequest } from '../schemas/synthesis.js';
 import { labelOf } from '../vocabulary/labels.js';
+import { OUTCOMES, type OutcomeKind } from '../vocabulary/outcomes.js';
+import { SIGN_CONVENTIONS, effectQuantity, quantityLabel, type Parameter, type Unit } from '../vocabulary/parameters.js';
 import { i2Definition } from './analyses.js';
 
 export interface PrismaCounts {
@@ -50,6 +52,48 @@ export interface MethodsInput {
   prisma: PrismaCounts | null;
   /** analyses that were not run (SynthesisOutput.unavailable), left out of the prose */
   notRun?: string[];
+  /** what the pooled effects measured and how many had their sign reversed (pooledQuantityOf); absent: not said */
+  quantity?: PooledQuantity | null;
+}
+
+const listed = (xs: string[]) => (xs.length > 1 ? `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}` : xs[0]);
+
+/** What a synthesis pooled: outcome kind, parameter and unit (one each, as a synthesis pools), and the reversed signs. */
+export interface PooledQuantity {
+  outcomes: string[];
+  /** quantity labels, e.g. "PSE (ms)" */
+  quantities: string[];
+  effects: number;
+  signReversed: number;
+}
+
+type QuantityOfEffect = { outcome: string; parameter?: string | null; unit?: string | null; signReversed?: boolean };
+
+/** The pooled quantity of the effects a synthesis ran on (an effect coded before parameters takes its outcome kind's usual one). */
+export function pooledQuantityOf(effects: readonly QuantityOfEffect[]): PooledQuantity {
+  const outcomes = new Set<string>();
+  const quantities = new Set<string>();
+  let signReversed = 0;
+  for (const e of effects) {
+    outcomes.add(e.outcome);
+    const q = effectQuantity({ outcome: e.outcome as OutcomeKind, parameter: (e.parameter ?? null) as Parameter | null, unit: (e.unit ?? null) as Unit | null });
+    if (q) quantities.add(quantityLabel(q.parameter, q.unit));
+    if (e.signReversed) signReversed += 1;
+  }
+  return { outcomes: [...outcomes], quantities: [...quantities], effects: effects.length, signReversed };
+}
+
+/** The sentence naming what was pooled, its unit, the sign convention and how many effects' signs were reversed. */
+export function quantitySentence(q: PooledQuantity | null | undefined): string {
+  if (!q || !q.outcomes.length) return '';
+  const kinds = q.outcomes.map((o) => OUTCOMES[o as OutcomeKind]?.label.toLowerCase() ?? o);
+  const conventions = q.outcomes.map((o) => SIGN_CONVENTIONS[o as OutcomeKind]).filter(Boolean);
+  const what = q.quantities.length ? ` was ${listed(q.quantities)}` : '';
+  const reversed =
+    q.signReversed === 0
+      ? ' No effect\'s sign was reversed.'
+      : `${q.effects === 1 ? ' The effect' : ` Of the ${q.effects} effects, ${q.signReversed}`} had ${q.signReversed === 1 ? 'its' : 'their'} sign reversed when coded, to keep this convention where a lower value meant lengthening in the study's task; the reported values were kept as reported.`;
+  return ` The pooled parameter (unit)${what}, for ${listed(kinds)}${conventions.length ? `; sign convention: ${conventions.join('; ')}` : ''}.${reversed}`;
 }
 
 const CITATION: Record<SynthesisRequest['method'], string> = {
@@ -103,8 +147,6 @@ export function flaggedSentence(q: Pick<SynthesisRequest, 'filters'>): string {
   return out.length ? ` Effects ${out.join(' and effects ')} were left out.` : '';
 }
 
-const listed = (xs: string[]) => (xs.length > 1 ? `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}` : xs[0]);
-
 /** A methods paragraph for a report, in plain prose with the citations the analysis rests on. */
 export function methodsParagraph(m: MethodsInput): string {
   const { request: q, counts } = m;
@@ -154,7 +196,7 @@ export function methodsParagraph(m: MethodsInput): string {
       }; of these, ${counts.references} ${counts.references === 1 ? 'reference' : 'references'} (${counts.studies} ${counts.studies === 1 ? 'study' : 'studies'}, ${counts.effects} ${counts.effects === 1 ? 'effect' : 'effects'}) met this synthesis's filters.`
     : ` ${counts.references} references (${counts.studies} studies, ${counts.effects} effects) met this synthesis's filters; screening counts were not available.`;
   const software = ` Computed with ${m.software.name} ${m.software.version}${m.registryVersion != null ? ` on registry version ${m.registryVersion}` : ''}.`;
-  const head = (multilevel ? multilevelModel(m, level) : model + hksj + hetero) + smdFamilySentence(q) + flaggedSentence(q);
+  const head = (multilevel ? multilevelModel(m, level) : model + hksj + hetero) + quantitySentence(m.quantity) + smdFamilySentence(q) + flaggedSentence(q);
   return head + ' ' + dependenceSentence(q.dependence, counts.references) + bias + extras + prisma + software;
 }
 
