@@ -73,10 +73,10 @@ export const specs: Spec[] = [
       assert.match((await effect(3).getByLabel('Parameter (what was measured)').locator('option').first().textContent()) ?? '', /usual: Odds of a response/);
       await page.getByTestId('save-state').getByText(/Saved at/).waitFor({ timeout: 20_000 });
 
-      // an interval not centred on the ratio on either scale is refused beside its field, in words
+      // an interval not centred on the ratio on either scale is refused beside its field, in words that name the field by its label
       await effect(1).getByLabel('CI upper', { exact: true }).fill('1.6');
       await effect(1).getByLabel('CI lower', { exact: true }).fill('1.1');
-      await effect(1).getByText(/the interval 1.1 to 1.6 is not centred on ratio 1.2 on either scale \(halves 0.087 and 0.288 on the log scale, 0.1 and 0.4 in ratio units\)/).first().waitFor();
+      await effect(1).getByText(/the interval 1.1 to 1.6 is not centred on “Ratio \(e.g. perceived\/physical duration\)” 1.2 on either scale \(halves 0.087 and 0.288 on the log scale, 0.1 and 0.4 in “Ratio \(e.g. perceived\/physical duration\)” units\)/).first().waitFor();
       assert.equal(await effect(1).getByTestId('computed-effect').count(), 0);
 
       // the two good effects were saved with their forms: after a reload they compute again
