@@ -6,6 +6,7 @@ import { JobQueue } from './adapters/jobs.js';
 import { createMailer } from './adapters/mail.js';
 import { createSearchIndex } from './adapters/search.js';
 import type { Deps } from './services/deps.js';
+import { searchWorkSettled } from './services/search.js';
 
 /** The composition root's object: configuration and every adapter, built once per process (or per test app). */
 export interface AppContext extends Deps {
@@ -34,8 +35,14 @@ export function createContext(env: Env): AppContext {
   };
 }
 
+/** Closing lets a running index rebuild end first (at most this long), so it never reads from a closed pool. */
+const SEARCH_WORK_WAIT_MS = 15_000;
+
 export async function closeContext(ctx: AppContext): Promise<void> {
   await ctx.jobs?.stop().catch(() => undefined);
+  let timer: NodeJS.Timeout | undefined;
+  await Promise.race([searchWorkSettled(ctx.search), new Promise<void>((r) => (timer = setTimeout(r, SEARCH_WORK_WAIT_MS)))]);
+  clearTimeout(timer);
   await ctx.sessionPool.end().catch(() => undefined);
   await ctx.db.destroy();
 }

@@ -51,6 +51,22 @@ export const REFERENCE_DOCUMENT_SCHEMA = 2;
 // This process's rebuild of an index, if one runs, and the references changed meanwhile (synced again after it).
 const rebuilds = new WeakMap<SearchIndex, Promise<void>>();
 const changedDuringRebuild = new WeakMap<SearchIndex, Set<number>>();
+// Background work this process started on an index (the check at start, rebuilds): closing waits for it.
+const backgroundWork = new WeakMap<SearchIndex, Set<Promise<unknown>>>();
+
+function trackWork<T>(search: SearchIndex, p: Promise<T>): Promise<T> {
+  let set = backgroundWork.get(search);
+  if (!set) backgroundWork.set(search, (set = new Set()));
+  set.add(p);
+  void p.finally(() => set.delete(p)).catch(() => undefined);
+  return p;
+}
+
+/** Resolves once no background work of this process on the index runs (so its database can be closed). */
+export async function searchWorkSettled(search: SearchIndex | null | undefined): Promise<void> {
+  if (!search) return;
+  for (let set = backgroundWork.get(search); set?.size; set = backgroundWork.get(search)) await Promise.allSettled([...set]);
+}
 
 /**
  * Brings the index in line with PostgreSQL for these references: live ones are (re)indexed, merged ones
@@ -144,18 +160,17 @@ export function rebuildInBackground(ctx: SearchDeps & { search: SearchIndex }): 
       rebuilds.delete(search);
     });
   rebuilds.set(search, p);
-  return p;
+  return trackWork(search, p);
 }
 
 /** At start: fills an index that does not hold the build the database expects (a fresh or restarted search server). */
 export async function ensureReferenceIndex(ctx: SearchDeps): Promise<void> {
   const search = ctx.search;
   if (!search) return;
-  try {
+  const check = async () => {
     if (!(await referenceIndexIsCurrent({ ...ctx, search }))) await rebuildInBackground({ ...ctx, search });
-  } catch (err) {
-    console.error('[search] could not check the index at start:', (err as Error).message);
-  }
+  };
+  await trackWork(search, check()).catch((err) => console.error('[search] could not check the index at start:', (err as Error).message));
 }
 
 const quote = (s: string) => `"${s.replace(/["\\]/g, '\\$&')}"`;
