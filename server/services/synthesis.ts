@@ -29,9 +29,9 @@ export function synthesize(effects: readonly SettledEffect[], request: Synthesis
   try {
     return runSynthesis(effects, request);
   } catch (err) {
-    if (err instanceof MixedOutcomesError) throw new UnprocessableError(err.message, { outcomes: err.outcomes, choices: err.choices });
-    if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics, choices: err.choices });
-    if (err instanceof MixedQuantitiesError) throw new UnprocessableError(err.message, { quantities: err.quantities, choices: err.choices });
+    if (err instanceof MixedOutcomesError) throw new UnprocessableError(err.message, { outcomes: err.outcomes, choices: err.choices, inWords: err.inWords });
+    if (err instanceof MixedMetricsError) throw new UnprocessableError(err.message, { metrics: err.metrics, choices: err.choices, inWords: err.inWords });
+    if (err instanceof MixedQuantitiesError) throw new UnprocessableError(err.message, { quantities: err.quantities, choices: err.choices, inWords: err.inWords });
     if (err instanceof NoEffectsError) throw new UnprocessableError(err.message, { effects: 0 });
     if (err instanceof MultilevelModelError) throw new UnprocessableError(err.message, { dependence: 'multilevel' });
     throw err;

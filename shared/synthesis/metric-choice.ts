@@ -46,13 +46,21 @@ export class MixedMetricsError extends Error {
   ) {
     const hasGz = metrics.some((m) => m.metric === 'g_z');
     const hasRaw = metrics.some((m) => isRawScoreSmd(m.metric));
+    const inWords =
+      `These effects use ${metrics.length} metrics (${metrics.map((m) => `${metricLabel(m.metric)}: ${m.count}`).join(', ')}); effects of different metrics are never pooled together.` +
+      (hasGz && hasRaw ? ' A g_z (standardized by the SD of the differences) is never pooled with a g_s, g_av or g_rm.' : '') +
+      ' Choose one to pool.';
     super(
       `These effects use ${metrics.length} metrics (${metrics.map((m) => `${m.metric}: ${m.count}`).join(', ')}); effects of different metrics are never pooled together.` +
         (hasGz && hasRaw ? ' g_z (standardized by the SD of the differences) is never pooled with g_s, g_av or g_rm.' : '') +
         (metrics.filter((m) => isRawScoreSmd(m.metric)).length > 1 ? ' g_s, g_av and g_rm pool together only when the request says "smdFamily": "raw_score".' : '') +
         ` Add a metric filter, e.g. "filters": { "metric": "${metrics[0].metric}" }, or take one of the choices.`,
     );
+    this.inWords = inWords;
   }
+
+  /** The refusal for a screen, which offers the choices as buttons: no request syntax. */
+  readonly inWords: string;
 }
 
 const plural = (n: number, one: string) => `${n} ${one}${n === 1 ? '' : 's'}`;
@@ -67,7 +75,11 @@ export class MixedQuantitiesError extends Error {
       `These effects measured ${quantities.length} different quantities (${quantities.map((q) => `${q.label}: ${q.count}`).join(', ')}); effects of different parameters or units are never pooled together.` +
         ` Add a parameter and unit filter, e.g. "filters": { "parameter": "${choices[0]?.request.filters.parameter ?? quantities[0].parameter}", "unit": "${choices[0]?.request.filters.unit ?? quantities[0].unit}" }, or take one of the choices.`,
     );
+    this.inWords = `These effects measured ${quantities.length} different quantities (${quantities.map((q) => `${q.label}: ${q.count}`).join(', ')}); effects of different parameters or units are never pooled together. Choose one to pool.`;
   }
+
+  /** The refusal for a screen, which offers the choices as buttons: no request syntax. */
+  readonly inWords: string;
 }
 
 const NOT_RECORDED = 'parameter and unit not recorded';
@@ -84,7 +96,11 @@ export class MixedOutcomesError extends Error {
       `These effects are of ${outcomes.length} outcome kinds (${outcomes.map((o) => `${o.label}: ${o.count}`).join(', ')}); a synthesis pools one outcome kind, parameter, unit and metric at a time.` +
         ` Add an outcome filter, e.g. "filters": { "outcome": "${outcomes[0].outcome}" }, or take one of the choices.`,
     );
+    this.inWords = `These effects are of ${outcomes.length} outcome kinds (${outcomes.map((o) => `${o.label}: ${o.count}`).join(', ')}); a synthesis pools one outcome kind, parameter, unit and metric at a time. Choose one to pool.`;
   }
+
+  /** The refusal for a screen, which offers the choices as buttons: no request syntax. */
+  readonly inWords: string;
 }
 
 /**

@@ -48,6 +48,11 @@ describe('metric keys g_s / g_av / g_rm / g_z', () => {
     const choices = res.body.error.details.choices as Array<{ label: string; effects: number; request: any }>;
     expect(choices.map((c) => c.request.filters.metric ?? c.request.smdFamily)).toEqual(['g_s', 'g_z', 'g_av', 'g_rm', 'raw_score']);
     expect(choices.at(-1)).toMatchObject({ effects: 15, request: { filters: { manipulation: 'luminance' }, smdFamily: 'raw_score' } });
+    // the screen's words name the metrics by their labels, with no request syntax
+    const inWords = res.body.error.details.inWords as string;
+    expect(inWords).toMatch(/Hedges' g_s \(independent groups\): 13/);
+    expect(inWords).toMatch(/never pooled with a g_s, g_av or g_rm/);
+    expect(inWords).not.toMatch(/["{}]|filters|smdFamily/);
     // every choice is a request that pools
     for (const c of choices) expect((await post(c.request)).status).toBe(200);
   });

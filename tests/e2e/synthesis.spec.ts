@@ -9,6 +9,26 @@ const forestSvg = 'figure[aria-label="Forest plot"] svg.main-svg';
 
 export const specs: Spec[] = [
   {
+    name: 'a synthesis over several metrics is not pooled: the refusal says why in words and offers each metric as a button that pools',
+    async run(page) {
+      await page.goto(appUrl('/synthesis'));
+      await page.getByLabel('Manipulation').selectOption(['luminance']);
+      await page.getByLabel('Outcome kind').selectOption('duration_distortion');
+      await page.getByRole('button', { name: 'Run synthesis' }).click();
+      const refusal = page.getByRole('alert').filter({ hasText: 'Not pooled' });
+      await refusal.waitFor({ timeout: 40_000 });
+      const text = (await refusal.textContent()) ?? '';
+      assert.match(text, /metrics \(Hedges' g_s \(independent groups\): \d+/);
+      assert.doesNotMatch(text, /["{}]|filters|smdFamily/, 'no request syntax on the screen');
+      const choices = page.getByRole('group', { name: 'Pool one quantity instead' });
+      assert.ok((await choices.getByRole('button').count()) >= 2);
+      await choices.getByRole('button', { name: /raw-score standardized/ }).click();
+      await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
+      assert.equal(await page.getByRole('alert').filter({ hasText: 'Not pooled' }).count(), 0);
+      assert.match(page.url(), /raw_score/, 'the address keeps the choice');
+    },
+  },
+  {
     name: 'a reviewer filters by one manipulation, sees the forest plot, saves a snapshot that opens signed out',
     async run(page) {
       await signInThroughPage(page, 'reviewer');

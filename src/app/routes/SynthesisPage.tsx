@@ -70,7 +70,8 @@ export function SynthesisPage() {
   }, [synthesis.error, setError]);
 
   const run = (request: SynthesisRequest) => setParams(encodeRequest(request));
-  const choices = synthesis.error instanceof ApiRequestError && synthesis.error.status === 422 ? (synthesis.error.details as { choices?: PoolingChoice[] } | undefined)?.choices : undefined;
+  const refusal = synthesis.error instanceof ApiRequestError && synthesis.error.status === 422 ? (synthesis.error.details as { choices?: PoolingChoice[]; inWords?: string } | undefined) : undefined;
+  const choices = refusal?.choices;
   const data = synthesis.error ? undefined : synthesis.data;
 
   return (
@@ -86,7 +87,7 @@ export function SynthesisPage() {
       {pooling && <Loading what="Pooling the settled effects" />}
       {synthesis.error && !refusedInput && (
         <div className="mt-3">
-          <ErrorNote error={synthesis.error} title={choices ? 'Not pooled' : 'Refused'} />
+          <ErrorNote error={choices && refusal?.inWords ? refusal.inWords : synthesis.error} title={choices ? 'Not pooled' : 'Refused'} />
           {choices && choices.length > 0 && (
             <div className="flex flex-wrap items-center gap-2 text-sm" role="group" aria-label="Pool one quantity instead">
               <span>Pool one quantity instead:</span>
