@@ -6,6 +6,7 @@ import compression from 'compression';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { AppContext } from './context.js';
+import type { Env } from './env.js';
 import { createPassport } from './auth/passport.js';
 import { bearerAuth, bearerToken } from './auth/api-tokens.js';
 import { originCheck } from './auth/origin-check.js';
@@ -72,7 +73,7 @@ export function buildApp(ctx: AppContext) {
   const sessionMiddleware = session({
     name: 'chronometa.sid',
     secret: env.SESSION_SECRET,
-    store: new PgStore({ pool: ctx.sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: env.NODE_ENV === 'test' ? false : 15 * 60 }),
+    store: new PgStore({ pool: ctx.sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: sessionPruneSeconds(env) }),
     resave: false,
     saveUninitialized: false,
     cookie: { httpOnly: true, sameSite: 'lax', secure: env.APP_ORIGIN.startsWith('https'), maxAge: 14 * 24 * 3600 * 1000 },
@@ -148,3 +149,9 @@ const apiRouters: MountRouter[] = [
   mailboxRouter,
   trialsRouter,
 ];
+
+/** Expired session rows are deleted this often (connect-pg-simple's pruning), or never (false). */
+export function sessionPruneSeconds(env: Pick<Env, 'NODE_ENV' | 'SESSION_PRUNE_SECONDS'>): number | false {
+  const seconds = env.SESSION_PRUNE_SECONDS ?? (env.NODE_ENV === 'test' ? 0 : 15 * 60);
+  return seconds > 0 ? seconds : false;
+}

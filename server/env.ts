@@ -34,6 +34,8 @@ const envSchema = z.object({
   UPLOAD_DIR: z.string().default('.data/uploads'),
   CLIENT_DIR: z.string().default('dist/client'),
   JOBS_ENABLED: z.enum(['true', 'false']).default('true'),
+  /** how often expired sessions are deleted, in seconds (0: never); unset, every 15 minutes, and never under test */
+  SESSION_PRUNE_SECONDS: z.coerce.number().int().min(0).optional(),
 });
 
 export type Env = z.infer<typeof envSchema> & { APP_ORIGIN: string; adminLogins: string[] };
