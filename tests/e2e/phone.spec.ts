@@ -109,7 +109,7 @@ export const specs: Spec[] = [
       await fitsThePhone(page, `/synthesis?manipulation=${term.term}&outcome=${term.outcomes[0]}`);
       await signOut(page);
       await signInThroughPage(page, 'admin');
-      for (const p of ['/admin/people', '/audit', '/admin/mail']) await fitsThePhone(page, p);
+      for (const p of ['/admin/people', '/audit', '/admin/mail', '/screening/disagreements']) await fitsThePhone(page, p);
     },
   },
   {

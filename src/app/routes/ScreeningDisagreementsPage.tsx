@@ -13,7 +13,7 @@ export function ScreeningDisagreementsPage() {
   return (
     <RequireRole role="curator">
       <h1>Screening rule and disagreements</h1>
-      <div className="grid gap-4 lg:grid-cols-2">
+      <div className="grid grid-cols-1 gap-4 lg:grid-cols-2">
         <section aria-labelledby="rule-h">
           <h2 id="rule-h">Rule</h2>
           <ScreeningRuleForm />
