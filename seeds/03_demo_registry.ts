@@ -14,7 +14,10 @@ let rand = mulberry32(20261201);
 // Between-study differences in true effect (labs, stimuli, samples), drawn from a stream of their own so
 // that every other seeded value stays as it was.
 let labRand = mulberry32(424242);
-const labShift = (width: number) => (labRand() - 0.5) * 2 * width;
+/** One lab's offset from the typical effect, in [-1, 1]: drawn once per paper, shared by its studies and effects. */
+const labDraw = () => (labRand() - 0.5) * 2;
+// Correlations between conditions of within-subject designs, from a stream of their own too.
+let withinRand = mulberry32(515151);
 const between = (lo: number, hi: number) => lo + (hi - lo) * rand();
 const int = (lo: number, hi: number) => Math.round(between(lo, hi));
 const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rand() * xs.length)];
@@ -38,9 +41,15 @@ interface Plan {
   title: string;
   modality: 'visual' | 'auditory' | 'tactile' | 'audiovisual';
   task: string;
-  /** typical effect: Hedges' g for duration distortion, ms otherwise */
+  /** typical effect: Hedges' g for duration distortion (log units for log ratios), ms otherwise */
   size: [number, number];
   logRatio?: boolean;
+  /**
+   * Papers reporting in a unit of their own (seeded after the others, from streams of their own): a percentage of
+   * over-reproduction (log ratio, unit percent; size in log units), or a bisection point shift in ms (size in ms),
+   * which is lower when the manipulation lengthens perceived duration, so the sheet reverses its sign.
+   */
+  special?: 'percent_reproduction' | 'bisection_point_ms';
 }
 
 const P = (manipulation: string, outcome: Outcome, title: string, modality: Plan['modality'], task: string, size: [number, number], logRatio = false): Plan => ({ manipulation, outcome, title, modality, task, size, logRatio });
@@ -90,21 +99,55 @@ const PLANS: Plan[] = [
   P('voluntary_action', 'duration_distortion', 'Self-initiated tones and reproduced intervals', 'auditory', 'reproduction', [-0.45, -0.1]),
 ];
 
+// Seeded after every other paper, so the papers above keep their numbers.
+const EXTRA_PLANS: Plan[] = [
+  { ...P('pitch', 'duration_distortion', 'Tone pitch and over-reproduction of intervals, in percent', 'auditory', 'reproduction', [0.03, 0.1]), special: 'percent_reproduction' },
+  { ...P('pitch', 'duration_distortion', 'High tones and reproduced duration as a percentage of the standard', 'auditory', 'reproduction', [0.03, 0.1]), special: 'percent_reproduction' },
+  { ...P('pitch', 'duration_distortion', 'Pitch height and the relative error of reproduced tones', 'auditory', 'reproduction', [0.03, 0.1]), special: 'percent_reproduction' },
+  { ...P('threat', 'duration_distortion', 'Threat of shock lowers the bisection point', 'visual', 'bisection', [15, 45]), special: 'bisection_point_ms' },
+  { ...P('threat', 'duration_distortion', 'Bisection points of sub-second intervals under anticipated threat', 'visual', 'bisection', [15, 45]), special: 'bisection_point_ms' },
+  { ...P('threat', 'duration_distortion', 'Fearful contexts move the temporal bisection point', 'auditory', 'bisection', [15, 45]), special: 'bisection_point_ms' },
+];
+
 type EffectIn = NonNullable<NonNullable<SheetInput['studies']>[number]['effects']>[number];
 
-/** Reported statistics in a form a paper of this kind would give, around the planned size. */
-function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: number | undefined, standardMs: number, label: string, page: string): EffectIn {
+/** What each outcome kind's demo effects measured, and in which unit (shared/vocabulary/parameters.ts). */
+const QUANTITY: Record<Outcome, { parameter: string; unit: string }> = {
+  duration_distortion: { parameter: 'duration_ratio', unit: 'ratio' },
+  simultaneity_window: { parameter: 'window_width', unit: 'ms' },
+  temporal_order: { parameter: 'pss', unit: 'ms' },
+  recalibration_shift: { parameter: 'recalibration_shift', unit: 'ms' },
+  postdiction_window: { parameter: 'window_width', unit: 'ms' },
+  positional_lag: { parameter: 'lag', unit: 'ms' },
+};
+
+/**
+ * Reported statistics in a form a paper of this kind would give, around the planned size moved by the paper's lab
+ * (`lab` in [-1, 1], one draw per paper, so the between-study variance comes from labs, not from single effects).
+ */
+function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: number | undefined, standardMs: number, label: string, page: string, lab: number): EffectIn {
   let target = between(plan.size[0], plan.size[1]);
-  const base = { label, outcome: plan.outcome, manipulation: plan.manipulation, page, locator: pick(['Table 1', 'Table 2', 'Figure 3', 'Figure 2B', 'Results, p. 2']), quote: '' };
+  const base = {
+    label, outcome: plan.outcome, manipulation: plan.manipulation, ...QUANTITY[plan.outcome], page, locator: pick(['Table 1', 'Table 2', 'Figure 3', 'Figure 2B', 'Results, p. 2']), quote: '',
+  };
+  if (plan.special === 'percent_reproduction') {
+    const lr = target + lab * 0.05;
+    return { ...base, parameter: 'duration_ratio', unit: 'percent', form: 'percent_change', reported: { percent: r1((Math.exp(lr) - 1) * 100), se: r1(between(1.5, 3.5)), n: n1 }, quote: 'Reproduced durations as a percentage of the standard, with the SE of the change.' };
+  }
+  if (plan.special === 'bisection_point_ms') {
+    const shift = target * (1 + 0.7 * lab);
+    return { ...base, parameter: 'bisection_point', unit: 'ms', form: 'mean_diff', reported: { mean_diff: -r1(shift), sd_diff: r1(target * between(0.6, 1)), n: n1 }, quote: 'The bisection point was lower under the manipulation (ms), with the SD of the paired differences.' };
+  }
   if (plan.outcome === 'duration_distortion') {
     if (plan.logRatio) {
+      target += lab * 0.05;
       if (rand() < 0.5) {
         const m2 = r1(standardMs * between(0.92, 1.05));
         return { ...base, form: 'log_ratio_paired', reported: { mean1: r1(m2 * Math.exp(target)), sd1: r1(m2 * between(0.12, 0.2)), mean2: m2, sd2: r1(m2 * between(0.12, 0.2)), n: n1, r: r2(between(0.5, 0.8)) }, quote: 'Reproduced durations are given as means and SDs per condition.' };
       }
       return { ...base, form: 'percent_change', reported: { percent: r1((Math.exp(target) - 1) * 100), se: r1(between(1.5, 3.5)), n: n1 }, quote: 'Durations were over-reproduced by a stated percentage.' };
     }
-    target += labShift(0.3);
+    target += lab * 0.45;
     if (design === 'between') {
       const sd = r1(standardMs * between(0.12, 0.25));
       const m2 = r1(standardMs * between(0.9, 1.05));
@@ -113,7 +156,8 @@ function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: nu
     const variant = rand();
     if (variant < 0.45) {
       const sdDiff = r1(standardMs * between(0.08, 0.18));
-      return { ...base, form: 'smd_paired', reported: { mean_diff: r1(target * sdDiff), sd_diff: sdDiff, n: n1 }, quote: 'Mean difference between conditions with the SD of the differences.' };
+      // with the correlation between conditions, so the effect is a raw-score g_rm (a paired t alone stays g_z)
+      return { ...base, form: 'smd_paired', reported: { mean_diff: r1(target * sdDiff), sd_diff: sdDiff, n: n1, r: r2(0.5 + 0.4 * withinRand()) }, quote: 'Mean difference between conditions with the SD of the differences and their correlation.' };
     }
     if (variant < 0.75) {
       return { ...base, form: 'smd_paired', reported: { t: r2(target * Math.sqrt(n1) * between(0.9, 1.1)), n: n1 }, quote: 'A paired t test compared the two conditions.' };
@@ -125,7 +169,8 @@ function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: nu
   if (plan.outcome === 'simultaneity_window' || plan.outcome === 'postdiction_window') {
     return { ...base, form: 'raw_mean', reported: { mean: Math.round(target), sd: Math.round(target * between(0.2, 0.4)), n: n1 }, quote: 'Window width from the fitted psychometric function (ms).' };
   }
-  // temporal order, recalibration, positional lag: mean differences in ms
+  // temporal order, recalibration, positional lag: mean differences in ms, a lab moving them by up to a third
+  target *= 1 + lab / 3;
   if (rand() < 0.6) {
     return { ...base, form: 'mean_diff', reported: { mean_diff: r1(target), sd_diff: r1(target * between(0.8, 1.6)), n: n1 }, quote: 'Shift of the point of subjective simultaneity (ms).' };
   }
@@ -134,18 +179,19 @@ function makeEffect(plan: Plan, design: 'within' | 'between', n1: number, n2: nu
 }
 
 function makeSheet(plan: Plan): SheetInput {
+  const lab = labDraw();
   const nStudies = pick([1, 2, 2, 3]);
   const studies: NonNullable<SheetInput['studies']> = [];
   for (let i = 0; i < nStudies; i++) {
-    const clinical = plan.outcome === 'duration_distortion' && !plan.logRatio && rand() < 0.18;
+    const clinical = plan.outcome === 'duration_distortion' && !plan.logRatio && !plan.special && rand() < 0.18;
     const older = !clinical && rand() < 0.12;
-    const design: 'within' | 'between' = clinical || older ? 'between' : 'within';
+    const design: 'within' | 'between' = (clinical || older) && !plan.special ? 'between' : 'within';
     const n1 = int(12, 36);
     const n2 = design === 'between' ? int(12, 30) : undefined;
     const standardMs = plan.outcome === 'duration_distortion' ? pick([300, 500, 600, 800, 1000, 1200]) : pick([0, 0, 200]) || undefined;
     const nEffects = pick([1, 2, 2]);
     const effects = Array.from({ length: nEffects }, (_, j) =>
-      makeEffect(plan, design, n1, n2, standardMs ?? 600, nEffects > 1 ? `${plan.manipulation.replace(/_/g, ' ')}, condition ${j + 1}` : plan.manipulation.replace(/_/g, ' '), String(int(100, 900))),
+      makeEffect(plan, design, n1, n2, standardMs ?? 600, nEffects > 1 ? `${plan.manipulation.replace(/_/g, ' ')}, condition ${j + 1}` : plan.manipulation.replace(/_/g, ' '), String(int(100, 900)), lab),
     );
     studies.push({
       label: `Experiment ${i + 1}`,
@@ -221,6 +267,7 @@ async function seedPair(knex: Knex, refId: number, a: SheetInput, b: SheetInput,
 export async function seed(knex: Knex): Promise<void> {
   rand = mulberry32(20261201);
   labRand = mulberry32(424242);
+  withinRand = mulberry32(515151);
   await ensureVocabulary(knex);
   const curator = await userId(knex, 'curator');
   const c1 = await userId(knex, 'coder1');
@@ -260,6 +307,29 @@ export async function seed(knex: Knex): Promise<void> {
       const partial: SheetInput = { notes: '', studies: [{ ...sheet.studies![0], effects: sheet.studies![0].effects!.slice(0, 1) }] };
       await seedPair(knex, ref.id, partial, { notes: '', studies: [] }, who, 'coding');
     }
+  }
+  // Papers in a unit of their own (percent; a bisection point in ms, its sign reversed), from streams of their own.
+  rand = mulberry32(20261207);
+  labRand = mulberry32(434343);
+  for (const [i, plan] of EXTRA_PLANS.entries()) {
+    const year = int(2008, 2025);
+    const surname = SURNAMES[(i * 5 + 11) % SURNAMES.length];
+    const coauthor = SURNAMES[(i * 3 + 20) % SURNAMES.length];
+    const sheet = makeSheet(plan);
+    const journal = pick(JOURNALS);
+    const given = pick(GIVEN);
+    const ref = await createReference(
+      knex,
+      {
+        type: 'article-journal', title: plan.title, DOI: `10.5555/chrono.demo.${year}.u${String(i + 1).padStart(2, '0')}`, 'container-title': journal, issued: { 'date-parts': [[year]] },
+        author: [{ family: surname, given }, { family: coauthor, given: pick(GIVEN) }], volume: String(int(3, 40)), page: `${int(1, 400)}-${int(401, 800)}`,
+      } as any,
+      { source: 'seed', createdBy: curator },
+    );
+    if (!ref.created) continue;
+    await includeThroughFullText(knex, ref.id, { id: curator, roles: ['curator'] });
+    if (i % 2 === 0) await knex.transaction((trx) => createSettledRecord(trx, { referenceId: ref.id, sheet, actorId: curator, kind: 'direct', rationale: 'Entered from the published tables by a curator.' }));
+    else await seedPair(knex, ref.id, sheet, perturb(sheet, 3), who, 'settled');
   }
   // Included papers nobody codes yet: contributors claim them from My coding, curators pair them.
   for (const [i, w] of WAITING.entries()) {

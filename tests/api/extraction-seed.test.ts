@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seed } from '../../seeds/03_demo_registry.js';
 import { countSettledEffects, querySettledEffects } from '../../server/repositories/effects.js';
 import { computeReported } from '../../shared/extraction/compute.js';
+import { atlasLanding } from '../../server/services/atlas.js';
 import { createTestApp, resetDb, type TestApp } from '../support/test-app.js';
 
 describe('demo registry seed', () => {
@@ -29,7 +30,8 @@ describe('demo registry seed', () => {
     const rows = await t.ctx.db('effects as f').join('extractions as x', 'x.id', 'f.extraction_id').where('x.kind', 'settled').select('f.*');
     for (const r of rows) {
       const c = computeReported(r.report_form, r.reported, r.assumed_r);
-      expect(r.effect).toBeCloseTo(c.effect, 10);
+      // a bisection point shift is reversed to keep duration distortion's sign convention (lower = longer)
+      expect(r.effect).toBeCloseTo(r.sign_reversed ? -c.effect : c.effect, 10);
       expect(r.variance).toBeCloseTo(c.variance, 10);
     }
     const g = await querySettledEffects(t.ctx.db, { metric: ['g_s', 'g_av', 'g_rm', 'g_z'], outcome: 'duration_distortion' });
@@ -37,6 +39,24 @@ describe('demo registry seed', () => {
     const windows = await querySettledEffects(t.ctx.db, { outcome: 'simultaneity_window' });
     expect(windows.every((r) => r.effect >= 150 && r.effect <= 450)).toBe(true);
     expect((await querySettledEffects(t.ctx.db, { manipulation: 'luminance', metric: ['g_s', 'g_av', 'g_rm', 'g_z'] })).length).toBeGreaterThanOrEqual(8);
+  });
+
+  it('draws heterogeneity per lab, records every parameter and unit, and has percent units and reversed signs', async () => {
+    const rows = await querySettledEffects(t.ctx.db);
+    expect(rows.every((r) => r.parameter && r.unit)).toBe(true);
+    const percent = rows.filter((r) => r.unit === 'percent');
+    expect(percent.length).toBeGreaterThanOrEqual(3);
+    expect(percent.every((r) => r.metric === 'log_ratio' && r.parameter === 'duration_ratio')).toBe(true);
+    const reversed = rows.filter((r) => r.signReversed);
+    expect(reversed.length).toBeGreaterThanOrEqual(3);
+    // a lower bisection point under threat means lengthening: stored positive
+    expect(reversed.every((r) => r.parameter === 'bisection_point' && r.task === 'bisection' && r.effect > 0)).toBe(true);
+    // within-subject effects with r are raw-score g_rm; a paired t alone stays g_z
+    expect(rows.some((r) => r.metric === 'g_rm') && rows.some((r) => r.metric === 'g_z')).toBe(true);
+    // between-lab differences: most pools of 3+ studies have a between-study variance (DerSimonian–Laird, as the atlas pools)
+    const cells = (await atlasLanding(t.ctx.db)).manipulations.flatMap((m) => m.estimates).filter((c) => c.counts.studies >= 3);
+    expect(cells.length).toBeGreaterThanOrEqual(8);
+    expect(cells.filter((c) => (c.pooled.tau2 ?? 0) > 0).length).toBeGreaterThan(cells.length / 2);
   });
 
   it('is idempotent: a second run adds nothing', async () => {
