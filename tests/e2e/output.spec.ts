@@ -36,6 +36,20 @@ export const specs: Spec[] = [
       assert.match(json.name, /^chronometa-synthesis-v\d+\.json$/);
       assert.equal(typeof JSON.parse(json.text).result.estimate, 'number');
       await page.locator(forestSvg).first().waitFor({ timeout: 40_000 });
+
+      // the figures as files: the forest plot as SVG (with its title) and as PNG
+      const forest = page.getByRole('figure', { name: 'Forest plot' });
+      const figureFile = async (format: 'SVG' | 'PNG') => {
+        const [file] = await Promise.all([page.waitForEvent('download', { timeout: 40_000 }), forest.getByRole('button', { name: `Download the forest plot as ${format}` }).click()]);
+        return { name: file.suggestedFilename(), bytes: await readFile((await file.path())!) };
+      };
+      const svg = await figureFile('SVG');
+      assert.match(svg.name, /^chronometa-synthesis-v\d+-forest\.svg$/);
+      assert.match(svg.bytes.toString('utf8'), /<svg[^>]*>[\s\S]*Forest plot/);
+      const png = await figureFile('PNG');
+      assert.match(png.name, /^chronometa-synthesis-v\d+-forest\.png$/);
+      assert.deepEqual([...png.bytes.subarray(0, 8)], [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a], 'a PNG file');
+      assert.ok(png.bytes.length > 5_000, `a drawn image, not an empty one (${png.bytes.length} bytes)`);
     },
   },
   {
