@@ -26,6 +26,9 @@ export const DOI_QUEUE = 'doi.resolve';
 export const DOI_RETRY = { retryLimit: 11, retryDelay: 2, retryBackoff: true } as const;
 export const RESOLVER_UNREACHABLE = 'resolver unreachable, will retry';
 const DOI_CHUNK = 10;
+/** An import answers its counts and the first page of its entry report; the rest is paged (GET ?entryPage=). */
+export const IMPORT_REPORT_PAGE = 100;
+const firstReportPage = { page: 1, pageSize: IMPORT_REPORT_PAGE };
 const DOI_CONCURRENCY = 4;
 
 type EntryRow = ImportEntryRow;
@@ -142,7 +145,7 @@ export async function importText(
   });
   const created = await entryReferenceIds(ctx.db, batchId, 'imported');
   await syncReferences(ctx, created);
-  return getImport(ctx.db, batchId);
+  return getImport(ctx.db, batchId, firstReportPage);
 }
 
 /** A DOI list: a batch whose entries are resolved by background jobs; answers at once with the batch. */
@@ -185,7 +188,7 @@ export async function importDois(ctx: Pick<Deps, 'db' | 'search' | 'jobs' | 'doi
     };
     setImmediate(() => attempt(0));
   }
-  return getImport(ctx.db, batchId);
+  return getImport(ctx.db, batchId, firstReportPage);
 }
 
 /** The `doi.resolve` job handler: a look-up that found the resolver away fails the job, so pg-boss retries it. */

@@ -115,6 +115,18 @@ describe('imports', () => {
     expect(second.entries[0]).toMatchObject({ status: 'duplicate', referenceId: byIndex[1].referenceId });
   });
 
+  it('answers a large import with its counts and the first page of the entry report; the rest is paged', async () => {
+    const text = Array.from({ length: 250 }, (_, i) => bib(`paged${i}`, { title: `Paged report entry ${i} on empty intervals`, author: 'Pager, Ona', year: '2021' })).join('\n');
+    const res = await coder.post('/api/imports').send({ format: 'bibtex', text });
+    expect(res.status).toBe(201);
+    expect(res.body.batch.counts).toEqual({ imported: 250, duplicate: 0, rejected: 0, pending: 0 });
+    expect(res.body.entriesTotal).toBe(250);
+    expect(res.body.entries.map((e: { index: number }) => e.index)).toEqual(Array.from({ length: 100 }, (_, i) => i + 1));
+    const last = await coder.get(`/api/imports/${res.body.batch.id}?entryPage=3&entryPageSize=100`);
+    expect(last.status).toBe(200);
+    expect(last.body.entries.map((e: { index: number }) => e.index)).toEqual(Array.from({ length: 50 }, (_, i) => i + 201));
+  });
+
   it('the demo seed makes one batch with a rejected entry and a likely duplicate, and adds nothing when run again', async () => {
     await seedDemoReferences(t.ctx.db);
     const before = await t.ctx.db('refs').count({ n: '*' }).first();
