@@ -1,12 +1,10 @@
 import express, { type Router } from 'express';
 import session from 'express-session';
-import connectPgSimple from 'connect-pg-simple';
 import helmet from 'helmet';
 import compression from 'compression';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import type { AppContext } from './context.js';
-import type { Env } from './env.js';
 import { createPassport } from './auth/passport.js';
 import { bearerAuth, bearerToken } from './auth/api-tokens.js';
 import { originCheck } from './auth/origin-check.js';
@@ -69,11 +67,10 @@ export function buildApp(ctx: AppContext) {
   // A Bearer token is checked before any router (the early ones too), so a revoked token is refused everywhere.
   app.use(bearerAuth(ctx.db));
 
-  const PgStore = connectPgSimple(session);
   const sessionMiddleware = session({
     name: 'chronometa.sid',
     secret: env.SESSION_SECRET,
-    store: new PgStore({ pool: ctx.sessionPool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: sessionPruneSeconds(env) }),
+    store: ctx.sessionStore,
     resave: false,
     saveUninitialized: false,
     cookie: { httpOnly: true, sameSite: 'lax', secure: env.APP_ORIGIN.startsWith('https'), maxAge: 14 * 24 * 3600 * 1000 },
@@ -149,9 +146,3 @@ const apiRouters: MountRouter[] = [
   mailboxRouter,
   trialsRouter,
 ];
-
-/** Expired session rows are deleted this often (connect-pg-simple's pruning), or never (false). */
-export function sessionPruneSeconds(env: Pick<Env, 'NODE_ENV' | 'SESSION_PRUNE_SECONDS'>): number | false {
-  const seconds = env.SESSION_PRUNE_SECONDS ?? (env.NODE_ENV === 'test' ? 0 : 15 * 60);
-  return seconds > 0 ? seconds : false;
-}

@@ -1,5 +1,5 @@
-import { describe, expect, it } from 'vitest';
-import { sessionPruneSeconds } from '../../server/app.js';
+import { describe, expect, it, vi } from 'vitest';
+import { sessionPruneSeconds } from '../../server/context.js';
 import { createTestApp, resetDb, signIn } from '../support/test-app.js';
 
 describe('expired sessions are pruned', () => {
@@ -15,6 +15,19 @@ describe('expired sessions are pruned', () => {
       expect((await agent.get('/api/me')).status).toBe(200);
     } finally {
       await t.close();
+    }
+  });
+
+  it('stops pruning when the app closes, so no prune runs on the closed pool', async () => {
+    const t = await createTestApp({ env: { SESSION_PRUNE_SECONDS: '1' } });
+    await signIn(t.app, 'coder1'); // starts the prune timer
+    const errors = vi.spyOn(console, 'error');
+    try {
+      await t.close();
+      await new Promise((r) => setTimeout(r, 2_500)); // more than two prune intervals
+      expect(errors.mock.calls.map((c) => c.map(String).join(' ')).filter((line) => /prune/i.test(line))).toEqual([]);
+    } finally {
+      errors.mockRestore();
     }
   });
 
