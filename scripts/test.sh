@@ -69,7 +69,8 @@ if [ $# -eq 0 ]; then
   npm run --silent db:migrate && npm run --silent db:seed || e2e_rc=1
   node_modules/.bin/vite build --logLevel error --outDir "$CLIENT_DIR" || e2e_rc=1
   # Each stand-in in its own process, as under npm start: one failing does not take the others down.
-  # A spec may stop one and start it again (tests/e2e/stand-ins.ts): each one's pid is kept in STAND_IN_DIR.
+  # A spec may stop one and start it again (tests/e2e/stand-ins.ts): each one writes its own pid to STAND_IN_DIR
+  # once listening (the launcher's pid until then).
   export STAND_IN_DIR="$RESULTS_DIR/stand-ins"
   mkdir -p "$STAND_IN_DIR"
   for fake in oauth search doi mail; do

@@ -1,5 +1,7 @@
 // Starts every local stand-in for a hosted service on loopback, on the ports given by the environment.
 import type { Server } from 'node:http';
+import { writeFileSync } from 'node:fs';
+import path from 'node:path';
 import { startOAuthProvider } from './oauth-provider.js';
 import { startSearchIndex } from './search-index/http.js';
 import { startDoiResolver } from './doi-resolver.js';
@@ -30,7 +32,8 @@ export const FAKE_NAMES = ['oauth', 'search', 'doi', 'mail'] as const;
 export type FakeName = (typeof FAKE_NAMES)[number];
 
 type Closer = () => Promise<void>;
-const closeServer = (server: Server): Closer => () => new Promise<void>((r) => server.close(() => r()));
+// Open keep-alive connections (a browser's, the app's) would keep a stopped stand-in answering: drop them too.
+const closeServer = (server: Server): Closer => () => new Promise<void>((r) => (server.close(() => r()), server.closeAllConnections()));
 
 /** Starts one stand-in; returns what stops it. */
 async function startFake(name: FakeName, ports: FakePorts): Promise<Closer[]> {
@@ -40,9 +43,8 @@ async function startFake(name: FakeName, ports: FakePorts): Promise<Closer[]> {
     case 'search':
       return [closeServer(await startSearchIndex(ports.meili))];
     case 'doi': {
-      const resolver = await startDoiResolver(ports.doi);
-      // The resolver holds deliberately slow requests open: drop them on stop.
-      return [() => new Promise<void>((r) => (resolver.close(() => r()), resolver.closeAllConnections()))];
+      // The resolver holds deliberately slow requests open: closeServer drops them.
+      return [closeServer(await startDoiResolver(ports.doi))];
     }
     case 'mail': {
       const mail = await startFakeSmtp(ports.smtp, ports.mailbox);
@@ -81,6 +83,8 @@ if (import.meta.url === `file://${process.argv[1]}`) {
     mail: `SMTP ${ports.smtp}, mailbox ${ports.mailbox}`,
   };
   console.log(`Local stand-in on 127.0.0.1: ${names.map((n) => where[n]).join(', ')}`);
+  // Under the browser tests each stand-in says its own pid (not its launcher's), so a spec can stop exactly it.
+  if (process.env.STAND_IN_DIR && names.length === 1) writeFileSync(path.join(process.env.STAND_IN_DIR, `${names[0]}.pid`), String(process.pid));
   const stop = () => fakes.stop().finally(() => process.exit(0));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);

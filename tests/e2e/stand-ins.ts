@@ -1,7 +1,7 @@
 // Stops and starts one local stand-in of the running browser-test instance (scripts/test.sh keeps each one's pid
 // in STAND_IN_DIR), so a spec can walk a path while that service is away.
 import { spawn } from 'node:child_process';
-import { openSync, readFileSync, writeFileSync } from 'node:fs';
+import { openSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import type { FakeName } from '../../server/fakes/run.js';
 
@@ -32,17 +32,29 @@ async function until(what: string, check: () => Promise<boolean>, timeoutMs = 15
   }
 }
 
-/** Stops the stand-in and waits until its port no longer answers. */
+const alive = (pid: number) => {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+};
+
+/** Stops the stand-in (the pid it wrote itself on start) and waits until its process has ended and its port is quiet. */
 export async function stopStandIn(name: FakeName): Promise<void> {
-  process.kill(Number(readFileSync(pidFile(name), 'utf8')), 'SIGTERM');
+  const pid = Number(readFileSync(pidFile(name), 'utf8'));
+  if (!alive(pid)) throw new Error(`the ${name} stand-in's pid file names process ${pid}, which is not running`);
+  process.kill(pid, 'SIGTERM');
+  await until(`the ${name} stand-in (process ${pid}) has ended`, async () => !alive(pid));
   await until(`the ${name} stand-in is away`, async () => !(await answers(HEALTH[name]())));
 }
 
-/** Starts the stand-in again in its own process (output to the run's fakes.log) and waits until it answers. */
+/** Starts the stand-in again in its own process (output to the run's fakes.log) and waits until it answers and has written its pid. */
 export async function startStandIn(name: FakeName): Promise<void> {
-  const log = openSync(path.join(path.dirname(process.env.STAND_IN_DIR!), 'fakes.log'), 'a');
+  const file = pidFile(name);
+  const log = openSync(path.join(path.dirname(file), '..', 'fakes.log'), 'a');
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/fakes/run.ts', name], { stdio: ['ignore', log, log], detached: true });
   child.unref();
-  writeFileSync(pidFile(name), String(child.pid));
-  await until(`the ${name} stand-in answers`, () => answers(HEALTH[name]()));
+  await until(`the ${name} stand-in answers`, async () => Number(readFileSync(file, 'utf8')) === child.pid && (await answers(HEALTH[name]())));
 }
