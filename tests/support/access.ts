@@ -53,7 +53,10 @@ export function describeAccess(title: string, cases: RouteCase[], setup?: (t: Te
       await t.close();
     });
 
-    const resolve = <T>(v: T | ((ids: SetupIds) => T)) => (typeof v === 'function' ? (v as (ids: SetupIds) => T)(ids) : v);
+    const resolveWith = <T>(v: T | ((ids: SetupIds) => T), with_: SetupIds) => (typeof v === 'function' ? (v as (ids: SetupIds) => T)(with_) : v);
+    const resolve = <T>(v: T | ((ids: SetupIds) => T)) => resolveWith(v, ids);
+    // every numeric id of the set-up swapped for one no record has
+    const missingIds = () => Object.fromEntries(Object.entries(ids).map(([key, v], i) => [key, typeof v === 'number' ? 2_000_000_000 + i : v]));
     const send = (client: ReturnType<typeof anonymous> | Agent, c: RouteCase, path: string, body: unknown) => {
       const req = client[c.method](path);
       return body === undefined ? req : req.send(body as object);
@@ -80,6 +83,20 @@ export function describeAccess(title: string, cases: RouteCase[], setup?: (t: Te
             expect(res.body.error.code).toBe('forbidden');
           }
           expect(res.status).toBeLessThan(500);
+        });
+      }
+      if (typeof c.path === 'function') {
+        // Existence must not leak: a refused caller gets the very same answer for a record that does not exist.
+        it(`${label}: refused callers get the same answer whether the record exists or not`, async () => {
+          const missingPath = resolveWith(c.path, missingIds());
+          if (missingPath === resolve(c.path)) return;
+          const refused = [null, ...Object.values(LOGIN_FOR_ROLE)].filter((login) => !permits(c.who, login));
+          for (const login of refused) {
+            const client = login === null ? anonymous(t.app) : agents[login];
+            const real = await send(client, c, resolve(c.path), resolve(c.body));
+            const missing = await send(client, c, missingPath, resolveWith(c.body, missingIds()));
+            expect({ who: login ?? 'signed out', status: missing.status, body: missing.body }).toEqual({ who: login ?? 'signed out', status: real.status, body: real.body });
+          }
         });
       }
       if (c.bad) {
