@@ -8,7 +8,8 @@
 //      time: p95 < 500 ms.
 //   2. GET /api/atlas/manipulations/:term/pooled: 2,000 req/s for 30 s with no errors (cached by registry version).
 //   3. POST /api/syntheses over ~200 effects, uncached: 300 req/s.
-// BENCH_PARTS=1c (a comma list of 1, 1c, 2, 3) runs only those parts.
+// BENCH_PARTS=1c (a comma list of 1, 1c, 2, 3) runs only those parts; BENCH_PROFILE_DIR keeps the server's CPU
+// profile, BENCH_VERBOSE prints every request's time.
 import { spawn } from 'node:child_process';
 import autocannon from 'autocannon';
 import { createDb } from '../../server/db/knex.js';
@@ -39,7 +40,9 @@ try {
   await db.raw('ANALYZE'); // fresh statistics after the bulk load, as autovacuum would give a live database
   console.log(`synthetic rows: ${large} effects (large), ${small} effects (small), made in ${((performance.now() - t) / 1000).toFixed(1)} s`);
 
-  server = spawn('node_modules/.bin/tsx', ['server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'pipe'] });
+  // BENCH_PROFILE_DIR=/some/dir writes the server's CPU profile there when the bench ends.
+  const profile = process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
+  server = spawn(process.execPath, [...profile, '--import', 'tsx', 'server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'pipe'] });
   let serverErr = '';
   server.stderr!.on('data', (d) => (serverErr += String(d)));
   server.on('exit', (code) => {
@@ -68,6 +71,7 @@ try {
       }
       studies = json.result!.k;
     }
+    if (process.env.BENCH_VERBOSE) console.log(`    times (ms): ${times.map((x) => x.toFixed(0)).join(' ')}`);
     return { p50: percentile(times, 50), p95: percentile(times, 95), n: times.length, studies, hits };
   };
   if (parts.has('1')) {
