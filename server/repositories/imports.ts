@@ -3,7 +3,10 @@ import { countRows, pageOf, type Db, type PageRequest } from './db.js';
 import type { EntryStatus, ImportBatchRow, ImportEntryRow } from './rows.js';
 
 export type EntryCounts = Record<EntryStatus, number>;
-export type BatchWithLogin = ImportBatchRow & { login: string | null };
+export type BatchWithLogin = Omit<ImportBatchRow, 'source_text'> & { login: string | null };
+
+/** Every column but the stored text (up to 20 MB), which only the import job reads. */
+const BATCH_COLUMNS = ['id', 'format', 'label', 'state', 'total', 'created_by', 'created_at', 'finished_at', 'processed', 'failure'].map((c) => `import_batches.${c}`);
 
 export const emptyCounts = (): EntryCounts => ({ imported: 0, duplicate: 0, rejected: 0, pending: 0 });
 
@@ -13,7 +16,7 @@ export function countStatuses(rows: Array<Pick<ImportEntryRow, 'status'>>): Entr
   return c;
 }
 
-export async function insertBatch(db: Db, b: Pick<ImportBatchRow, 'format' | 'label' | 'total' | 'created_by'>): Promise<number> {
+export async function insertBatch(db: Db, b: Pick<ImportBatchRow, 'format' | 'label' | 'total' | 'created_by'> & Partial<Pick<ImportBatchRow, 'state' | 'source_text' | 'processed'>>): Promise<number> {
   const [row] = await db<ImportBatchRow>('import_batches').insert(b).returning('id');
   return row.id;
 }
@@ -33,7 +36,17 @@ export async function finishBatchIfDone(trx: Knex.Transaction, id: number): Prom
 }
 
 export async function findBatch(db: Db, id: number): Promise<BatchWithLogin | undefined> {
-  return db('import_batches').leftJoin('users', 'users.id', 'import_batches.created_by').where('import_batches.id', id).first('import_batches.*', 'users.login');
+  return db('import_batches').leftJoin('users', 'users.id', 'import_batches.created_by').where('import_batches.id', id).first(...BATCH_COLUMNS, 'users.login');
+}
+
+/** A job's batch with its stored text, locked for the job's first step. */
+export async function lockJobBatch(trx: Knex.Transaction, id: number): Promise<ImportBatchRow | undefined> {
+  return trx<ImportBatchRow>('import_batches').where({ id }).forUpdate().first();
+}
+
+export async function updateJobBatch(db: Db, id: number, update: Partial<Pick<ImportBatchRow, 'state' | 'total' | 'processed' | 'failure' | 'source_text'>> & { finished?: boolean }): Promise<void> {
+  const { finished, ...cols } = update;
+  await db('import_batches').where({ id }).update({ ...cols, ...(finished ? { finished_at: db.fn.now() } : {}) });
 }
 
 export async function insertEntries(db: Db, rows: ImportEntryRow[]): Promise<void> {
@@ -80,7 +93,7 @@ export async function listBatches(db: Db, q: PageRequest & { sort: 'created_at' 
   const rows: BatchWithLogin[] = await pageOf(
     db('import_batches')
       .leftJoin('users', 'users.id', 'import_batches.created_by')
-      .select('import_batches.*', 'users.login')
+      .select(...BATCH_COLUMNS, 'users.login')
       .orderBy(`import_batches.${q.sort}`, q.order)
       .orderBy('import_batches.id', 'desc'),
     q,

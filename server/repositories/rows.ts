@@ -78,11 +78,17 @@ export interface ImportBatchRow {
   id: number;
   format: 'bibtex' | 'ris' | 'doi';
   label: string | null;
-  state: 'running' | 'done';
+  state: 'queued' | 'running' | 'done' | 'failed';
   total: number;
   created_by: number | null;
   created_at: Timestamp;
   finished_at: Timestamp | null;
+  /** the submitted text of a batch imported by a job, until it is done */
+  source_text: string | null;
+  /** entries a job has read so far (null: not a job, see the entries) */
+  processed: number | null;
+  /** why a job failed, in words */
+  failure: string | null;
 }
 
 export type EntryStatus = 'pending' | 'imported' | 'duplicate' | 'rejected';

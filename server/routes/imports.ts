@@ -65,7 +65,11 @@ export function importsRouter(ctx: AppContext) {
       res.status(result.batch.state === 'done' ? 201 : 202).json(result);
       return;
     }
-    res.status(201).json(await importText(ctx, { format: input.format, text: input.text, label: input.label, userId }));
+    // a large text is queued as a job: 202 with the batch (queued) and where to read its progress
+    const result = await importText(ctx, { format: input.format, text: input.text, label: input.label, userId });
+    if (result.batch.state !== 'done') res.status(202).location(`/api/imports/${result.batch.id}`);
+    else res.status(201);
+    res.json(result);
   });
 
   router.get('/imports', requireRole('contributor'), async (req, res) => {

@@ -187,8 +187,25 @@ export function explainBibtexError(message: string, e: RawEntry): string {
   return `Entry ${e.index} is not well formed: ${what} (${key}line ${line}, column ${col})`;
 }
 
+/** A file cut into its raw entries (and BibTeX's @string definitions, handed to each). */
+export function splitEntries(format: 'bibtex' | 'ris', text: string): { strings: string; entries: RawEntry[] } {
+  return format === 'bibtex' ? splitBibtex(text) : { strings: '', entries: splitRis(text) };
+}
+
+/** About how many entries a text holds, without reading them (decides whether an import runs as a job). */
+export function countEntriesRoughly(format: 'bibtex' | 'ris', text: string): number {
+  const re = format === 'bibtex' ? /@(?!(?:string|comment|preamble)\s*[{(])[A-Za-z]+\s*[{(]/gi : /^TY {2}-/gm;
+  let n = 0;
+  while (re.exec(text)) n++;
+  return n;
+}
+
 export function parseEntries(format: 'bibtex' | 'ris', text: string): ParsedEntry[] {
-  const { strings, entries } = format === 'bibtex' ? splitBibtex(text) : { strings: '', entries: splitRis(text) };
+  const { strings, entries } = splitEntries(format, text);
+  return parseRawEntries(format, strings, entries);
+}
+
+export function parseRawEntries(format: 'bibtex' | 'ris', strings: string, entries: RawEntry[]): ParsedEntry[] {
   return entries.map((e): ParsedEntry => {
     const where = describeEntry(e, format);
     if (format === 'ris' && !/^TY {2}-/.test(e.text)) {

@@ -1,18 +1,18 @@
 import type { Knex } from 'knex';
 import { DoiLookupError } from '../adapters/citations.js';
 import { pageOf } from '../../shared/schemas/common.js';
-import { normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportPage, type ImportResult } from '../../shared/schemas/references.js';
+import { IMPORT_JOB_THRESHOLD, normaliseDoi, type ImportBatchView, type ImportEntryView, type ImportPage, type ImportResult } from '../../shared/schemas/references.js';
 import { NotFoundError, UnprocessableError } from '../lib/errors.js';
 import { recordAudit } from '../repositories/audit.js';
 import { iso, isoOrNull, type PageRequest } from '../repositories/db.js';
 import {
-  batchEntries, countStatuses, entryCounts, entryReferenceIds, finishBatchIfDone, findBatch, insertBatch, insertEntries, listBatches, markBatchDone, pendingSaying,
-  pendingEntries, settleEntry, type BatchWithLogin, type EntryCounts,
+  batchEntries, countStatuses, entryCounts, entryReferenceIds, finishBatchIfDone, findBatch, insertBatch, insertEntries, listBatches, lockJobBatch, markBatchDone,
+  pendingSaying, pendingEntries, settleEntry, updateJobBatch, type BatchWithLogin, type EntryCounts,
 } from '../repositories/imports.js';
 import { findRefByDoi, insertRefs, insertRefUnlessDoiTaken, liveRefsWithTitleKeys, refIdsByDoi } from '../repositories/refs.js';
 import type { EntryStatus, ImportEntryRow } from '../repositories/rows.js';
 import type { Deps, SearchDeps } from './deps.js';
-import { describeEntry, fieldLengthProblem, parseDoiList, parseEntries } from './import-parsing.js';
+import { countEntriesRoughly, describeEntry, fieldLengthProblem, parseDoiList, parseEntries, parseRawEntries, splitEntries, type ParsedEntry } from './import-parsing.js';
 import { authorKey, cleanCsl, refColumns, type Csl, type RefColumns } from './reference-fields.js';
 import { findDuplicate, offerDuplicate } from './references.js';
 import { syncReferences } from './search.js';
@@ -36,116 +36,243 @@ type EntryRow = ImportEntryRow;
 const clip = (s: string, n = 2000) => (s.length > n ? `${s.slice(0, n)}…` : s);
 const fingerprint = (c: Pick<RefColumns, 'title_key' | 'year' | 'first_author'>) => `${c.title_key}|${c.year ?? ''}|${authorKey(c.first_author)}`;
 
+/** Entries a job reads and inserts per transaction; it yields to other requests between chunks. */
+export const IMPORT_JOB_CHUNK = 250;
+export const IMPORT_JOB_QUEUE = 'import.text';
+
 /**
- * Imports a BibTeX or RIS text as one batch in one transaction. Each entry ends imported, duplicate (of which
- * reference) or rejected (with the entry, field and problem named); the good entries of a file with bad ones
- * still import, and a file imported twice creates nothing the second time.
+ * What earlier chunks of the same file created: later chunks treat them as earlier entries of this file, not as
+ * references found in the registry.
+ */
+interface FileSoFar {
+  ids: Set<number>;
+  byDoi: Map<string, number>;
+  byPrint: Map<string, Array<{ id: number; doi: string | null }>>;
+}
+const emptyFileSoFar = (): FileSoFar => ({ ids: new Set(), byDoi: new Map(), byPrint: new Map() });
+
+/**
+ * Imports a BibTeX or RIS text. Each entry ends imported, duplicate (of which reference) or rejected (with the
+ * entry, field and problem named); the good entries of a file with bad ones still import, and a file imported twice
+ * creates nothing the second time. A small text is one batch in one transaction (answered 201 with its report); a
+ * large one (IMPORT_JOB_THRESHOLD) is stored with a queued batch and read by a job (answered 202).
  */
 export async function importText(
-  ctx: SearchDeps,
+  ctx: SearchDeps & Partial<Pick<Deps, 'jobs'>>,
   input: { format: 'bibtex' | 'ris'; text: string; label?: string; userId: number | null },
 ): Promise<ImportResult> {
+  const rough = countEntriesRoughly(input.format, input.text);
+  if (rough >= IMPORT_JOB_THRESHOLD.entries || (rough > 0 && input.text.length >= IMPORT_JOB_THRESHOLD.chars)) return queueTextImport(ctx, input, rough);
   const parsed = parseEntries(input.format, input.text);
-  if (!parsed.length) {
-    const hint = input.format === 'bibtex' ? 'a BibTeX entry starts like @article{key, …}' : 'a RIS record starts with "TY  -" and ends with "ER  -"';
-    throw new UnprocessableError(`no entries found: the text holds no ${input.format === 'bibtex' ? 'BibTeX' : 'RIS'} entry (${hint})`, [{ path: 'body.text', message: 'no entries found' }]);
-  }
+  if (!parsed.length) throw noEntries(input.format);
   const batchId = await ctx.db.transaction(async (trx) => {
-    const batch = { id: await insertBatch(trx, { format: input.format, label: input.label ?? null, total: parsed.length, created_by: input.userId }) };
-    const good = parsed.filter((p) => p.ok);
-    const cols = new Map<number, { csl: Csl; cols: RefColumns }>();
-    for (const p of good) {
-      const csl = cleanCsl(p.csl);
-      cols.set(p.index, { csl, cols: refColumns(csl) });
-    }
-
-    // What already exists, looked up in bulk: by DOI (merged records point to their survivor) and by title key.
-    const dois = [...new Set([...cols.values()].map((c) => c.cols.doi).filter(Boolean))] as string[];
-    const byDoi = await refIdsByDoi(trx, dois);
-    const keys = [...new Set([...cols.values()].map((c) => c.cols.title_key))];
-    const byPrint = new Map<string, Array<{ id: number; doi: string | null }>>();
-    for (const r of await liveRefsWithTitleKeys(trx, keys)) {
-      const f = fingerprint(r);
-      if (!byPrint.has(f)) byPrint.set(f, []);
-      byPrint.get(f)!.push({ id: r.id, doi: r.doi });
-    }
-
-    // Decide every entry in file order; entries new to the registry get a slot filled after the insert.
-    type Decision =
-      | { kind: 'rejected'; message: string }
-      | { kind: 'duplicate'; of: number | { slot: number }; message: string }
-      | { kind: 'new'; slot: number; likely?: number | { slot: number } };
-    const newRows: Array<{ csl: Csl; cols: RefColumns }> = [];
-    const slotByDoi = new Map<string, number>();
-    const slotsByPrint = new Map<string, Array<{ slot: number; doi: string | null }>>();
-    const decisions = new Map<number, Decision>();
-    for (const p of parsed) {
-      if (!p.ok) {
-        decisions.set(p.index, { kind: 'rejected', message: p.message });
-        continue;
-      }
-      const { csl, cols: c } = cols.get(p.index)!;
-      const where = describeEntry(p, input.format);
-      if (c.doi && byDoi.has(c.doi)) {
-        decisions.set(p.index, { kind: 'duplicate', of: byDoi.get(c.doi)!, message: `${where}: duplicate of reference #${byDoi.get(c.doi)} (same DOI ${c.doi})` });
-        continue;
-      }
-      if (c.doi && slotByDoi.has(c.doi)) {
-        decisions.set(p.index, { kind: 'duplicate', of: { slot: slotByDoi.get(c.doi)! }, message: `${where}: same DOI ${c.doi} as an earlier entry of this file` });
-        continue;
-      }
-      const f = fingerprint(c);
-      const existing = byPrint.get(f) ?? [];
-      const earlier = slotsByPrint.get(f) ?? [];
-      if (!c.doi) {
-        const twin = existing.find((r) => !r.doi);
-        if (twin) {
-          decisions.set(p.index, { kind: 'duplicate', of: twin.id, message: `${where}: duplicate of reference #${twin.id} (same title, year and first author; neither has a DOI)` });
-          continue;
-        }
-        const twinSlot = earlier.find((r) => !r.doi);
-        if (twinSlot) {
-          decisions.set(p.index, { kind: 'duplicate', of: { slot: twinSlot.slot }, message: `${where}: same title, year and first author as an earlier entry of this file` });
-          continue;
-        }
-      }
-      const slot = newRows.length;
-      newRows.push({ csl, cols: c });
-      if (c.doi) slotByDoi.set(c.doi, slot);
-      if (!slotsByPrint.has(f)) slotsByPrint.set(f, []);
-      slotsByPrint.get(f)!.push({ slot, doi: c.doi });
-      const likely = existing[0]?.id ?? (earlier[0] ? { slot: earlier[0].slot } : undefined);
-      decisions.set(p.index, { kind: 'new', slot, likely });
-    }
-
-    const slotIds = await insertRefs(trx, newRows.map((r) => ({ csl: r.csl, cols: r.cols, source: input.format, createdBy: input.userId })));
-    const resolve = (v: number | { slot: number }) => (typeof v === 'number' ? v : slotIds[v.slot]);
-
-    const entryRows: EntryRow[] = parsed.map((p) => {
-      const d = decisions.get(p.index)!;
-      const base = { batch_id: batch.id, idx: p.index, entry_key: p.key ?? null, input: null as string | null, likely_duplicate_of: null as number | null };
-      if (d.kind === 'rejected') return { ...base, status: 'rejected', message: d.message, input: clip(p.text), reference_id: null };
-      if (d.kind === 'duplicate') return { ...base, status: 'duplicate', message: d.message, reference_id: resolve(d.of) };
-      const id = slotIds[d.slot];
-      const likely = d.likely === undefined ? null : resolve(d.likely);
-      return {
-        ...base,
-        status: 'imported',
-        reference_id: id,
-        likely_duplicate_of: likely,
-        message: likely ? `imported; looks like reference #${likely} (same title, year and first author) and is offered to curators as a likely duplicate` : null,
-      };
-    });
-    await insertEntries(trx, entryRows);
-    for (const e of entryRows) if (e.likely_duplicate_of && e.reference_id) await offerDuplicate(trx, e.likely_duplicate_of, e.reference_id, 'same title, year and first author');
-    await markBatchDone(trx, batch.id);
+    const batchId = await insertBatch(trx, { format: input.format, label: input.label ?? null, total: parsed.length, created_by: input.userId });
+    const entryRows = await importChunk(trx, { batchId, format: input.format, userId: input.userId }, parsed, emptyFileSoFar());
+    await markBatchDone(trx, batchId);
     const counts = countStatuses(entryRows);
-    await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: batch.id, details: { format: input.format, total: parsed.length, ...counts } });
-    return batch.id as number;
+    await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: batchId, details: { format: input.format, total: parsed.length, ...counts } });
+    return batchId;
   });
   const created = await entryReferenceIds(ctx.db, batchId, 'imported');
   await syncReferences(ctx, created);
   return getImport(ctx.db, batchId, firstReportPage);
+}
+
+function noEntries(format: 'bibtex' | 'ris') {
+  const hint = format === 'bibtex' ? 'a BibTeX entry starts like @article{key, …}' : 'a RIS record starts with "TY  -" and ends with "ER  -"';
+  return new UnprocessableError(`no entries found: the text holds no ${format === 'bibtex' ? 'BibTeX' : 'RIS'} entry (${hint})`, [{ path: 'body.text', message: 'no entries found' }]);
+}
+
+/** Stores a large text with a queued batch and sends the job (without a job queue, it runs here after answering). */
+async function queueTextImport(
+  ctx: SearchDeps & Partial<Pick<Deps, 'jobs'>>,
+  input: { format: 'bibtex' | 'ris'; text: string; label?: string; userId: number | null },
+  rough: number,
+): Promise<ImportResult> {
+  const batchId = await ctx.db.transaction(async (trx) => {
+    const id = await insertBatch(trx, { format: input.format, label: input.label ?? null, total: rough, created_by: input.userId, state: 'queued', source_text: input.text, processed: 0 });
+    await recordAudit(trx, { actorId: input.userId, action: 'import.create', entityType: 'import_batch', entityId: id, details: { format: input.format, total: rough, job: true } });
+    return id;
+  });
+  try {
+    if (ctx.jobs) await ctx.jobs.send(IMPORT_JOB_QUEUE, { batchId }, { retryLimit: 1, retryDelay: 5, expireInSeconds: 4 * 3600 });
+    else setImmediate(() => void runImportJob(ctx, batchId).catch((err) => console.error('[imports] import job failed:', (err as Error).message)));
+  } catch (err) {
+    await updateJobBatch(ctx.db, batchId, { state: 'failed', failure: `the import could not be queued: ${reasonOf(err)}`, source_text: null, finished: true });
+    throw err;
+  }
+  return { ...(await getImport(ctx.db, batchId, firstReportPage)), statusUrl: `/api/imports/${batchId}` };
+}
+
+/** A database error's own words, without the statement knex puts before them. */
+function reasonOf(err: unknown): string {
+  const m = err instanceof Error ? err.message : String(err);
+  const own = err && typeof err === 'object' && 'code' in err && m.includes(' - ') ? m.slice(m.lastIndexOf(' - ') + 3) : m;
+  return clip(own, 300);
+}
+
+const yieldToOthers = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/**
+ * The `import.text` job: reads the stored text IMPORT_JOB_CHUNK entries at a time, each chunk with its entries,
+ * references and the batch's progress in one transaction, yielding between chunks. On failure the batch says
+ * failed, why, and how far it got; the chunks before stay imported. A batch found running was cut off (the process
+ * ended): it is marked failed rather than read twice.
+ */
+export async function runImportJob(ctx: SearchDeps, batchId: number): Promise<void> {
+  const batch = await ctx.db.transaction(async (trx) => {
+    const b = await lockJobBatch(trx, batchId);
+    if (!b || b.state === 'done' || b.state === 'failed' || b.format === 'doi') return null;
+    if (b.state === 'running') {
+      const failure = `the import stopped after ${(b.processed ?? 0).toLocaleString('en')} of ${b.total.toLocaleString('en')} entries when its worker ended; the entries read before stay imported (import the file again: they will be reported as duplicates)`;
+      await updateJobBatch(trx, batchId, { state: 'failed', failure, source_text: null, finished: true });
+      return null;
+    }
+    await updateJobBatch(trx, batchId, { state: 'running' });
+    return b;
+  });
+  if (!batch) return;
+  const format = batch.format as 'bibtex' | 'ris';
+  let processed = 0;
+  let total = batch.total;
+  try {
+    const { strings, entries } = splitEntries(format, batch.source_text ?? '');
+    if (!entries.length) throw noEntries(format);
+    total = entries.length;
+    if (total !== batch.total) await updateJobBatch(ctx.db, batchId, { total });
+    const soFar = emptyFileSoFar();
+    for (let i = 0; i < entries.length; i += IMPORT_JOB_CHUNK) {
+      await yieldToOthers();
+      const raw = entries.slice(i, i + IMPORT_JOB_CHUNK);
+      const parsed = parseRawEntries(format, strings, raw);
+      await yieldToOthers();
+      const rows = await ctx.db.transaction(async (trx) => {
+        const rows = await importChunk(trx, { batchId, format, userId: batch.created_by }, parsed, soFar);
+        await updateJobBatch(trx, batchId, { processed: i + raw.length });
+        return rows;
+      });
+      processed = i + raw.length;
+      await syncReferences(ctx, rows.filter((r) => r.status === 'imported' && r.reference_id).map((r) => r.reference_id!));
+    }
+    await ctx.db.transaction(async (trx) => {
+      await updateJobBatch(trx, batchId, { state: 'done', processed, source_text: null, finished: true });
+      await recordAudit(trx, { actorId: batch.created_by, action: 'import.finish', entityType: 'import_batch', entityId: batchId, details: { format, total, ...(await entryCounts(trx, batchId)) } });
+    });
+  } catch (err) {
+    const failure = `the import stopped after ${processed.toLocaleString('en')} of ${total.toLocaleString('en')} entries: ${reasonOf(err)}; the entries read before stay imported`;
+    await ctx.db.transaction(async (trx) => {
+      await updateJobBatch(trx, batchId, { state: 'failed', failure, processed, source_text: null, finished: true });
+      await recordAudit(trx, { actorId: batch.created_by, action: 'import.fail', entityType: 'import_batch', entityId: batchId, details: { format, total, processed, failure } });
+    });
+    throw err;
+  }
+}
+
+/**
+ * Decides and writes one run of parsed entries of a batch: looks up what already exists in bulk (by DOI, merged
+ * records pointing to their survivor, and by title key), inserts the new references, their entries and the likely
+ * duplicates offered to curators. Entries of earlier chunks of the file (`soFar`, updated here) count as earlier
+ * entries of this file.
+ */
+async function importChunk(
+  trx: Knex.Transaction,
+  batch: { batchId: number; format: 'bibtex' | 'ris'; userId: number | null },
+  parsed: ParsedEntry[],
+  soFar: FileSoFar,
+): Promise<EntryRow[]> {
+  const good = parsed.filter((p) => p.ok);
+  const cols = new Map<number, { csl: Csl; cols: RefColumns }>();
+  for (const p of good) {
+    const csl = cleanCsl(p.csl);
+    cols.set(p.index, { csl, cols: refColumns(csl) });
+  }
+
+  const dois = [...new Set([...cols.values()].map((c) => c.cols.doi).filter(Boolean))] as string[];
+  const byDoi = await refIdsByDoi(trx, dois);
+  const keys = [...new Set([...cols.values()].map((c) => c.cols.title_key))];
+  const byPrint = new Map<string, Array<{ id: number; doi: string | null }>>();
+  for (const r of await liveRefsWithTitleKeys(trx, keys)) {
+    if (soFar.ids.has(r.id)) continue;
+    const f = fingerprint(r);
+    if (!byPrint.has(f)) byPrint.set(f, []);
+    byPrint.get(f)!.push({ id: r.id, doi: r.doi });
+  }
+
+  // Decide every entry in file order; entries new to the registry get a slot filled after the insert.
+  type Ref = number | { slot: number };
+  type Decision = { kind: 'rejected'; message: string } | { kind: 'duplicate'; of: Ref; message: string } | { kind: 'new'; slot: number; likely?: Ref };
+  const newRows: Array<{ csl: Csl; cols: RefColumns; print: string }> = [];
+  const slotByDoi = new Map<string, number>();
+  const slotsByPrint = new Map<string, Array<{ ref: Ref; doi: string | null }>>();
+  const decisions = new Map<number, Decision>();
+  for (const p of parsed) {
+    if (!p.ok) {
+      decisions.set(p.index, { kind: 'rejected', message: p.message });
+      continue;
+    }
+    const { csl, cols: c } = cols.get(p.index)!;
+    const where = describeEntry(p, batch.format);
+    const earlierDoi = c.doi ? (soFar.byDoi.get(c.doi) ?? (slotByDoi.has(c.doi) ? { slot: slotByDoi.get(c.doi)! } : undefined)) : undefined;
+    if (c.doi && earlierDoi === undefined && byDoi.has(c.doi)) {
+      decisions.set(p.index, { kind: 'duplicate', of: byDoi.get(c.doi)!, message: `${where}: duplicate of reference #${byDoi.get(c.doi)} (same DOI ${c.doi})` });
+      continue;
+    }
+    if (c.doi && earlierDoi !== undefined) {
+      decisions.set(p.index, { kind: 'duplicate', of: earlierDoi, message: `${where}: same DOI ${c.doi} as an earlier entry of this file` });
+      continue;
+    }
+    const f = fingerprint(c);
+    const existing = byPrint.get(f) ?? [];
+    const earlier = [...(soFar.byPrint.get(f) ?? []).map((r) => ({ ref: r.id as Ref, doi: r.doi })), ...(slotsByPrint.get(f) ?? [])];
+    if (!c.doi) {
+      const twin = existing.find((r) => !r.doi);
+      if (twin) {
+        decisions.set(p.index, { kind: 'duplicate', of: twin.id, message: `${where}: duplicate of reference #${twin.id} (same title, year and first author; neither has a DOI)` });
+        continue;
+      }
+      const twinEarlier = earlier.find((r) => !r.doi);
+      if (twinEarlier) {
+        decisions.set(p.index, { kind: 'duplicate', of: twinEarlier.ref, message: `${where}: same title, year and first author as an earlier entry of this file` });
+        continue;
+      }
+    }
+    const slot = newRows.length;
+    newRows.push({ csl, cols: c, print: f });
+    if (c.doi) slotByDoi.set(c.doi, slot);
+    if (!slotsByPrint.has(f)) slotsByPrint.set(f, []);
+    slotsByPrint.get(f)!.push({ ref: { slot }, doi: c.doi });
+    const likely = existing[0]?.id ?? earlier[0]?.ref;
+    decisions.set(p.index, { kind: 'new', slot, likely });
+  }
+
+  const slotIds = await insertRefs(trx, newRows.map((r) => ({ csl: r.csl, cols: r.cols, source: batch.format, createdBy: batch.userId })));
+  newRows.forEach((r, slot) => {
+    const id = slotIds[slot];
+    soFar.ids.add(id);
+    if (r.cols.doi) soFar.byDoi.set(r.cols.doi, id);
+    if (!soFar.byPrint.has(r.print)) soFar.byPrint.set(r.print, []);
+    soFar.byPrint.get(r.print)!.push({ id, doi: r.cols.doi });
+  });
+  const resolve = (v: Ref) => (typeof v === 'number' ? v : slotIds[v.slot]);
+
+  const entryRows: EntryRow[] = parsed.map((p) => {
+    const d = decisions.get(p.index)!;
+    const base = { batch_id: batch.batchId, idx: p.index, entry_key: p.key ?? null, input: null as string | null, likely_duplicate_of: null as number | null };
+    if (d.kind === 'rejected') return { ...base, status: 'rejected', message: d.message, input: clip(p.text), reference_id: null };
+    if (d.kind === 'duplicate') return { ...base, status: 'duplicate', message: d.message, reference_id: resolve(d.of) };
+    const id = slotIds[d.slot];
+    const likely = d.likely === undefined ? null : resolve(d.likely);
+    return {
+      ...base,
+      status: 'imported',
+      reference_id: id,
+      likely_duplicate_of: likely,
+      message: likely ? `imported; looks like reference #${likely} (same title, year and first author) and is offered to curators as a likely duplicate` : null,
+    };
+  });
+  await insertEntries(trx, entryRows);
+  for (const e of entryRows) if (e.likely_duplicate_of && e.reference_id) await offerDuplicate(trx, e.likely_duplicate_of, e.reference_id, 'same title, year and first author');
+  return entryRows;
 }
 
 /** A DOI list: a batch whose entries are resolved by background jobs; answers at once with the batch. */
@@ -276,7 +403,8 @@ function batchView(row: BatchWithLogin, counts: EntryCounts): ImportBatchView {
     label: row.label,
     state: row.state,
     total: row.total,
-    processed: row.total - counts.pending,
+    processed: row.processed ?? row.total - counts.pending,
+    failure: row.failure,
     counts,
     createdAt: iso(row.created_at),
     finishedAt: isoOrNull(row.finished_at),

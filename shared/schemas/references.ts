@@ -17,6 +17,9 @@ export const importRequestSchema = z.object({
 });
 export type ImportRequest = z.infer<typeof importRequestSchema>;
 
+/** From this many entries (a rough count) or characters, a BibTeX/RIS import runs as a job and answers 202 at once. */
+export const IMPORT_JOB_THRESHOLD = { entries: 2000, chars: 5_000_000 } as const;
+
 /** The longest a reference's fields may be, at edit and at import alike. */
 export const REFERENCE_LIMITS = { title: 1000, container: 500, abstract: 20_000, authors: 500, name: 200, doi: 300 } as const;
 
@@ -33,13 +36,24 @@ export const importEntryViewSchema = z.object({
 });
 export type ImportEntryView = z.infer<typeof importEntryViewSchema>;
 
+/**
+ * queued: a large BibTeX/RIS import waits for its job; running: the job reads it (or DOIs are looked up);
+ * done; failed: the job stopped (`failure` says why; what it had imported stays).
+ */
+export const IMPORT_STATES = ['queued', 'running', 'done', 'failed'] as const;
+export type ImportState = (typeof IMPORT_STATES)[number];
+
 export const importBatchViewSchema = z.object({
   id: z.number().int(),
   format: z.enum(IMPORT_FORMATS),
   label: z.string().nullable(),
-  state: z.enum(['running', 'done']),
+  state: z.enum(IMPORT_STATES),
+  /** Entries in the batch (for a queued import, as counted before reading). */
   total: z.number().int(),
+  /** Entries read or looked up so far. */
   processed: z.number().int(),
+  /** Why a job failed, in words (and how far it got); null otherwise. */
+  failure: z.string().nullable(),
   counts: z.object({ imported: z.number().int(), duplicate: z.number().int(), rejected: z.number().int(), pending: z.number().int() }),
   createdAt: timestamp,
   finishedAt: timestamp.nullable(),
@@ -55,6 +69,8 @@ export const importResultSchema = z.object({
   entriesTotal: z.number().int(),
   /** Pending DOI look-ups whose last attempt found the resolver unreachable (they are retried). */
   resolverUnreachable: z.number().int(),
+  /** On a 202 answer: where to read the batch's progress (GET). */
+  statusUrl: z.string().optional(),
 });
 export type ImportResult = z.infer<typeof importResultSchema>;
 export const importPageSchema = pageSchema(importBatchViewSchema);

@@ -4,7 +4,8 @@ import type { EntryStatus } from '../../../../shared/schemas/references';
 import { Caution, ErrorNote, Loading } from '../../../components/ui/Notice';
 import { Pager } from '../../../components/ui/Pager';
 import { useImportEntries } from '../api/get-import-entries';
-import { useImport } from '../api/get-import';
+import { batchAtWork, useImport } from '../api/get-import';
+import { useRefreshWhenFinished } from '../api/refresh-when-finished';
 
 const LOOK: Record<EntryStatus, { symbol: string; word: string; className: string }> = {
   imported: { symbol: '✓', word: 'Imported', className: '' },
@@ -29,6 +30,7 @@ export function BatchReport({ id }: { id: number }) {
   const processed = data?.batch.processed ?? 0;
   const unreachable = data?.resolverUnreachable ?? 0;
   const entries = useImportEntries(id, { page, status, processed, unreachable });
+  useRefreshWhenFinished(data?.batch.state);
   if (isLoading) return <Loading what="Loading the import report" />;
   if (error) return <ErrorNote error={error} />;
   if (!data) return null;
@@ -40,10 +42,14 @@ export function BatchReport({ id }: { id: number }) {
         Batch {batch.id} · {batch.format === 'doi' ? 'DOI list' : batch.format === 'ris' ? 'RIS' : 'BibTeX'}
         {batch.label ? ` · ${batch.label}` : ''} · {batch.createdAt.slice(0, 16).replace('T', ' ')} UTC{batch.createdBy ? ` · by @${batch.createdBy.login}` : ''}
       </p>
-      {batch.state === 'running' ? (
+      {batchAtWork(batch.state) ? (
         <div className="mb-3 max-w-xl">
           <p role="status" className="text-sm">
-            … Looking up DOIs: {batch.processed} of {batch.total} done ({pct}%).
+            {batch.state === 'queued'
+              ? `… Queued: ${batch.total} entries wait for the import to start. You may leave this page.`
+              : batch.format === 'doi'
+                ? `… Looking up DOIs: ${batch.processed} of ${batch.total} done (${pct}%).`
+                : `… Importing: ${batch.processed} of ${batch.total} entries read (${pct}%). You may leave this page.`}
           </p>
           <progress className="h-3 w-full" max={batch.total} value={batch.processed} aria-label="Import progress" />
           {unreachable > 0 && (
@@ -53,6 +59,10 @@ export function BatchReport({ id }: { id: number }) {
             </Caution>
           )}
         </div>
+      ) : batch.state === 'failed' ? (
+        <p role="status" className="mb-3 max-w-3xl text-sm font-semibold text-refusal">
+          ✕ Stopped: {batch.failure ?? 'the import failed'}.
+        </p>
       ) : (
         <p role="status" className="mb-3 text-sm font-semibold">
           ✓ Finished: {batch.total} entries read.
@@ -74,7 +84,7 @@ export function BatchReport({ id }: { id: number }) {
             ))}
         </tbody>
       </table>
-      {batch.counts.imported > 0 && batch.state === 'done' && (
+      {batch.counts.imported > 0 && (batch.state === 'done' || batch.state === 'failed') && (
         <p className="mb-3 text-sm">
           Next: <Link to={`/screening?batch=${batch.id}`}>screen the {batch.counts.imported} new references</Link> or{' '}
           <Link to={`/references?batch=${batch.id}`}>see them in the references table</Link>.
@@ -94,7 +104,7 @@ export function BatchReport({ id }: { id: number }) {
           <option value="imported">imported</option>
           <option value="duplicate">duplicates</option>
           <option value="rejected">rejected</option>
-          {batch.state === 'running' && <option value="pending">waiting</option>}
+          {batch.format === 'doi' && batch.state === 'running' && <option value="pending">waiting</option>}
         </select>
       </label>
       <ErrorNote error={entries.error} />

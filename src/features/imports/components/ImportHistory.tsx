@@ -44,7 +44,15 @@ export function ImportHistory() {
               <td className="num">{b.counts.imported}</td>
               <td className="num">{b.counts.duplicate}</td>
               <td className="num">{b.counts.rejected}</td>
-              <td>{b.state === 'running' ? `… ${b.processed} of ${b.total}` : '✓ done'}</td>
+              <td>
+                {b.state === 'queued'
+                  ? '… queued'
+                  : b.state === 'running'
+                    ? `… ${b.processed} of ${b.total}`
+                    : b.state === 'failed'
+                      ? `✕ failed after ${b.processed} of ${b.total}`
+                      : '✓ done'}
+              </td>
             </tr>
           ))}
         </tbody>
