@@ -2,7 +2,7 @@ import { Router, type Request } from 'express';
 import type { AppContext } from '../context.js';
 import { callerKey, chargeCaller, costs } from '../lib/caller-budget.js';
 import { parseInput } from '../lib/validate.js';
-import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, synthesisTableRequestSchema, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
+import { synthesisExportPathSchema, synthesisExportQuerySchema, synthesisRequestSchema, synthesisRowsQuerySchema, type SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import { liveSynthesisExport, synthesisFacets, synthesisSize, synthesisSizeGuess } from '../services/synthesis.js';
 import { RegistryCache, RegistryMemo } from '../services/registry-cache.js';
 import { SynthesisPool } from '../services/synthesis-pool.js';
@@ -45,13 +45,6 @@ export function synthesesRouter(ctx: AppContext) {
       .set('X-Synthesis-Cache', computed ? 'miss' : 'hit')
       .type('application/json')
       .send(view.rows === 'all' ? body : await pool.run(caller, { kind: 'view', request, view }));
-  });
-
-  // The pooled rows of a synthesis, a page at a time, sorted on the server (an answer carries only the first page of a long list).
-  router.post('/syntheses/rows', async (req, res) => {
-    const q = parseInput(synthesisTableRequestSchema, req.body);
-    await charge(req, q.request, 'The rows of a synthesis');
-    res.type('application/json').send(await pool.run(callerKey(req), { kind: 'rows', query: q }));
   });
 
   // A link (GET) so a browser downloads it as it is and a script can fetch it; the name carries the registry version.

@@ -6,14 +6,11 @@ import type { Knex } from 'knex';
 import { AppError } from '../lib/errors.js';
 import { FairQueue } from '../lib/fair-queue.js';
 import { settledEffectsAt } from './settled-effects-cache.js';
-import type { SynthesisRequest, SynthesisRowsQuery, SynthesisTableRequest } from '../../shared/schemas/synthesis.js';
+import type { SynthesisRequest, SynthesisRowsQuery } from '../../shared/schemas/synthesis.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 
-/** What the thread answers: the answer (first page of rows), the answer with its rows as asked, or a page of rows. */
-export type SynthesisTask =
-  | { kind: 'answer'; request: SynthesisRequest }
-  | { kind: 'view'; request: SynthesisRequest; view: SynthesisRowsQuery }
-  | { kind: 'rows'; query: SynthesisTableRequest };
+/** What the thread answers: the answer (first page of rows of a long one), or the answer with its rows as asked (?rows=). */
+export type SynthesisTask = { kind: 'answer'; request: SynthesisRequest } | { kind: 'view'; request: SynthesisRequest; view: SynthesisRowsQuery };
 
 export interface ThreadRequest {
   id: number;

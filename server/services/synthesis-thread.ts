@@ -4,7 +4,7 @@ import { parentPort } from 'node:worker_threads';
 import { AppError } from '../lib/errors.js';
 import { filterLoaded, indexByManipulation } from './settled-effects-cache.js';
 import { requestFilters, synthesisRowsView, synthesize } from './synthesis.js';
-import { answerRows, rowsPage } from '../../shared/synthesis/answer-rows.js';
+import { answerRows } from '../../shared/synthesis/answer-rows.js';
 import type { SynthesisAnswer, SynthesisRequest } from '../../shared/schemas/synthesis.js';
 import type { SettledEffect } from '../../shared/synthesis/types.js';
 import type { SynthesisTask, ThreadReply, ThreadRequest } from './synthesis-pool.js';
@@ -30,8 +30,7 @@ function output(request: SynthesisRequest): SynthesisAnswer {
 
 function answer(task: SynthesisTask): string {
   if (task.kind === 'answer') return JSON.stringify(answerRows(output(task.request)));
-  if (task.kind === 'view') return JSON.stringify(synthesisRowsView(output(task.request), task.view));
-  return JSON.stringify(rowsPage(output(task.query.request).rows, task.query));
+  return JSON.stringify(synthesisRowsView(output(task.request), task.view));
 }
 
 parentPort!.on('message', (msg: ThreadRequest) => {

@@ -4,7 +4,7 @@ import { METRICS, SMD_FAMILIES } from '../stats/metrics.js';
 import { PARAMETERS, UNITS } from '../vocabulary/parameters.js';
 import type { PoolResult } from '../stats/types.js';
 import type { PrismaCounts } from '../synthesis/methods.js';
-import type { Caution, PlotFigure, PooledRow, SynthesisOutput } from '../synthesis/types.js';
+import type { Caution, PlotFigure, SynthesisOutput } from '../synthesis/types.js';
 import type { SynthesisFlow } from '../synthesis/flow.js';
 import { pageSchema, pagingSchema, timestamp } from './common.js';
 import { settledEffectRowSchema } from './registry.js';
@@ -145,8 +145,9 @@ export const atlasSlugSchema = z.object({ slug: z.string().trim().min(1).max(120
 /**
  * POST /api/syntheses?rows=…: the per-study rows (`rows`, and `result.weights` beside them) in full (`all`, the
  * default), one page of them sorted on the server (`page`, with page, pageSize, sort, order), or left out (`none`).
+ * `position` is the answer's own order; `se` and `variance` sort alike (the results table names it SE).
  */
-export const SYNTHESIS_ROW_SORTS = ['position', 'label', 'year', 'effect', 'variance', 'weight', 'n'] as const;
+export const SYNTHESIS_ROW_SORTS = ['position', 'label', 'year', 'n', 'effect', 'se', 'variance', 'weight', 'effects', 'subgroup', 'moderator'] as const;
 export type SynthesisRowSort = (typeof SYNTHESIS_ROW_SORTS)[number];
 export const synthesisRowsQuerySchema = pagingSchema(SYNTHESIS_ROW_SORTS, 'position', { pageSize: 50 })
   .extend({ rows: z.enum(['all', 'page', 'none'], { message: 'rows must be all, page or none' }).default('all') })
@@ -170,17 +171,10 @@ export const synthesisRowsPageSchema = z.object({
 export type SynthesisRowsPage = z.infer<typeof synthesisRowsPageSchema>;
 /**
  * POST /api/syntheses answers every pooled row up to SYNTHESIS_INLINE_ROWS; beyond that it carries the first
- * SYNTHESIS_ROWS_PAGE rows (and their weights) with `rowsTotal`, and POST /api/syntheses/rows pages and sorts
- * the rest on the server. `position` is the answer's own order.
+ * SYNTHESIS_ROWS_PAGE rows (and their weights) with `rowsTotal`, and the rest is read with `?rows=page`.
  */
 export const SYNTHESIS_INLINE_ROWS = 1000;
 export const SYNTHESIS_ROWS_PAGE = 25;
-export const SYNTHESIS_TABLE_SORTS = ['position', 'label', 'year', 'n', 'effect', 'se', 'weight', 'effects', 'subgroup', 'moderator'] as const;
-export type SynthesisTableSort = (typeof SYNTHESIS_TABLE_SORTS)[number];
-export const synthesisTableRequestSchema = pagingSchema(SYNTHESIS_TABLE_SORTS, 'position', { pageSize: SYNTHESIS_ROWS_PAGE })
-  .extend({ request: synthesisRequestSchema })
-  .strict();
-export type SynthesisTableRequest = z.infer<typeof synthesisTableRequestSchema>;
 
 // ---- answers (the engine's own output types come from shared/synthesis and shared/stats, wrapped here)
 
@@ -189,8 +183,6 @@ export const synthesisAnswerSchema = z
   .custom<SynthesisOutput>()
   .and(z.object({ registryVersion: z.number().int(), rowsPage: synthesisRowsPageSchema.optional() }));
 export type SynthesisAnswer = z.infer<typeof synthesisAnswerSchema>;
-/** POST /api/syntheses/rows: one page of a synthesis's pooled rows. */
-export const synthesisTablePageSchema = pageSchema(z.custom<PooledRow>((x) => typeof x === 'object' && x !== null && 'effectIds' in x));
 
 const facetSchema = z.object({ value: z.string(), count: z.number().int(), label: z.string().optional() });
 export type Facet = z.infer<typeof facetSchema>;

@@ -1,5 +1,4 @@
-import { SYNTHESIS_INLINE_ROWS, SYNTHESIS_ROWS_PAGE, type SynthesisRowSort, type SynthesisTableSort } from '../schemas/synthesis.js';
-import { pageOf, type Page } from '../schemas/common.js';
+import { SYNTHESIS_INLINE_ROWS, SYNTHESIS_ROWS_PAGE, type SynthesisRowSort } from '../schemas/synthesis.js';
 import type { PooledRow, SynthesisOutput } from './types.js';
 
 /** The answer of a synthesis: every row up to SYNTHESIS_INLINE_ROWS, else the first page of rows and weights and `rowsTotal`. */
@@ -14,9 +13,8 @@ export function answerRows<T extends SynthesisOutput>(output: T): T {
 }
 
 const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
-/** Every field rows are sorted on (`se` and `variance` order alike: the table names it SE, the query variance). */
-export type RowSort = SynthesisTableSort | SynthesisRowSort;
-const SORT_VALUE: Record<Exclude<RowSort, 'position'>, (r: PooledRow) => string | number | null | undefined> = {
+/** Every field rows are sorted on (`se` and `variance` order alike). */
+const SORT_VALUE: Record<Exclude<SynthesisRowSort, 'position'>, (r: PooledRow) => string | number | null | undefined> = {
   label: (r) => r.label,
   year: (r) => r.year,
   n: (r) => r.n,
@@ -30,7 +28,7 @@ const SORT_VALUE: Record<Exclude<RowSort, 'position'>, (r: PooledRow) => string 
 };
 
 /** The row indices sorted on the field (strings in code-point order, missing values last either way, ties in row order). */
-export function rowOrder(rows: readonly PooledRow[], sort: RowSort, order: 'asc' | 'desc'): number[] {
+export function rowOrder(rows: readonly PooledRow[], sort: SynthesisRowSort, order: 'asc' | 'desc'): number[] {
   const dir = order === 'asc' ? 1 : -1;
   const value = sort === 'position' ? null : SORT_VALUE[sort];
   const keys = rows.map((r, i) => (value ? value(r) : i));
@@ -45,9 +43,3 @@ export function rowOrder(rows: readonly PooledRow[], sort: RowSort, order: 'asc'
     });
 }
 
-/** One page of the rows, sorted as rowOrder sorts them. */
-export function rowsPage(rows: readonly PooledRow[], q: { page: number; pageSize: number; sort: SynthesisTableSort; order: 'asc' | 'desc' }): Page<PooledRow> {
-  const from = (q.page - 1) * q.pageSize;
-  if (q.sort === 'position' && q.order === 'asc') return pageOf(rows.slice(from, from + q.pageSize), rows.length, q);
-  return pageOf(rowOrder(rows, q.sort, q.order).slice(from, from + q.pageSize).map((i) => rows[i]), rows.length, q);
-}

@@ -15,7 +15,7 @@ describeAccess(
     { method: 'get', path: '/api/syntheses/facets', who: 'anyone' },
     { method: 'post', path: '/api/syntheses/flow', body, who: 'anyone', bad: { body: { filters: { colour: 'red' } } } },
     { method: 'get', path: `/api/syntheses/export/flow.svg?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/flow.svg' } },
-    { method: 'post', path: '/api/syntheses/rows', body: { request: multilevel, sort: 'weight', order: 'desc' }, who: 'anyone', bad: { body: { request: multilevel, pageSize: 500 } } },
+    { method: 'post', path: '/api/syntheses?rows=page&sort=weight&order=desc', body: multilevel, who: 'anyone', bad: { path: '/api/syntheses?rows=page&pageSize=500', body: multilevel } },
     { method: 'get', path: `/api/syntheses/export/studies.csv?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/studies.csv?request=%7B' } },
     { method: 'get', path: `/api/syntheses/export/synthesis.json?request=${encodeURIComponent(JSON.stringify(body))}`, who: 'anyone', bad: { path: '/api/syntheses/export/slides.pptx?request=%7B%7D' } },
     { method: 'get', path: '/api/snapshots', who: 'anyone', bad: { path: '/api/snapshots?sort=password&pageSize=0' } },

@@ -98,20 +98,50 @@ describe('POST /api/syntheses with dependence { mode: "multilevel" }', () => {
     expect(methods.text).toMatch(/CR2 variance estimator.*Satterthwaite/);
     expect(methods.text).not.toMatch(/DerSimonian/);
   });
-  it('POST /api/syntheses/rows pages and sorts the pooled rows on the server (missing values last, ties in row order); bad paging is a 400', async () => {
-    const all = (await anonymous(t.app).post('/api/syntheses').send(multilevel)).body.rows as any[];
-    const first = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, page: 2, pageSize: 5 });
+  it('POST /api/syntheses?rows=page pages and sorts the pooled rows on the server (missing values last, ties in row order); bad paging is a 400', async () => {
+    const full = (await anonymous(t.app).post('/api/syntheses').send(multilevel)).body;
+    const all = full.rows as any[];
+    const page = (query: string) => anonymous(t.app).post(`/api/syntheses?rows=page&${query}`).send(multilevel);
+    const first = await page('page=2&pageSize=5');
     expect(first.status).toBe(200);
-    expect(first.body).toMatchObject({ total: 17, page: 2, pageSize: 5 });
-    expect(first.body.items).toEqual(all.slice(5, 10));
-    const byWeight = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, pageSize: 200, sort: 'weight', order: 'desc' });
-    const expected = all.map((r, i) => ({ r, i })).sort((a, b) => b.r.weight - a.r.weight || a.i - b.i).map((x) => x.r);
-    expect(byWeight.body.items).toEqual(expected);
-    const byLabel = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, pageSize: 200, sort: 'label' });
-    const labels = byLabel.body.items.map((r: any) => r.label);
+    expect(first.body.rowsPage).toEqual({ rows: 'page', total: 17, page: 2, pageSize: 5, sort: 'position', order: 'asc' });
+    expect(first.body.rows).toEqual(all.slice(5, 10));
+    expect(first.body.result.weights).toEqual(full.result.weights.slice(5, 10));
+    // the order rowOrder promises: missing values last either way, ties in the answer's own order
+    const expected = (value: (r: any) => unknown, dir: 1 | -1) =>
+      all
+        .map((r, i) => ({ r, i, v: value(r) }))
+        .sort((a, b) => {
+          if (a.v == null || b.v == null) return a.v == null && b.v == null ? a.i - b.i : a.v == null ? 1 : -1;
+          const c = typeof a.v === 'number' ? (a.v as number) - (b.v as number) : a.v < b.v! ? -1 : a.v > b.v! ? 1 : 0;
+          return c * dir || a.i - b.i;
+        })
+        .map((x) => x.r);
+    const byWeight = await page('pageSize=200&sort=weight&order=desc');
+    expect(byWeight.body.rows).toEqual(expected((r) => r.weight, -1));
+    const byLabel = await page('pageSize=200&sort=label');
+    const labels = byLabel.body.rows.map((r: any) => r.label);
     expect(labels).toEqual([...labels].sort((a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0)));
-    const bad = await anonymous(t.app).post('/api/syntheses/rows').send({ request: multilevel, page: 0, sort: 'colour' });
+    expect(byLabel.body.rows).toEqual(expected((r) => r.label, 1));
+    // papers with several effects share a year and an n: ties keep the answer's order in both directions
+    for (const order of ['asc', 'desc'] as const) {
+      const byYear = await page(`pageSize=200&sort=year&order=${order}`);
+      expect(byYear.body.rows).toEqual(expected((r) => r.year, order === 'asc' ? 1 : -1));
+      const byEffects = await page(`pageSize=200&sort=effects&order=${order}`);
+      expect(byEffects.body.rows).toEqual(all);
+    }
+    // without a subgroup every row lacks one: missing values all, so the answer's own order in both directions
+    for (const order of ['asc', 'desc'] as const) expect((await page(`pageSize=200&sort=subgroup&order=${order}`)).body.rows).toEqual(all);
+    const grouped = { ...multilevel, subgroup: 'modality' };
+    const groupedRows = (await anonymous(t.app).post('/api/syntheses').send(grouped)).body.rows as any[];
+    const bySubgroup = await anonymous(t.app).post('/api/syntheses?rows=page&pageSize=200&sort=subgroup&order=desc').send(grouped);
+    expect(bySubgroup.body.rowsPage.total).toBe(groupedRows.length);
+    const subgroups = bySubgroup.body.rows.map((r: any) => r.subgroup);
+    expect(new Set(subgroups).size).toBe(2);
+    expect(subgroups).toEqual([...subgroups].sort().reverse());
+    expect(bySubgroup.body.rows.filter((r: any) => r.subgroup === subgroups[0])).toEqual(groupedRows.filter((r) => r.subgroup === subgroups[0]));
+    const bad = await page('page=0&sort=colour');
     expect(bad.status).toBe(400);
-    expect(bad.body.error.details.map((d: any) => d.path).sort()).toEqual(['body.page', 'body.sort']);
+    expect(bad.body.error.details.map((d: any) => d.path).sort()).toEqual(['query.page', 'query.sort']);
   });
 });

@@ -1,19 +1,22 @@
 import { keepPreviousData, useQuery } from '@tanstack/react-query';
-import type { z } from 'zod';
-import type { SynthesisRequest, SynthesisTableSort, synthesisTablePageSchema } from '../../../../shared/schemas/synthesis';
-import { api } from '../../../lib/api-client';
+import type { SynthesisAnswer, SynthesisRequest, SynthesisRowSort } from '../../../../shared/schemas/synthesis';
+import type { Page } from '../../../../shared/schemas/common';
+import type { PooledRow } from '../../../../shared/synthesis/types';
+import { api, queryString } from '../../../lib/api-client';
 import { queryKeys } from '../../../lib/query/keys';
 
-export type SynthesisTablePage = z.infer<typeof synthesisTablePageSchema>;
 export interface RowsPaging {
   page: number;
   pageSize: number;
-  sort: SynthesisTableSort;
+  sort: SynthesisRowSort;
   order: 'asc' | 'desc';
 }
 
-export const getSynthesisRows = (request: SynthesisRequest, paging: RowsPaging, signal?: AbortSignal) =>
-  api<SynthesisTablePage>('/api/syntheses/rows', { body: { request, ...paging }, signal });
+/** One page of a synthesis's pooled rows, sorted on the server (POST /api/syntheses?rows=page); only the rows are kept. */
+export async function getSynthesisRows(request: SynthesisRequest, paging: RowsPaging, signal?: AbortSignal): Promise<Page<PooledRow>> {
+  const answer = await api<SynthesisAnswer>(`/api/syntheses${queryString({ rows: 'page', ...paging })}`, { body: request, signal });
+  return { items: answer.rows, total: answer.rowsPage?.total ?? answer.rows.length, page: paging.page, pageSize: paging.pageSize };
+}
 
 /** One page of a long synthesis's pooled rows, sorted on the server; off (enabled: false) while the answer's own first page serves. */
 export function useSynthesisRows(request: SynthesisRequest, paging: RowsPaging, enabled: boolean) {

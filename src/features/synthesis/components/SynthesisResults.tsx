@@ -1,5 +1,5 @@
 import { useState, type ComponentType } from 'react';
-import { METHOD_LABELS, MODERATOR_LABELS, SYNTHESIS_ROWS_PAGE, type SynthesisTableSort } from '../../../../shared/schemas/synthesis';
+import { METHOD_LABELS, MODERATOR_LABELS, SYNTHESIS_ROWS_PAGE, type SynthesisRowSort } from '../../../../shared/schemas/synthesis';
 import { dependenceSentence } from '../../../../shared/synthesis/methods';
 import type { CorrelationSensitivityRow, PlotFigure, PooledRow, SensitivityRow, SynthesisOutput } from '../../../../shared/synthesis/types';
 import { Caution } from '../../../components/ui/Notice';
@@ -26,7 +26,7 @@ function Stat({ label, children }: { label: string; children: React.ReactNode })
 
 /**
  * The pooled rows: all in the answer (sorted and paged here), or, for a long synthesis whose answer holds only
- * the first page, paged and sorted by POST /api/syntheses/rows.
+ * the first page, paged and sorted by the server (POST /api/syntheses?rows=page).
  */
 function PooledRowsTable({ data, caption, columns, rowKey }: { data: SynthesisOutput; caption: string; columns: Column<PooledRow>[]; rowKey: (row: PooledRow) => string | number }) {
   const [page, setPage] = useState(1);
@@ -35,7 +35,7 @@ function PooledRowsTable({ data, caption, columns, rowKey }: { data: SynthesisOu
   const paged = data.rowsTotal !== undefined;
   const rows = useSynthesisRows(
     data.request,
-    { page, pageSize: SYNTHESIS_ROWS_PAGE, sort: (sort?.key ?? 'position') as SynthesisTableSort, order: sort?.dir === -1 ? 'desc' : 'asc' },
+    { page, pageSize: SYNTHESIS_ROWS_PAGE, sort: (sort?.key ?? 'position') as SynthesisRowSort, order: sort?.dir === -1 ? 'desc' : 'asc' },
     paged && !fromAnswer,
   );
   if (!paged) return <ResultTable caption={caption} columns={columns} rows={data.rows} rowKey={rowKey} />;
