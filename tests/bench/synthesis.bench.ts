@@ -9,7 +9,8 @@
 //   2. GET /api/atlas/manipulations/:term/pooled: 2,000 req/s for 30 s with no errors (cached by registry version).
 //   3. POST /api/syntheses over ~200 effects, uncached: 300 req/s.
 // BENCH_PARTS=1c (a comma list of 1, 1c, 2, 3) runs only those parts; BENCH_PROFILE_DIR keeps the server's CPU
-// profile, BENCH_VERBOSE prints every request's time.
+// profile, BENCH_SERVER_FLAGS adds node flags to the server (e.g. --trace-gc, shown with BENCH_SERVER_OUT=1),
+// BENCH_VERBOSE prints every request's time.
 import { spawn } from 'node:child_process';
 import autocannon from 'autocannon';
 import { createDb } from '../../server/db/knex.js';
@@ -42,7 +43,7 @@ try {
 
   // BENCH_PROFILE_DIR=/some/dir writes the server's CPU profile there when the bench ends.
   const profile = process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
-  server = spawn(process.execPath, [...profile, '--import', 'tsx', 'server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', 'ignore', 'pipe'] });
+  server = spawn(process.execPath, [...profile, ...(process.env.BENCH_SERVER_FLAGS?.split(' ').filter(Boolean) ?? []), '--import', 'tsx', 'server/index.ts'], { env: { ...process.env, JOBS_ENABLED: 'false', NODE_ENV: 'production' }, stdio: ['ignore', process.env.BENCH_SERVER_OUT ? 'inherit' : 'ignore', 'pipe'] });
   let serverErr = '';
   server.stderr!.on('data', (d) => (serverErr += String(d)));
   server.on('exit', (code) => {
