@@ -8,6 +8,23 @@ import { useAudit, type AuditFilters } from '../api/get-audit';
 const inputClass = 'ml-1 rounded border border-paper-edge bg-white px-2 py-1';
 const byLabel = (table: Record<string, string>) => Object.entries(table).sort((a, b) => a[1].localeCompare(b[1]));
 
+/** A filter picked from one of the label tables, 'any' first. */
+function LabelChoice({ label, table, value, onChange }: { label: string; table: Record<string, string>; value: string | undefined; onChange: (value: string) => void }) {
+  return (
+    <label>
+      {label}
+      <select className={inputClass} aria-label={label} value={value ?? ''} onChange={(e) => onChange(e.target.value)}>
+        <option value="">any</option>
+        {byLabel(table).map(([code, text]) => (
+          <option key={code} value={code}>
+            {text}
+          </option>
+        ))}
+      </select>
+    </label>
+  );
+}
+
 /** The audit log with filters by person, action, record and a range of days; details said in words. */
 export function AuditTable() {
   const [page, setPage] = useState(1);
@@ -25,28 +42,8 @@ export function AuditTable() {
           Person
           <input className={inputClass} aria-label="Person" value={filters.actor ?? ''} placeholder="login, or system" onChange={(e) => set('actor')(e.target.value)} />
         </label>
-        <label>
-          Action
-          <select className={inputClass} aria-label="Action" value={filters.action ?? ''} onChange={(e) => set('action')(e.target.value)}>
-            <option value="">any</option>
-            {byLabel(LABELS.auditAction).map(([code, label]) => (
-              <option key={code} value={code}>
-                {label}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label>
-          Record
-          <select className={inputClass} aria-label="Record" value={filters.entityType ?? ''} onChange={(e) => set('entityType')(e.target.value)}>
-            <option value="">any</option>
-            {byLabel(LABELS.record).map(([code, label]) => (
-              <option key={code} value={code}>
-                {label}
-              </option>
-            ))}
-          </select>
-        </label>
+        <LabelChoice label="Action" table={LABELS.auditAction} value={filters.action} onChange={set('action')} />
+        <LabelChoice label="Record" table={LABELS.record} value={filters.entityType} onChange={set('entityType')} />
         <label>
           Number
           <input className={`${inputClass} w-24`} inputMode="numeric" aria-label="Number" value={filters.entityId ?? ''} onChange={(e) => set('entityId')(e.target.value)} />
