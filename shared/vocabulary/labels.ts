@@ -56,6 +56,7 @@ export const LABELS = {
     'token.revoked': 'API token revoked',
     'import.create': 'Import started',
     'import.finish': 'Import finished',
+    'import.fail': 'Import stopped',
     'reference.edit': 'Reference edited',
     'reference.merge': 'Duplicate references merged',
     'reference.duplicate_dismissed': 'Possible duplicate dismissed',

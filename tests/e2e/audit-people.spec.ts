@@ -49,7 +49,11 @@ export const specs: Spec[] = [
       await form.getByLabel('Record', { exact: true }).selectOption({ label: 'Person' });
       const today = new Date().toISOString().slice(0, 10);
       await form.getByLabel('From', { exact: true }).fill(today);
+      // the list answers each filter in turn: wait for the answer to the last one before reading it
+      const filtered = page.waitForResponse((r) => r.url().includes('/api/audit') && new URL(r.url()).searchParams.get('to') === today && new URL(r.url()).searchParams.get('action') === 'role.revoked');
       await form.getByLabel('To', { exact: true }).fill(today);
+      await filtered;
+      await page.getByRole('row', { name: /Role granted/ }).first().waitFor({ state: 'detached' });
       const row = page.getByRole('row', { name: /Role removed/ }).first();
       await row.waitFor();
       const text = await row.innerText();
