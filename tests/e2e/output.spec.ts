@@ -60,13 +60,13 @@ export const specs: Spec[] = [
       const flow = await download(page, /PRISMA 2020 flow diagram/);
       assert.match(flow.name, /^chronometa-synthesis-v\d+-flow\.svg$/);
       assert.match(flow.text, /<svg [^>]*role="img"/);
-      const entering = flow.text.match(/Entering this synthesis \(n = (\d+) references?\)/);
+      const entering = flow.text.match(/Entering this synthesis \(n = ([\d,]+) references?\)/);
       assert.ok(entering, 'the diagram names what enters the synthesis');
-      // one box per screening stage, each with its exclusions and what still waits
-      assert.match(flow.text, /Records screened on title and abstract \(n = \d+\)/);
-      assert.match(flow.text, /Reports assessed in full text \(n = \d+\)/);
-      assert.match(flow.text, /Reports excluded \(n = \d+\)/);
-      assert.match(flow.text, /Awaiting full-text screening \(n = \d+\)/);
+      // one box per screening stage, each with its exclusions and what still waits (counts with thousands separators)
+      assert.match(flow.text, /Records screened on title and abstract \(n = [\d,]+\)/);
+      assert.match(flow.text, /Reports assessed in full text \(n = [\d,]+\)/);
+      assert.match(flow.text, /Reports excluded \(n = [\d,]+\)/);
+      assert.match(flow.text, /Awaiting full-text screening \(n = [\d,]+\)/);
 
       await page.getByLabel('Snapshot title (optional)').fill('Luminance flow, browser check');
       await page.getByRole('button', { name: 'Save snapshot' }).click();
