@@ -139,6 +139,10 @@ export function dataCases(): DataCase[] {
     invented('all singletons', 17, {
       sizes: Array(15).fill(1), mu: 0.25, sigma2Between: 0.05, sigma2Within: 0.05, vmin: 0.01, vmax: 0.1,
     }),
+    // a paper of 60 effects: its CR2 block (60×60) goes through the Householder + QL eigen-decomposition
+    invented('one paper of 60 effects among small ones', 21, {
+      sizes: [60, 3, 4, 2, 5, 3, 4, 1, 6, 2, 3], mu: 0.2, sigma2Between: 0.05, sigma2Within: 0.03, vmin: 0.01, vmax: 0.1,
+    }),
     invented('two clusters', 18, { sizes: [4, 5], mu: 0.3, sigma2Between: 0.05, sigma2Within: 0.02, vmin: 0.01, vmax: 0.05 }),
     invented('200 effects in 40 clusters, moderator, 90% level', 19, {
       sizes: Array.from({ length: 40 }, (_, j) => 1 + ((j * 3) % 9)).slice(0, 40), mu: 0.5, sigma2Between: 0.1,

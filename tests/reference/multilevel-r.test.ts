@@ -27,7 +27,7 @@ function failures(errors: Record<string, number>): string[] {
 describe('poolMultilevel and robustPool against metafor rma.mv and clubSandwich CR2', () => {
   it('covers both boundaries, singletons, all singletons, identical effects, moderators and both tests', () => {
     const names = new Set(cases.map((c) => c.name));
-    expect(names.size).toBe(16);
+    expect(names.size).toBe(17);
     const at = (name: string) => cases.find((c) => c.name === name && c.test === 'z')!;
     const fit = (name: string) => poolMultilevel(input(at(name)));
     expect(fit('between-cluster variance at 0').sigma2_between).toBe(0);
