@@ -2,27 +2,8 @@ import assert from 'node:assert/strict';
 import type { Locator, Page } from 'playwright-core';
 import type { Spec } from './run.js';
 import { appUrl, signInThroughPage } from './browser.js';
+import { fillStudy, openOwnSheet } from './own-sheet.js';
 
-const origin = () => ({ Origin: new URL(process.env.APP_ORIGIN!).origin });
-
-/** Imports a reference of the spec's own (a unique stamp), includes it at both stages and claims it: its sheet's id. */
-async function ownSheet(page: Page, key: string, title: string): Promise<number> {
-  const stamp = `${Date.now()}${Math.floor(Math.random() * 1000)}`;
-  const imported = await page.request.post(appUrl('/api/imports'), {
-    headers: origin(),
-    data: { format: 'bibtex', text: `@article{${key}${stamp}, title={${title} ${stamp}}, author={Signwell, Oona}, year={2022}, doi={10.5555/${key}.${stamp}}}` },
-  });
-  assert.equal(imported.status(), 201, await imported.text());
-  const refId = ((await imported.json()) as { entries: { referenceId: number }[] }).entries[0].referenceId;
-  const { version } = ((await (await page.request.get(appUrl(`/api/references/${refId}`))).json()) as { reference: { version: number } }).reference;
-  for (const v of [version, version + 1]) {
-    const included = await page.request.post(appUrl(`/api/references/${refId}/screening`), { headers: origin(), data: { decision: 'included', version: v } });
-    assert.equal(included.status(), 201, await included.text());
-  }
-  const claimed = await page.request.post(appUrl('/api/extractions'), { headers: origin(), data: { referenceId: refId } });
-  assert.equal(claimed.status(), 201, await claimed.text());
-  return ((await claimed.json()) as { id: number }).id;
-}
 
 type SavedEffect = { label: string; parameter?: string; unit?: string; reported: Record<string, number>; computed: { effect: number; signReversed?: boolean } | null };
 type SavedStudy = { label: string; task?: string; effects: SavedEffect[] };
@@ -54,16 +35,10 @@ export const specs: Spec[] = [
     name: 'a lower PSE in bisection: the sheet says it reversed the sign, and the saved effect is positive with the values kept as entered',
     async run(page) {
       await signInThroughPage(page, 'curator');
-      const id = await ownSheet(page, 'sign', 'Dim discs and the bisection PSE');
-      await page.goto(appUrl(`/extractions/${id}`));
-      await page.getByRole('heading', { name: /Extraction sheet/ }).waitFor();
+      const id = await openOwnSheet(page, 'sign', 'Dim discs and the bisection PSE');
       await page.getByRole('button', { name: '+ Add a study' }).click();
       const study = page.getByRole('region', { name: 'Study 1' });
-      await study.getByLabel('Design', { exact: true }).selectOption('within');
-      await study.getByLabel('n (participants)', { exact: true }).fill('20');
-      await study.getByLabel('Population', { exact: true }).selectOption('healthy_adults');
-      await study.getByLabel('Modality', { exact: true }).selectOption('visual');
-      await study.getByLabel('Task', { exact: true }).selectOption('bisection');
+      await fillStudy(study, { design: 'within', n: '20', population: 'healthy_adults', modality: 'visual', task: 'bisection' });
       const effect = study.getByRole('group', { name: 'Study 1, effect 1' });
       await effect.getByLabel('Label (what was contrasted)').fill('bright vs dim');
       await effect.getByLabel('Outcome kind').selectOption('duration_distortion');
@@ -161,9 +136,7 @@ export const specs: Spec[] = [
     name: 'CSV bulk entry with parameter and unit columns: a good file joins the sheet with its labels; a parameter its outcome kind does not allow is refused naming the allowed terms, and nothing of it is written',
     async run(page) {
       await signInThroughPage(page, 'curator');
-      const id = await ownSheet(page, 'csv', 'Bulk-entered PSEs and percentages');
-      await page.goto(appUrl(`/extractions/${id}`));
-      await page.getByRole('heading', { name: /Extraction sheet/ }).waitFor();
+      const id = await openOwnSheet(page, 'csv', 'Bulk-entered PSEs and percentages');
       await page.getByText('No studies yet.', { exact: false }).waitFor();
       await page.getByRole('form', { name: 'Extraction sheet' }).getByText('Add effects from a CSV (bulk entry)').click();
 

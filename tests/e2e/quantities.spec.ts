@@ -1,6 +1,7 @@
 import assert from 'node:assert/strict';
 import type { Spec } from './run.js';
 import { appUrl, signInThroughPage } from './browser.js';
+import { fillStudy, openOwnSheet } from './own-sheet.js';
 
 export const specs: Spec[] = [
   {
@@ -18,11 +19,7 @@ export const specs: Spec[] = [
 
       await page.getByRole('button', { name: '+ Add a study' }).click();
       const study = page.getByRole('region', { name: 'Study 1' });
-      await study.getByLabel('Design', { exact: true }).selectOption('within');
-      await study.getByLabel('n (participants)', { exact: true }).fill('20');
-      await study.getByLabel('Population', { exact: true }).selectOption('healthy_adults');
-      await study.getByLabel('Modality', { exact: true }).selectOption('audiovisual');
-      await study.getByLabel('Task', { exact: true }).selectOption('temporal_order_judgement');
+      await fillStudy(study, { design: 'within', n: '20', population: 'healthy_adults', modality: 'audiovisual', task: 'temporal_order_judgement' });
       const effect = study.getByRole('group', { name: 'Study 1, effect 1' });
       await effect.getByLabel('Outcome kind').selectOption('temporal_order');
       await effect.getByText(/Sign: positive = the PSS moves/).waitFor();
@@ -67,24 +64,7 @@ export const specs: Spec[] = [
     name: 'an effect from a p bound is flagged on the sheet, and a synthesis can leave such effects out (the address keeps it)',
     async run(page) {
       await signInThroughPage(page, 'curator');
-      const headers = { Origin: new URL(process.env.APP_ORIGIN!).origin };
-      // a reference of its own, imported and included, so earlier specs' claims cannot use it up
-      const stamp = Date.now();
-      const imported = await page.request.post(appUrl('/api/imports'), {
-        headers,
-        data: { format: 'bibtex', text: `@article{bound${stamp}, title={Dimmer flashes and a p bound ${stamp}}, author={Boundary, Ilse}, year={2020}, doi={10.5555/bound.${stamp}}}` },
-      });
-      assert.equal(imported.status(), 201);
-      const ref = { id: ((await imported.json()) as { entries: { referenceId: number }[] }).entries[0].referenceId };
-      const { version } = ((await (await page.request.get(appUrl(`/api/references/${ref.id}`))).json()) as { reference: { version: number } }).reference;
-      // Included on title and abstract, then at full text: only then is it coded.
-      const passed = await page.request.post(appUrl(`/api/references/${ref.id}/screening`), { headers, data: { decision: 'included', version } });
-      assert.equal(passed.status(), 201, await passed.text());
-      const included = await page.request.post(appUrl(`/api/references/${ref.id}/screening`), { headers, data: { decision: 'included', version: version + 1 } });
-      assert.equal(included.status(), 201, await included.text());
-      const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: ref.id } });
-      assert.equal(claimed.status(), 201);
-      await page.goto(appUrl(`/extractions/${((await claimed.json()) as { id: number }).id}`));
+      await openOwnSheet(page, 'bound', 'Dimmer flashes and a p bound');
       await page.getByRole('button', { name: '+ Add a study' }).click();
       const effect = page.getByRole('region', { name: 'Study 1' }).getByRole('group', { name: 'Study 1, effect 1' });
       await effect.getByLabel('Outcome kind').selectOption('duration_distortion');

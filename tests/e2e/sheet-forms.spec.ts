@@ -1,37 +1,14 @@
 import assert from 'node:assert/strict';
-import type { Page } from 'playwright-core';
 import type { Spec } from './run.js';
-import { appUrl, signInThroughPage } from './browser.js';
-
-/** A reference of the spec's own, imported, included and claimed (demo references are left to other specs). */
-async function claimOwnReference(page: Page, title: string): Promise<number> {
-  const headers = { Origin: new URL(process.env.APP_ORIGIN!).origin };
-  const stamp = Date.now();
-  const imported = await page.request.post(appUrl('/api/imports'), {
-    headers,
-    data: { format: 'bibtex', text: `@article{forms${stamp}, title={${title} ${stamp}}, author={Formwright, Ada}, year={2021}, doi={10.5555/forms.${stamp}}}` },
-  });
-  assert.equal(imported.status(), 201, await imported.text());
-  const refId = ((await imported.json()) as { entries: { referenceId: number }[] }).entries[0].referenceId;
-  const { version } = ((await (await page.request.get(appUrl(`/api/references/${refId}`))).json()) as { reference: { version: number } }).reference;
-  // two stages: title and abstract, then full text
-  for (const v of [version, version + 1]) {
-    const included = await page.request.post(appUrl(`/api/references/${refId}/screening`), { headers, data: { decision: 'included', version: v } });
-    assert.equal(included.status(), 201, await included.text());
-  }
-  const claimed = await page.request.post(appUrl('/api/extractions'), { headers, data: { referenceId: refId } });
-  assert.equal(claimed.status(), 201, await claimed.text());
-  return ((await claimed.json()) as { id: number }).id;
-}
+import { signInThroughPage } from './browser.js';
+import { openOwnSheet } from './own-sheet.js';
 
 export const specs: Spec[] = [
   {
     name: 'the sheet computes effects from a ratio CI, a percent-change CI and 2×2 counts, and refuses an interval not centred on its ratio in words',
     async run(page) {
       await signInThroughPage(page, 'curator');
-      const id = await claimOwnReference(page, 'Ratios and judgement counts');
-      await page.goto(appUrl(`/extractions/${id}`));
-      await page.getByRole('heading', { name: /Extraction sheet/ }).waitFor();
+      await openOwnSheet(page, 'forms', 'Ratios and judgement counts');
       await page.getByRole('button', { name: '+ Add a study' }).click();
       const study = page.getByRole('region', { name: 'Study 1' });
       const effect = (j: number) => study.getByRole('group', { name: `Study 1, effect ${j}` });
